@@ -1,0 +1,1 @@
+//! loopside core: computations for 4–20 mA loop work.
