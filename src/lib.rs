@@ -18,4 +18,5 @@ pub mod display;
 pub mod resistor;
 pub mod scale;
 pub mod signal;
+pub mod tag;
 pub mod wire;
