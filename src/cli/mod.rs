@@ -8,6 +8,7 @@
 //! written) exit with 1.
 
 mod calc;
+mod store;
 
 use crate::error::FieldError;
 use clap::{Parser, Subcommand};
@@ -42,6 +43,16 @@ pub enum Command {
     Status(calc::StatusArgs),
     /// Volts, power and reading error of a sense resistor.
     Resistor(calc::ResistorArgs),
+    /// Keep the tag register: add, edit, list, show, rename, archive tags.
+    Tag(store::TagArgs),
+    /// Write, list and search the field log; close follow-ups.
+    Note(store::NoteArgs),
+    /// Write a handoff report (Markdown, CSV or a JSON bundle).
+    Export(store::ExportArgs),
+    /// Merge a JSON bundle from another device into this store.
+    Import(store::ImportArgs),
+    /// Fill an empty store with the demo plant (Brindlemoor Water Reclamation Works).
+    Demo(store::DemoArgs),
 }
 
 /// An error a subcommand reports: bad input (exit 2) or something else (exit 1).
@@ -77,6 +88,11 @@ pub fn run_command(command: Command, out: &mut dyn Write) -> CliResult {
         Command::Units(args) => calc::units(args, out),
         Command::Status(args) => calc::status(args, out),
         Command::Resistor(args) => calc::resistor(args, out),
+        Command::Tag(args) => store::tag(args, out),
+        Command::Note(args) => store::note(args, out),
+        Command::Export(args) => store::export(args, out),
+        Command::Import(args) => store::import(args, out),
+        Command::Demo(args) => store::demo(args, out),
     }
 }
 
