@@ -97,8 +97,16 @@ pub fn verified_json(line: &[u8]) -> Option<&[u8]> {
     if line.len() < 18 || line[16] != b' ' {
         return None;
     }
-    let hex = std::str::from_utf8(&line[..16]).ok()?;
-    let want = u64::from_str_radix(hex, 16).ok()?;
+    // Lower-case hex only, so that even a flipped case bit is seen as damage.
+    let mut want: u64 = 0;
+    for &b in &line[..16] {
+        let digit = match b {
+            b'0'..=b'9' => b - b'0',
+            b'a'..=b'f' => b - b'a' + 10,
+            _ => return None,
+        };
+        want = (want << 4) | u64::from(digit);
+    }
     let json = &line[17..];
     (check(json) == want).then_some(json)
 }
