@@ -162,13 +162,13 @@ pub struct TagAddArgs {
 #[command(after_help = "Examples:\n  \
     loopside tag edit LT-101 --area \"Inlet works, JB-02\" --tolerance 0,25\n  \
     loopside tag edit PDT-707 --range 250..0 --unit mbar\n\
-    Giving --range replaces the whole range and transfer (give --unit and --sqrt/--table again);\n\
+    Giving --range replaces the whole range and transfer (give --sqrt/--table again; the unit is kept unless --unit is given);\n\
     giving any loop option replaces the loop (give --supply and --min-volts again); --no-loop removes it.")]
 pub struct TagEditArgs {
     /// Tag number.
     number: String,
     #[command(flatten)]
-    range: Option<RangeArgs>,
+    range: EditRangeArgs,
     #[command(flatten)]
     describe: DescribeArgs,
     #[command(flatten)]
@@ -176,6 +176,53 @@ pub struct TagEditArgs {
     /// Forget the loop configuration.
     #[arg(long)]
     no_loop: bool,
+}
+
+/// A new range for `tag edit`: the same options as `tag add`, all optional; giving
+/// `--range` replaces the range and transfer, keeping the unit unless `--unit` is given.
+#[derive(Debug, Args)]
+pub struct EditRangeArgs {
+    /// New range as LRV..URV in the engineering unit.
+    #[arg(long, allow_hyphen_values = true, value_name = "LRV..URV")]
+    range: Option<String>,
+    /// Engineering unit of the new range.
+    #[arg(long, value_name = "U", requires = "range")]
+    unit: Option<String>,
+    /// Square-root (DP flow) transfer.
+    #[arg(long, requires = "range")]
+    sqrt: bool,
+    /// Low-flow cutoff for --sqrt, % of flow (0–100).
+    #[arg(long, allow_hyphen_values = true, value_name = "PCT", requires = "sqrt")]
+    cutoff: Option<String>,
+    /// Where the square root is taken: receiver (default) or transmitter.
+    #[arg(long, value_name = "WHERE", requires = "sqrt", value_parser = ["receiver", "transmitter"])]
+    root_in: Option<String>,
+    /// Characterization table as IN:OUT pairs.
+    #[arg(long, allow_hyphen_values = true, value_name = "IN:OUT;…", conflicts_with = "sqrt", requires = "range")]
+    table: Option<String>,
+    /// Unit of the table's output.
+    #[arg(long, value_name = "U", requires = "table")]
+    table_unit: Option<String>,
+    /// Signal span in mA, default 4..20.
+    #[arg(long, allow_hyphen_values = true, value_name = "LOW..HIGH", requires = "range")]
+    signal: Option<String>,
+}
+
+impl EditRangeArgs {
+    /// The new range, if one was given, as the same flags `tag add` takes.
+    fn range_args(&self, current_unit: &str) -> Option<RangeArgs> {
+        let range = self.range.clone()?;
+        Some(RangeArgs {
+            range,
+            unit: self.unit.clone().unwrap_or_else(|| current_unit.to_string()),
+            sqrt: self.sqrt,
+            cutoff: self.cutoff.clone(),
+            root_in: self.root_in.clone(),
+            table: self.table.clone(),
+            table_unit: self.table_unit.clone(),
+            signal: self.signal.clone(),
+        })
+    }
 }
 
 /// `loopside tag list`
@@ -239,7 +286,7 @@ pub(super) fn tag(args: TagArgs, out: &mut dyn Write) -> CliResult {
         TagCommand::Edit(a) => {
             let record = store.require_tag(&a.number).map_err(store_error)?.clone();
             let mut tag = record.tag.clone();
-            if let Some(r) = &a.range {
+            if let Some(r) = a.range.range_args(&tag.scale.unit) {
                 tag.scale = r.scale()?;
             }
             a.describe.apply(&mut tag)?;
