@@ -76,7 +76,8 @@ fn killed_appends_lose_nothing_acknowledged() {
             BufReader::new(stdout)
                 .lines()
                 .map_while(Result::ok)
-                .filter_map(|l| l.strip_prefix("ID ").map(str::to_string))
+                // The first id shares a line with the harness's "test crash_child ... ".
+                .filter_map(|l| l.find("ID ").map(|i| l[i + 3..].trim().to_string()))
                 .collect::<Vec<String>>()
         });
         std::thread::sleep(Duration::from_millis(5 + rng.below(120)));

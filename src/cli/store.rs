@@ -192,19 +192,35 @@ pub struct EditRangeArgs {
     #[arg(long, requires = "range")]
     sqrt: bool,
     /// Low-flow cutoff for --sqrt, % of flow (0–100).
-    #[arg(long, allow_hyphen_values = true, value_name = "PCT", requires = "sqrt")]
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "PCT",
+        requires = "sqrt"
+    )]
     cutoff: Option<String>,
     /// Where the square root is taken: receiver (default) or transmitter.
     #[arg(long, value_name = "WHERE", requires = "sqrt", value_parser = ["receiver", "transmitter"])]
     root_in: Option<String>,
     /// Characterization table as IN:OUT pairs.
-    #[arg(long, allow_hyphen_values = true, value_name = "IN:OUT;…", conflicts_with = "sqrt", requires = "range")]
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "IN:OUT;…",
+        conflicts_with = "sqrt",
+        requires = "range"
+    )]
     table: Option<String>,
     /// Unit of the table's output.
     #[arg(long, value_name = "U", requires = "table")]
     table_unit: Option<String>,
     /// Signal span in mA, default 4..20.
-    #[arg(long, allow_hyphen_values = true, value_name = "LOW..HIGH", requires = "range")]
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "LOW..HIGH",
+        requires = "range"
+    )]
     signal: Option<String>,
 }
 
@@ -214,7 +230,10 @@ impl EditRangeArgs {
         let range = self.range.clone()?;
         Some(RangeArgs {
             range,
-            unit: self.unit.clone().unwrap_or_else(|| current_unit.to_string()),
+            unit: self
+                .unit
+                .clone()
+                .unwrap_or_else(|| current_unit.to_string()),
             sqrt: self.sqrt,
             cutoff: self.cutoff.clone(),
             root_in: self.root_in.clone(),
