@@ -37,6 +37,8 @@ fn awg_resistance_at_75c_against_nec_chapter_9_table_8() {
     // NEC Chapter 9, Table 8, uncoated copper at 75 °C, Ω/1000 ft (solid / stranded).
     // Our solid-conductor model with α = 0.00393 (IEC 60028) should sit within 0.5 % of
     // the solid figure and below the stranded one (stranding adds length).
+    // 3.14 below is the table's figure for AWG 14 stranded, not an approximation of π.
+    #[allow(clippy::approx_constant)]
     let table = [
         (18, 7.77, 7.95),
         (16, 4.89, 4.99),

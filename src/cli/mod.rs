@@ -29,6 +29,8 @@ pub struct Cli {
 }
 
 /// The subcommands.
+// Parsed once per run; boxing the larger argument structs would buy nothing.
+#[allow(clippy::large_enum_variant)]
 #[derive(Debug, Subcommand)]
 pub enum Command {
     /// Convert a reading between mA, % of span, engineering value and volts.

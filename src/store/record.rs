@@ -45,6 +45,9 @@ impl Header {
 
 /// One line of the store after the header: a tag definition (new or changed) or a log
 /// entry. The last tag line for an id is that tag's current definition.
+// Records live only between encoding and applying; most are entries, so the size of the
+// rarer tag variant costs nothing worth an allocation per tag.
+#[allow(clippy::large_enum_variant)]
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(rename_all = "kebab-case")]
 pub enum Record {
