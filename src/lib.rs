@@ -1,5 +1,27 @@
-//! loopside core: computations for 4–20 mA loop work.
+//! # loopside core
+//!
+//! Computations for instrument technicians working on 4–20 mA current loops, with no UI
+//! types, no global state and no I/O outside the store. Start with:
+//!
+//! - [`number`] — reading numbers as typed (`12,5`, `250 ohm`);
+//! - [`units`] — engineering units and NIST SP 811 factors;
+//! - [`error`] — the typed error every computation returns;
+//! - [`rtd`], [`thermocouple`] and [`level`] — what a temperature or DP level transmitter
+//!   should see for a given temperature or level.
 
+pub mod error;
+pub mod number;
+pub mod units;
+
+pub use error::{FieldError, Result};
+pub mod budget;
+pub mod cli;
+pub mod display;
 pub mod level;
+pub mod resistor;
 pub mod rtd;
+pub mod scale;
+pub mod signal;
 pub mod thermocouple;
+pub mod tag;
+pub mod wire;

@@ -1,1 +1,24 @@
-fn main(){}
+//! The `loopside` binary: the command line, and with no subcommand the app window.
+
+use clap::Parser;
+use loopside::cli::{run_command, Cli};
+
+fn main() {
+    let cli = Cli::parse();
+    match cli.command {
+        Some(command) => {
+            let mut stdout = std::io::stdout().lock();
+            if let Err(e) = run_command(command, &mut stdout) {
+                eprintln!("error: {e}");
+                std::process::exit(e.exit_code());
+            }
+        }
+        None => open_app(),
+    }
+}
+
+/// With no subcommand: the app window once the UI lands; until then, the help text.
+fn open_app() {
+    use clap::CommandFactory;
+    let _ = Cli::command().print_help();
+}

@@ -1,0 +1,465 @@
+//! Loop voltage budget: does the transmitter keep enough volts at its terminals?
+//!
+//! A two-wire transmitter regulates the loop current whatever the supply and load, as long
+//! as its terminals keep at least its minimum (lift-off) voltage. Everything else in series
+//! takes its share: resistors take I·R, loop-powered indicators and isolators a roughly
+//! fixed drop, and the cable I·R of both conductors. The budget is worked at the *lowest*
+//! supply (nominal minus tolerance) and at three currents: 4 mA, 20 mA and the upscale
+//! fault current (22 mA unless the tag says otherwise), because a loop that reaches 20 mA
+//! but not its fault current hides a failure from the control system.
+//!
+//! Maximum loop resistance = (supply − transmitter minimum − fixed drops) / 20 mA (common
+//! practice). A supply at or below the transmitter minimum is a valid input: the answer is
+//! "not enough", with the numbers.
+
+use crate::error::{finite, non_negative, within, FieldError, Result};
+use crate::wire::{self, Conductor};
+use serde::{Deserialize, Serialize};
+
+/// HART needs at least this much loop resistance to develop its signal (HART physical
+/// layer, HCF_SPEC-54: 230 Ω minimum; 250 Ω is the usual resistor).
+pub const HART_MIN_OHMS: f64 = 230.0;
+/// Upper end of the HART loop-resistance window, Ω. From memory of the HART physical
+/// layer, unconfirmed: kept configurable per loop.
+pub const HART_MAX_OHMS: f64 = 1100.0;
+/// Upscale fault current used when the tag does not say, mA (common practice: NE 43
+/// devices drive ≥ 21.0 mA; many go to about 22).
+pub const DEFAULT_FAULT_MA: f64 = 22.0;
+
+/// What a series element in the loop costs: ohms, or a fixed volt drop.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "kind", rename_all = "kebab-case")]
+pub enum ElementKind {
+    /// A resistance: receiver input resistor, HART resistor, barrier end-to-end resistance.
+    Resistance {
+        /// Ohms.
+        ohms: f64,
+    },
+    /// A fixed voltage drop: loop-powered indicator, isolator, diode.
+    Drop {
+        /// Volts dropped whatever the current.
+        volts: f64,
+    },
+}
+
+/// One device in series in the loop, named as the technician knows it.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct SeriesElement {
+    /// e.g. "PLC input", "IS barrier", "field indicator".
+    pub name: String,
+    /// Its cost in ohms or volts.
+    #[serde(flatten)]
+    pub kind: ElementKind,
+}
+
+impl SeriesElement {
+    /// A resistive element.
+    pub fn ohms(name: &str, ohms: f64) -> SeriesElement {
+        SeriesElement {
+            name: name.to_string(),
+            kind: ElementKind::Resistance { ohms },
+        }
+    }
+
+    /// A fixed-drop element.
+    pub fn drop(name: &str, volts: f64) -> SeriesElement {
+        SeriesElement {
+            name: name.to_string(),
+            kind: ElementKind::Drop { volts },
+        }
+    }
+
+    /// Volts this element takes at `ma`.
+    pub fn volts_at(&self, ma: f64) -> f64 {
+        match self.kind {
+            ElementKind::Resistance { ohms } => ohms * ma / 1000.0,
+            ElementKind::Drop { volts } => volts,
+        }
+    }
+}
+
+/// The field cable between the transmitter and the rest of the loop.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct Cable {
+    /// One-way route length, m (the loop sees twice this).
+    pub one_way_m: f64,
+    /// Conductor size.
+    pub conductor: Conductor,
+    /// Conductor temperature, °C (20 unless known).
+    pub temp_c: f64,
+}
+
+/// Everything about a loop's power, as entered for a tag.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct LoopConfig {
+    /// Nominal supply, V.
+    pub supply_volts: f64,
+    /// How far below nominal the supply may sag, % (0 if regulated and trusted).
+    #[serde(default)]
+    pub supply_tolerance_percent: f64,
+    /// The transmitter's minimum terminal voltage (lift-off), V, from its datasheet.
+    pub tx_min_volts: f64,
+    /// Series elements other than the cable.
+    #[serde(default)]
+    pub elements: Vec<SeriesElement>,
+    /// The field cable, if known.
+    #[serde(default)]
+    pub cable: Option<Cable>,
+    /// Upscale fault current the transmitter drives, mA.
+    #[serde(default = "default_fault_ma")]
+    pub fault_ma: f64,
+    /// HART communication window, Ω (low, high).
+    #[serde(default = "default_hart_window")]
+    pub hart_window_ohms: (f64, f64),
+}
+
+fn default_fault_ma() -> f64 {
+    DEFAULT_FAULT_MA
+}
+
+fn default_hart_window() -> (f64, f64) {
+    (HART_MIN_OHMS, HART_MAX_OHMS)
+}
+
+impl LoopConfig {
+    /// A loop with a supply and a transmitter, nothing else yet.
+    pub fn new(supply_volts: f64, tx_min_volts: f64) -> LoopConfig {
+        LoopConfig {
+            supply_volts,
+            supply_tolerance_percent: 0.0,
+            tx_min_volts,
+            elements: Vec::new(),
+            cable: None,
+            fault_ma: DEFAULT_FAULT_MA,
+            hart_window_ohms: default_hart_window(),
+        }
+    }
+
+    /// Check every field; the error names the first one that is wrong.
+    pub fn validate(&self) -> Result<()> {
+        within("supply_volts", self.supply_volts, 0.0, 1000.0)?;
+        within(
+            "supply_tolerance_percent",
+            self.supply_tolerance_percent,
+            0.0,
+            50.0,
+        )?;
+        within("tx_min_volts", self.tx_min_volts, 0.0, 1000.0)?;
+        within("fault_ma", self.fault_ma, 0.0, 50.0)?;
+        for (i, e) in self.elements.iter().enumerate() {
+            let field = if e.name.trim().is_empty() {
+                format!("element {}", i + 1)
+            } else {
+                e.name.clone()
+            };
+            match e.kind {
+                ElementKind::Resistance { ohms } => {
+                    non_negative(&field, ohms)?;
+                }
+                ElementKind::Drop { volts } => {
+                    non_negative(&field, volts)?;
+                }
+            }
+        }
+        if let Some(c) = &self.cable {
+            non_negative("cable_m", c.one_way_m)?;
+            within(
+                "temp_c",
+                c.temp_c,
+                wire::TEMP_RANGE_C.0,
+                wire::TEMP_RANGE_C.1,
+            )?;
+            if let Conductor::Mm2(a) = c.conductor {
+                Conductor::mm2(a)?;
+            } else if let Conductor::Awg(g) = c.conductor {
+                Conductor::awg(g)?;
+            }
+        }
+        let (lo, hi) = self.hart_window_ohms;
+        non_negative("hart_min_ohms", lo)?;
+        finite("hart_max_ohms", hi)?;
+        if hi <= lo {
+            return Err(FieldError::new(
+                "hart_max_ohms",
+                format!("{hi} Ω must be above the HART minimum {lo} Ω"),
+            ));
+        }
+        Ok(())
+    }
+
+    /// Work out the budget. Errors only for invalid input, never for "not enough volts".
+    pub fn budget(&self) -> Result<Budget> {
+        self.validate()?;
+        let lowest_supply = self.supply_volts * (1.0 - self.supply_tolerance_percent / 100.0);
+        let cable_ohms = match &self.cable {
+            Some(c) => wire::loop_ohms(&c.conductor, c.one_way_m, c.temp_c)?,
+            None => 0.0,
+        };
+        let element_ohms: f64 = self
+            .elements
+            .iter()
+            .map(|e| match e.kind {
+                ElementKind::Resistance { ohms } => ohms,
+                ElementKind::Drop { .. } => 0.0,
+            })
+            .sum();
+        let fixed_drop_volts: f64 = self
+            .elements
+            .iter()
+            .map(|e| match e.kind {
+                ElementKind::Drop { volts } => volts,
+                ElementKind::Resistance { .. } => 0.0,
+            })
+            .sum();
+        let loop_ohms = element_ohms + cable_ohms;
+
+        let point = |ma: f64| self.operating_point(ma, lowest_supply, cable_ohms);
+        let at_low = point(4.0);
+        let at_full_scale = point(20.0);
+        let at_fault = point(self.fault_ma);
+
+        let available = lowest_supply - self.tx_min_volts - fixed_drop_volts;
+        let max_load_ohms = (available / 0.020).max(0.0);
+        let max_load_fault_ohms = (available / (self.fault_ma / 1000.0)).max(0.0);
+        let spare_ohms = max_load_ohms - loop_ohms;
+        let needed_at = |ma: f64| self.tx_min_volts + fixed_drop_volts + loop_ohms * ma / 1000.0;
+        let min_supply_volts = needed_at(20.0);
+        let min_supply_fault_volts = needed_at(self.fault_ma.max(20.0));
+        let derate = 1.0 - self.supply_tolerance_percent / 100.0;
+        let min_nominal_supply_volts = min_supply_fault_volts / derate;
+
+        let max_cable_m = match &self.cable {
+            Some(c) => {
+                let per_m_loop = 2.0 * c.conductor.ohms_per_km(c.temp_c)? / 1000.0;
+                Some(((max_load_ohms - element_ohms) / per_m_loop).max(0.0))
+            }
+            None => None,
+        };
+
+        let (hart_low, hart_high) = self.hart_window_ohms;
+        let hart_ok = loop_ohms >= hart_low && loop_ohms <= hart_high;
+        let hart_note = if loop_ohms < hart_low {
+            format!(
+                "loop resistance {loop_ohms:.0} Ω is below the {hart_low:.0} Ω HART needs: a handheld cannot develop its signal; add a resistor (250 Ω is usual)"
+            )
+        } else if loop_ohms > hart_high {
+            format!(
+                "loop resistance {loop_ohms:.0} Ω is above the {hart_high:.0} Ω HART window: the signal is attenuated; reduce the loop resistance"
+            )
+        } else {
+            format!(
+                "loop resistance {loop_ohms:.0} Ω is within the HART window {hart_low:.0}–{hart_high:.0} Ω"
+            )
+        };
+
+        let ok_full_scale = at_full_scale.ok;
+        let ok_fault = at_fault.ok;
+        let limit = self.limit_text(
+            lowest_supply,
+            &at_full_scale,
+            &at_fault,
+            min_supply_fault_volts,
+            spare_ohms,
+        );
+        Ok(Budget {
+            lowest_supply_volts: lowest_supply,
+            cable_ohms,
+            loop_ohms,
+            fixed_drop_volts,
+            at_low,
+            at_full_scale,
+            at_fault,
+            max_load_ohms,
+            max_load_fault_ohms,
+            spare_ohms,
+            min_supply_volts,
+            min_supply_fault_volts,
+            min_nominal_supply_volts,
+            max_cable_m,
+            ok: ok_full_scale && ok_fault,
+            ok_full_scale,
+            ok_fault,
+            limit,
+            hart_ok,
+            hart_note,
+        })
+    }
+
+    fn operating_point(&self, ma: f64, supply: f64, cable_ohms: f64) -> OperatingPoint {
+        let mut parts: Vec<BudgetPart> = self
+            .elements
+            .iter()
+            .map(|e| BudgetPart {
+                name: e.name.clone(),
+                volts: e.volts_at(ma),
+                role: match e.kind {
+                    ElementKind::Resistance { .. } => PartRole::Resistance,
+                    ElementKind::Drop { .. } => PartRole::Drop,
+                },
+            })
+            .collect();
+        if self.cable.is_some() {
+            parts.push(BudgetPart {
+                name: "cable".to_string(),
+                volts: cable_ohms * ma / 1000.0,
+                role: PartRole::Cable,
+            });
+        }
+        let used: f64 = parts.iter().map(|p| p.volts).sum();
+        let terminal_volts = supply - used;
+        let headroom_volts = terminal_volts - self.tx_min_volts;
+        OperatingPoint {
+            current_ma: ma,
+            terminal_volts,
+            headroom_volts,
+            ok: headroom_volts >= -1e-9,
+            parts,
+        }
+    }
+
+    fn limit_text(
+        &self,
+        supply: f64,
+        full: &OperatingPoint,
+        fault: &OperatingPoint,
+        min_supply: f64,
+        spare_ohms: f64,
+    ) -> String {
+        if supply <= self.tx_min_volts {
+            return format!(
+                "supply {supply:.2} V (lowest) is at or below the transmitter minimum {:.2} V: no loop can work; raise the supply",
+                self.tx_min_volts
+            );
+        }
+        let tight = if fault.headroom_volts < full.headroom_volts {
+            fault
+        } else {
+            full
+        };
+        let biggest = tight
+            .parts
+            .iter()
+            .max_by(|a, b| a.volts.total_cmp(&b.volts));
+        let biggest_text = match biggest {
+            Some(p) => format!("largest drop is {} ({:.2} V)", p.name, p.volts),
+            None => "nothing in series but the transmitter".to_string(),
+        };
+        if tight.ok {
+            format!(
+                "enough voltage: {:.2} V spare at {:.1} mA, {:.0} Ω of load still available; {biggest_text}",
+                tight.headroom_volts, tight.current_ma, spare_ohms.max(0.0)
+            )
+        } else {
+            format!(
+                "short by {:.2} V at {:.1} mA; {biggest_text}: reduce it or remove {:.0} Ω, or raise the lowest supply to at least {:.2} V",
+                -tight.headroom_volts,
+                tight.current_ma,
+                -tight.headroom_volts / (tight.current_ma / 1000.0),
+                min_supply
+            )
+        }
+    }
+}
+
+/// What one part of the loop is, for drawing the budget bar.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum PartRole {
+    /// A resistor or barrier (I·R).
+    Resistance,
+    /// A fixed drop.
+    Drop,
+    /// The cable (I·R of both conductors).
+    Cable,
+}
+
+/// One slice of the supply at one current.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct BudgetPart {
+    /// Element name, or "cable".
+    pub name: String,
+    /// Volts it takes at this current.
+    pub volts: f64,
+    /// What it is.
+    pub role: PartRole,
+}
+
+/// The loop at one current, at the lowest supply.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct OperatingPoint {
+    /// Loop current, mA.
+    pub current_ma: f64,
+    /// Volts left at the transmitter terminals.
+    pub terminal_volts: f64,
+    /// Terminal volts minus the transmitter minimum (negative = not enough).
+    pub headroom_volts: f64,
+    /// True when the transmitter keeps at least its minimum.
+    pub ok: bool,
+    /// Where the rest of the supply goes.
+    pub parts: Vec<BudgetPart>,
+}
+
+/// The worked budget of a loop.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Budget {
+    /// Nominal supply less its tolerance, V: the budget is worked at this.
+    pub lowest_supply_volts: f64,
+    /// Both conductors of the cable, Ω.
+    pub cable_ohms: f64,
+    /// All resistive elements plus the cable, Ω.
+    pub loop_ohms: f64,
+    /// Sum of fixed drops, V.
+    pub fixed_drop_volts: f64,
+    /// At 4 mA.
+    pub at_low: OperatingPoint,
+    /// At 20 mA.
+    pub at_full_scale: OperatingPoint,
+    /// At the upscale fault current.
+    pub at_fault: OperatingPoint,
+    /// Largest total loop resistance that still leaves the transmitter its minimum at 20 mA.
+    pub max_load_ohms: f64,
+    /// The same at the fault current.
+    pub max_load_fault_ohms: f64,
+    /// `max_load_ohms` − `loop_ohms` (negative = that much too much).
+    pub spare_ohms: f64,
+    /// Supply the loop needs at 20 mA, V (compare with the lowest supply).
+    pub min_supply_volts: f64,
+    /// Supply the loop needs at the fault current, V.
+    pub min_supply_fault_volts: f64,
+    /// Nominal supply needed at the fault current once the tolerance is allowed for, V.
+    pub min_nominal_supply_volts: f64,
+    /// Longest one-way cable run of this conductor that still works at 20 mA, m.
+    pub max_cable_m: Option<f64>,
+    /// Enough voltage at 20 mA and at the fault current.
+    pub ok: bool,
+    /// Enough voltage at 20 mA.
+    pub ok_full_scale: bool,
+    /// Enough voltage at the fault current.
+    pub ok_fault: bool,
+    /// What limits the loop, in words, with the numbers to act on.
+    pub limit: String,
+    /// Loop resistance within the HART window.
+    pub hart_ok: bool,
+    /// The HART verdict in words.
+    pub hart_note: String,
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn starved_supply_is_an_answer_not_an_error() {
+        let b = LoopConfig::new(10.0, 10.5).budget().unwrap();
+        assert!(!b.ok);
+        assert_eq!(b.max_load_ohms, 0.0);
+        assert!(b.limit.contains("raise the supply"));
+    }
+
+    #[test]
+    fn negative_resistor_names_the_element() {
+        let mut c = LoopConfig::new(24.0, 10.5);
+        c.elements.push(SeriesElement::ohms("PLC input", -250.0));
+        assert_eq!(c.budget().unwrap_err().field, "PLC input");
+    }
+}

@@ -1,0 +1,676 @@
+//! Calculator subcommands: convert, budget, wire, units, status, resistor.
+
+use super::{print_json, print_lines, CliError, CliResult};
+use crate::budget::{Cable, LoopConfig, SeriesElement};
+use crate::display;
+use crate::error::FieldError;
+use crate::number::{parse_in, parse_number, parse_range};
+use crate::scale::{CharTable, RootLocation, Scale, SignalSpan, TablePoint, Transfer};
+use crate::signal::{classify, BandLimits};
+use crate::units;
+use crate::wire::Conductor;
+use clap::Args;
+use serde_json::json;
+use std::io::Write;
+
+/// How a tag's range and transfer are given on the command line (shared with `tag add`).
+#[derive(Debug, Clone, Args)]
+pub struct RangeArgs {
+    /// Range as LRV..URV in the engineering unit (LRV > URV for a reversed range).
+    #[arg(long, allow_hyphen_values = true, value_name = "LRV..URV")]
+    pub range: String,
+    /// Engineering unit of the range (bar, m, °C, m³/h … or free text such as pH).
+    #[arg(long, value_name = "U")]
+    pub unit: String,
+    /// Square-root (DP flow) transfer.
+    #[arg(long)]
+    pub sqrt: bool,
+    /// Low-flow cutoff for --sqrt, % of flow (0–100).
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "PCT",
+        requires = "sqrt"
+    )]
+    pub cutoff: Option<String>,
+    /// Where the square root is taken: receiver (default) or transmitter.
+    #[arg(long, value_name = "WHERE", requires = "sqrt", value_parser = ["receiver", "transmitter"])]
+    pub root_in: Option<String>,
+    /// Characterization table as IN:OUT pairs, e.g. "0:0;1:5.1;2:12" (IN in the range unit).
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "IN:OUT;…",
+        conflicts_with = "sqrt"
+    )]
+    pub table: Option<String>,
+    /// Unit of the table's output (e.g. m³).
+    #[arg(long, value_name = "U", requires = "table")]
+    pub table_unit: Option<String>,
+    /// Signal span in mA, default 4..20.
+    #[arg(long, allow_hyphen_values = true, value_name = "LOW..HIGH")]
+    pub signal: Option<String>,
+}
+
+impl RangeArgs {
+    /// Build the core scale from the flags.
+    pub fn scale(&self) -> Result<Scale, FieldError> {
+        let (lrv, urv) = parse_range("range", &self.range)?;
+        let signal = match &self.signal {
+            Some(text) => {
+                let (lo, hi) = parse_range("signal", text)?;
+                SignalSpan::new(lo, hi)?
+            }
+            None => SignalSpan::default(),
+        };
+        let transfer = if self.sqrt {
+            let cutoff_percent = match &self.cutoff {
+                Some(t) => parse_in("cutoff", t, "%")?,
+                None => 0.0,
+            };
+            let root_in = match self.root_in.as_deref() {
+                Some("transmitter") => RootLocation::Transmitter,
+                _ => RootLocation::Receiver,
+            };
+            Transfer::SquareRoot {
+                cutoff_percent,
+                root_in,
+            }
+        } else if let Some(text) = &self.table {
+            Transfer::Table(parse_table(text, self.table_unit.as_deref().unwrap_or(""))?)
+        } else {
+            Transfer::Linear
+        };
+        Scale::new(lrv, urv, &self.unit, transfer, signal)
+    }
+}
+
+/// Parse `IN:OUT` pairs separated by `;` (or `,` when no `;` is present).
+pub fn parse_table(text: &str, output_unit: &str) -> Result<CharTable, FieldError> {
+    let rows: Vec<&str> = if text.contains(';') {
+        text.split(';').collect()
+    } else {
+        text.split(',').collect()
+    };
+    let mut points = Vec::new();
+    for (i, row) in rows.iter().enumerate() {
+        let field = format!("table[{}]", i + 1);
+        let Some((a, b)) = row.split_once(':') else {
+            return Err(FieldError::new(
+                field,
+                format!("'{}' is not an IN:OUT pair", row.trim()),
+            ));
+        };
+        points.push(TablePoint {
+            input: parse_number(&field, a)?,
+            output: parse_number(&field, b)?,
+        });
+    }
+    CharTable::new(points, output_unit)
+}
+
+/// `loopside convert`
+#[derive(Debug, Args)]
+#[command(after_help = "Examples:\n  \
+    loopside convert --range 0..10 --unit bar --ma 12\n  \
+    loopside convert --range 0..3000 --unit m3/h --sqrt --cutoff 1 --percent 25\n  \
+    loopside convert --range 0..4,5 --unit m --volts 3,2 --ohms 250 --to ft --json")]
+pub struct ConvertArgs {
+    #[command(flatten)]
+    range: RangeArgs,
+    /// Loop current, mA.
+    #[arg(long, allow_hyphen_values = true, value_name = "X", group = "input")]
+    ma: Option<String>,
+    /// Percent of signal span.
+    #[arg(long, allow_hyphen_values = true, value_name = "X", group = "input")]
+    percent: Option<String>,
+    /// Engineering value in the range unit (the table's output unit for a table).
+    #[arg(long, allow_hyphen_values = true, value_name = "X", group = "input")]
+    value: Option<String>,
+    /// Volts measured across a known resistor (give --ohms).
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "X",
+        group = "input",
+        requires = "ohms"
+    )]
+    volts: Option<String>,
+    /// The resistor the volts were measured across, Ω.
+    #[arg(long, allow_hyphen_values = true, value_name = "R", requires = "volts")]
+    ohms: Option<String>,
+    /// Show the value in another unit of the same quantity.
+    #[arg(long, value_name = "UNIT")]
+    to: Option<String>,
+    /// Print one JSON object.
+    #[arg(long)]
+    json: bool,
+}
+
+pub(super) fn convert(args: ConvertArgs, out: &mut dyn Write) -> CliResult {
+    let scale = args.range.scale()?;
+    let reading = if let Some(t) = &args.ma {
+        scale.from_ma(parse_in("ma", t, "mA")?)?
+    } else if let Some(t) = &args.percent {
+        scale.from_percent(parse_in("percent", t, "%")?)?
+    } else if let Some(t) = &args.value {
+        scale.from_value(parse_number("value", t)?)?
+    } else if let (Some(v), Some(r)) = (&args.volts, &args.ohms) {
+        scale.from_volts(parse_in("volts", v, "V")?, parse_in("ohms", r, "Ω")?)?
+    } else {
+        return Err(CliError::Input(FieldError::new(
+            "input",
+            "give one of --ma, --percent, --value, or --volts with --ohms",
+        )));
+    };
+    let (value, unit, span) = match &args.to {
+        Some(to) => {
+            let from = units::lookup(&reading.unit).ok_or_else(|| {
+                FieldError::new(
+                    "to",
+                    format!(
+                        "the range unit '{}' is free text and cannot be converted",
+                        reading.unit
+                    ),
+                )
+            })?;
+            let target = units::lookup(to)
+                .ok_or_else(|| FieldError::new("to", format!("unknown unit '{}'", to.trim())))?;
+            let v = units::convert_units(reading.value, from, target)?;
+            let span_to = units::convert_units(scale.urv, from, target)?
+                - units::convert_units(scale.lrv, from, target)?;
+            (v, target.symbol.to_string(), span_to)
+        }
+        None => (reading.value, reading.unit.clone(), value_span(&scale)),
+    };
+    let status = classify(reading.ma, &BandLimits::default(), &scale.signal)?;
+    if args.json {
+        let mut obj = json!({
+            "ma": reading.ma,
+            "percent": reading.percent,
+            "value": value,
+            "unit": unit,
+            "status": status.as_str(),
+            "status_meaning": status.meaning(),
+            "cutoff_active": reading.cutoff_active,
+        });
+        if let Some(m) = reading.measured {
+            obj["measured"] = json!(m);
+            obj["measured_unit"] = json!(scale.unit);
+        }
+        if let Some(dp) = reading.dp_percent {
+            obj["dp_percent"] = json!(dp);
+        }
+        return print_json(out, &obj);
+    }
+    let mut lines = vec![
+        format!("current  {}", display::ma(reading.ma)),
+        format!("span     {}", display::percent(reading.percent)),
+        format!("value    {}", display::value(value, &unit, span)),
+    ];
+    if let Some(m) = reading.measured {
+        lines.push(format!(
+            "measured {}",
+            display::value(m, &scale.unit, scale.span())
+        ));
+    }
+    if let Some(dp) = reading.dp_percent {
+        lines.push(format!("DP       {} of DP span", display::percent(dp)));
+    }
+    if reading.cutoff_active {
+        lines.push("low-flow cutoff active: flow shows as zero".to_string());
+    }
+    lines.push(format!(
+        "status   {} — {}",
+        status.as_str(),
+        status.meaning()
+    ));
+    print_lines(out, &lines)
+}
+
+fn value_span(scale: &Scale) -> f64 {
+    match &scale.transfer {
+        Transfer::Table(t) => {
+            let pts = t.points();
+            pts[pts.len() - 1].output - pts[0].output
+        }
+        _ => scale.span(),
+    }
+}
+
+/// `loopside budget`
+#[derive(Debug, Args)]
+#[command(after_help = "Examples:\n  \
+    loopside budget --supply 24 --min-volts 10,5 --load 250 --cable-m 180 --mm2 1.0\n  \
+    loopside budget --supply 24 --supply-tolerance 5 --min-volts 12 --load barrier=340 --drop indicator=2.5 --json\n\
+    Name an element with NAME=VALUE so the verdict can say which one limits.")]
+pub struct BudgetArgs {
+    /// Nominal supply, V.
+    #[arg(long, allow_hyphen_values = true, value_name = "V")]
+    supply: String,
+    /// How far the supply may sag below nominal, %.
+    #[arg(long, allow_hyphen_values = true, value_name = "PCT")]
+    supply_tolerance: Option<String>,
+    /// Transmitter minimum terminal voltage (lift-off), V.
+    #[arg(long, allow_hyphen_values = true, value_name = "V")]
+    min_volts: String,
+    /// A resistive element in series, Ω (repeat; NAME=OHMS to name it).
+    #[arg(long, allow_hyphen_values = true, value_name = "OHMS")]
+    load: Vec<String>,
+    /// A fixed volt drop in series, V (repeat; NAME=VOLTS to name it).
+    #[arg(long = "drop", allow_hyphen_values = true, value_name = "VOLTS")]
+    drops: Vec<String>,
+    /// One-way cable length, m.
+    #[arg(long, allow_hyphen_values = true, value_name = "M")]
+    cable_m: Option<String>,
+    /// Conductor size, AWG (4/0 … 40).
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "N",
+        conflicts_with = "mm2"
+    )]
+    awg: Option<String>,
+    /// Conductor size, mm².
+    #[arg(long, allow_hyphen_values = true, value_name = "A")]
+    mm2: Option<String>,
+    /// Conductor temperature, °C (default 20).
+    #[arg(long, allow_hyphen_values = true, value_name = "T")]
+    temp_c: Option<String>,
+    /// Upscale fault current, mA (default 22.0).
+    #[arg(long, allow_hyphen_values = true, value_name = "I")]
+    fault_ma: Option<String>,
+    /// Upper end of the HART resistance window, Ω (default 1100).
+    #[arg(long, allow_hyphen_values = true, value_name = "OHMS")]
+    hart_max_ohms: Option<String>,
+    /// Print one JSON object.
+    #[arg(long)]
+    json: bool,
+}
+
+/// Split `NAME=VALUE` (or just `VALUE`) into a name and the number text.
+fn named<'a>(text: &'a str, default_name: &str, index: usize) -> (String, &'a str) {
+    match text.split_once('=') {
+        Some((name, value)) if !name.trim().is_empty() => (name.trim().to_string(), value),
+        _ => (format!("{default_name} {index}"), text),
+    }
+}
+
+pub(super) fn conductor_from(
+    awg: &Option<String>,
+    mm2: &Option<String>,
+) -> Result<Option<Conductor>, FieldError> {
+    match (awg, mm2) {
+        (Some(a), _) => Conductor::parse_awg(a).map(Some),
+        (None, Some(m)) => {
+            let bare = m.trim().trim_end_matches("mm²").trim_end_matches("mm2");
+            Conductor::mm2(parse_number("mm2", bare)?).map(Some)
+        }
+        (None, None) => Ok(None),
+    }
+}
+
+impl BudgetArgs {
+    fn loop_config(&self) -> Result<LoopConfig, FieldError> {
+        let supply = parse_in("supply", &self.supply, "V")?;
+        let min_volts = parse_in("min-volts", &self.min_volts, "V")?;
+        let mut config = LoopConfig::new(supply, min_volts);
+        if let Some(t) = &self.supply_tolerance {
+            config.supply_tolerance_percent = parse_in("supply-tolerance", t, "%")?;
+        }
+        if let Some(t) = &self.fault_ma {
+            config.fault_ma = parse_in("fault-ma", t, "mA")?;
+        }
+        if let Some(t) = &self.hart_max_ohms {
+            config.hart_window_ohms.1 = parse_in("hart-max-ohms", t, "Ω")?;
+        }
+        for (i, text) in self.load.iter().enumerate() {
+            let (name, value) = named(text, "load", i + 1);
+            let ohms = parse_in("load", value, "Ω")?;
+            if ohms < 0.0 {
+                return Err(FieldError::new(
+                    "load",
+                    format!("{name}: ohms must be 0 or more, got {ohms}"),
+                ));
+            }
+            config.elements.push(SeriesElement::ohms(&name, ohms));
+        }
+        for (i, text) in self.drops.iter().enumerate() {
+            let (name, value) = named(text, "drop", i + 1);
+            let volts = parse_in("drop", value, "V")?;
+            if volts < 0.0 {
+                return Err(FieldError::new(
+                    "drop",
+                    format!("{name}: volts must be 0 or more, got {volts}"),
+                ));
+            }
+            config.elements.push(SeriesElement::drop(&name, volts));
+        }
+        let conductor = conductor_from(&self.awg, &self.mm2)?;
+        let temp_c = match &self.temp_c {
+            Some(t) => parse_in("temp-c", t, "°C")?,
+            None => 20.0,
+        };
+        match (conductor, &self.cable_m) {
+            (Some(conductor), length) => {
+                let one_way_m = match length {
+                    Some(t) => parse_in("cable-m", t, "m")?,
+                    None => 0.0,
+                };
+                if one_way_m < 0.0 {
+                    return Err(FieldError::new(
+                        "cable-m",
+                        format!("must be 0 or more, got {one_way_m}"),
+                    ));
+                }
+                config.cable = Some(Cable {
+                    one_way_m,
+                    conductor,
+                    temp_c,
+                });
+            }
+            (None, Some(_)) => {
+                return Err(FieldError::new(
+                    "cable-m",
+                    "give the conductor size with --awg or --mm2",
+                ))
+            }
+            (None, None) => {}
+        }
+        Ok(config)
+    }
+}
+
+pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
+    let config = args.loop_config()?;
+    let b = config.budget()?;
+    if args.json {
+        let obj = json!({
+            "loop_ohms": b.loop_ohms,
+            "cable_ohms": b.cable_ohms,
+            "max_load_ohms": b.max_load_ohms,
+            "max_load_fault_ohms": b.max_load_fault_ohms,
+            "spare_ohms": b.spare_ohms,
+            "min_supply_volts": b.min_supply_volts,
+            "min_supply_fault_volts": b.min_supply_fault_volts,
+            "min_nominal_supply_volts": b.min_nominal_supply_volts,
+            "lowest_supply_volts": b.lowest_supply_volts,
+            "terminal_volts_4ma": b.at_low.terminal_volts,
+            "terminal_volts_20ma": b.at_full_scale.terminal_volts,
+            "terminal_volts_fault": b.at_fault.terminal_volts,
+            "headroom_4ma_volts": b.at_low.headroom_volts,
+            "headroom_volts": b.at_full_scale.headroom_volts,
+            "headroom_fault_volts": b.at_fault.headroom_volts,
+            "fault_ma": config.fault_ma,
+            "max_cable_m": b.max_cable_m,
+            "ok": b.ok,
+            "ok_full_scale": b.ok_full_scale,
+            "ok_fault": b.ok_fault,
+            "limit": b.limit,
+            "hart_ok": b.hart_ok,
+            "hart_note": b.hart_note,
+        });
+        return print_json(out, &obj);
+    }
+    let mut lines = vec![format!(
+        "lowest supply {}   loop resistance {} (cable {})",
+        display::volts(b.lowest_supply_volts),
+        display::ohms(b.loop_ohms),
+        display::ohms(b.cable_ohms)
+    )];
+    for p in [&b.at_low, &b.at_full_scale, &b.at_fault] {
+        lines.push(format!(
+            "at {:>6}: transmitter gets {:>8}, headroom {:>8}  {}",
+            display::fixed(p.current_ma, 1) + " mA",
+            display::volts(p.terminal_volts),
+            display::volts(p.headroom_volts),
+            if p.ok { "ok" } else { "NOT ENOUGH" }
+        ));
+    }
+    lines.push(format!(
+        "max loop resistance {} at 20 mA (spare {}); supply needed {} at 20 mA, {} at {} mA",
+        display::ohms(b.max_load_ohms),
+        display::ohms(b.spare_ohms),
+        display::volts(b.min_supply_volts),
+        display::volts(b.min_supply_fault_volts),
+        display::fixed(config.fault_ma, 1)
+    ));
+    if let Some(m) = b.max_cable_m {
+        lines.push(format!(
+            "longest cable run (one way) {}",
+            display::metres(m)
+        ));
+    }
+    lines.push(format!(
+        "verdict: {} — {}",
+        if b.ok { "OK" } else { "NOT ENOUGH VOLTAGE" },
+        b.limit
+    ));
+    lines.push(format!(
+        "HART: {} — {}",
+        if b.hart_ok { "ok" } else { "outside window" },
+        b.hart_note
+    ));
+    print_lines(out, &lines)
+}
+
+/// `loopside wire`
+#[derive(Debug, Args)]
+#[command(after_help = "Examples:\n  \
+    loopside wire --awg 18 --length-m 300\n  \
+    loopside wire --mm2 1,5 --length-m 180 --temp-c 40 --json")]
+pub struct WireArgs {
+    /// Conductor size, AWG (4/0 … 40).
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "N",
+        conflicts_with = "mm2",
+        required_unless_present = "mm2"
+    )]
+    awg: Option<String>,
+    /// Conductor size, mm².
+    #[arg(long, allow_hyphen_values = true, value_name = "A")]
+    mm2: Option<String>,
+    /// One-way length of the pair, m.
+    #[arg(long, allow_hyphen_values = true, value_name = "M")]
+    length_m: String,
+    /// Conductor temperature, °C (default 20).
+    #[arg(long, allow_hyphen_values = true, value_name = "T")]
+    temp_c: Option<String>,
+    /// Print one JSON object.
+    #[arg(long)]
+    json: bool,
+}
+
+pub(super) fn wire(args: WireArgs, out: &mut dyn Write) -> CliResult {
+    let conductor = conductor_from(&args.awg, &args.mm2)?
+        .ok_or_else(|| FieldError::new("awg", "give --awg or --mm2"))?;
+    let length = parse_in("length-m", &args.length_m, "m")?;
+    let temp_c = match &args.temp_c {
+        Some(t) => parse_in("temp-c", t, "°C")?,
+        None => 20.0,
+    };
+    let per_km = conductor.ohms_per_km(temp_c)?;
+    let loop_ohms = crate::wire::loop_ohms(&conductor, length, temp_c).map_err(|e| {
+        if e.field == "cable_m" {
+            e.renamed("length-m")
+        } else {
+            e
+        }
+    })?;
+    if args.json {
+        return print_json(
+            out,
+            &json!({
+                "ohms": loop_ohms,
+                "one_way_ohms": loop_ohms / 2.0,
+                "ohms_per_km": per_km,
+                "ohms_per_1000ft": per_km * 0.3048,
+                "area_mm2": conductor.area_mm2(),
+                "diameter_mm": conductor.diameter_mm(),
+                "conductor": conductor.label(),
+                "temp_c": temp_c,
+            }),
+        );
+    }
+    print_lines(
+        out,
+        &[
+            format!(
+                "{}: {:.3} mm², {:.3} mm diameter, {} Ω/km per conductor at {} °C",
+                conductor.label(),
+                conductor.area_mm2(),
+                conductor.diameter_mm(),
+                display::fixed(per_km, 3),
+                display::fixed(temp_c, 1)
+            ),
+            format!(
+                "{} of pair: {} round trip ({} each conductor)",
+                display::metres(length),
+                display::ohms(loop_ohms),
+                display::ohms(loop_ohms / 2.0)
+            ),
+        ],
+    )
+}
+
+/// `loopside units`
+#[derive(Debug, Args)]
+#[command(after_help = "Examples:\n  \
+    loopside units 2,5 bar psi\n  \
+    loopside units 100 inH2O kPa --json\n  \
+    loopside units -40 degC degF")]
+pub struct UnitsArgs {
+    /// The value to convert.
+    #[arg(allow_hyphen_values = true)]
+    value: String,
+    /// Its unit.
+    from: String,
+    /// The unit wanted.
+    to: String,
+    /// Print one JSON object.
+    #[arg(long)]
+    json: bool,
+}
+
+pub(super) fn units(args: UnitsArgs, out: &mut dyn Write) -> CliResult {
+    let value = parse_number("value", &args.value)?;
+    let result = units::convert(value, &args.from, &args.to)?;
+    let to = units::lookup(&args.to).map(|u| u.symbol).unwrap_or("");
+    if args.json {
+        return print_json(out, &json!({ "value": result, "unit": to }));
+    }
+    print_lines(out, &[format!("{} {to}", significant(result, 7))])
+}
+
+/// `significant` digits for a plain-number answer (units conversions).
+fn significant(value: f64, digits: i32) -> String {
+    if value == 0.0 {
+        return "0".to_string();
+    }
+    let magnitude = value.abs().log10().floor() as i32;
+    let decimals = (digits - 1 - magnitude).clamp(0, 12) as usize;
+    let s = display::fixed(value, decimals);
+    if s.contains('.') {
+        s.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        s
+    }
+}
+
+/// `loopside status`
+#[derive(Debug, Args)]
+#[command(after_help = "Examples:\n  \
+    loopside status 3.55\n  \
+    loopside status 20,7 --json")]
+pub struct StatusArgs {
+    /// Loop current, mA.
+    #[arg(allow_hyphen_values = true)]
+    ma: String,
+    /// Print one JSON object.
+    #[arg(long)]
+    json: bool,
+}
+
+pub(super) fn status(args: StatusArgs, out: &mut dyn Write) -> CliResult {
+    let ma = parse_in("ma", &args.ma, "mA")?;
+    let span = SignalSpan::default();
+    let status = classify(ma, &BandLimits::default(), &span)?;
+    if args.json {
+        return print_json(
+            out,
+            &json!({
+                "ma": ma,
+                "status": status.as_str(),
+                "measurement": status.is_measurement(),
+                "failure": status.is_failure(),
+                "meaning": status.meaning(),
+            }),
+        );
+    }
+    print_lines(
+        out,
+        &[format!(
+            "{}: {} — {}",
+            display::ma(ma),
+            status.as_str(),
+            status.meaning()
+        )],
+    )
+}
+
+/// `loopside resistor`
+#[derive(Debug, Args)]
+#[command(after_help = "Examples:\n  \
+    loopside resistor --ohms 250\n  \
+    loopside resistor --ohms 250 --tolerance 0.1 --json")]
+pub struct ResistorArgs {
+    /// Nominal resistance, Ω.
+    #[arg(long, allow_hyphen_values = true, value_name = "R")]
+    ohms: String,
+    /// Tolerance, ± % (default 0.1).
+    #[arg(long, allow_hyphen_values = true, value_name = "PCT")]
+    tolerance: Option<String>,
+    /// Upscale fault current, mA (default 22.0).
+    #[arg(long, allow_hyphen_values = true, value_name = "I")]
+    fault_ma: Option<String>,
+    /// Print one JSON object.
+    #[arg(long)]
+    json: bool,
+}
+
+pub(super) fn resistor(args: ResistorArgs, out: &mut dyn Write) -> CliResult {
+    let ohms = parse_in("ohms", &args.ohms, "Ω")?;
+    let tol = match &args.tolerance {
+        Some(t) => parse_in("tolerance", t, "%")?,
+        None => 0.1,
+    };
+    let fault = match &args.fault_ma {
+        Some(t) => parse_in("fault-ma", t, "mA")?,
+        None => crate::budget::DEFAULT_FAULT_MA,
+    };
+    let r = crate::resistor::sense_resistor(ohms, tol, &SignalSpan::default(), fault)?;
+    if args.json {
+        return print_json(
+            out,
+            &serde_json::to_value(&r).map_err(|e| CliError::Failure(e.to_string()))?,
+        );
+    }
+    let mut lines = vec![format!(
+        "{} ± {} %",
+        display::ohms(r.ohms),
+        display::fixed(r.tolerance_percent, 2)
+    )];
+    for p in &r.points {
+        lines.push(format!(
+            "{:>10}  {:>8}  {:.3} W  reading error up to {} ({:.3} % of span)",
+            display::ma(p.current_ma),
+            display::fixed(p.volts, 3) + " V",
+            p.watts,
+            display::ma(p.error_ma),
+            p.error_percent_of_span
+        ));
+    }
+    print_lines(out, &lines)
+}

@@ -1,0 +1,98 @@
+//! The command-line front: the same core, for the desk, for scripts and for our own
+//! end-to-end tests.
+//!
+//! Each subcommand parses its flags with clap, turns text into numbers with
+//! [`crate::number`] (so `12,5` works), calls the core, and prints either a short text
+//! answer or, with `--json`, one JSON object on stdout. Bad input is reported on stderr as
+//! one line naming the field, with exit code 2; other failures (a file that cannot be
+//! written) exit with 1.
+
+mod calc;
+
+use crate::error::FieldError;
+use clap::{Parser, Subcommand};
+use std::io::Write;
+
+/// Exit code for bad input (also what clap uses for usage errors).
+pub const EXIT_BAD_INPUT: i32 = 2;
+/// Exit code for a failure that is not the input's fault.
+pub const EXIT_FAILURE: i32 = 1;
+
+/// loopside — 4–20 mA loop calculations and field records for instrument technicians.
+#[derive(Debug, Parser)]
+#[command(name = "loopside", version, about, long_about = None)]
+pub struct Cli {
+    /// What to do. With none, the app window opens (when built with the UI).
+    #[command(subcommand)]
+    pub command: Option<Command>,
+}
+
+/// The subcommands.
+#[derive(Debug, Subcommand)]
+pub enum Command {
+    /// Convert a reading between mA, % of span, engineering value and volts.
+    Convert(calc::ConvertArgs),
+    /// Work out a loop's voltage budget at 4 mA, 20 mA and the fault current.
+    Budget(calc::BudgetArgs),
+    /// Resistance of a cable run from its conductor size, length and temperature.
+    Wire(calc::WireArgs),
+    /// Convert a value between engineering units.
+    Units(calc::UnitsArgs),
+    /// Classify a loop current by the NAMUR NE 43 bands.
+    Status(calc::StatusArgs),
+    /// Volts, power and reading error of a sense resistor.
+    Resistor(calc::ResistorArgs),
+}
+
+/// An error a subcommand reports: bad input (exit 2) or something else (exit 1).
+#[derive(Debug, thiserror::Error)]
+pub enum CliError {
+    /// The input was wrong; the message names the field.
+    #[error("{0}")]
+    Input(#[from] FieldError),
+    /// Something else failed (I/O, a damaged file).
+    #[error("{0}")]
+    Failure(String),
+}
+
+impl CliError {
+    /// The process exit code for this error.
+    pub fn exit_code(&self) -> i32 {
+        match self {
+            CliError::Input(_) => EXIT_BAD_INPUT,
+            CliError::Failure(_) => EXIT_FAILURE,
+        }
+    }
+}
+
+/// Result of a subcommand.
+pub type CliResult = std::result::Result<(), CliError>;
+
+/// Run one parsed subcommand, writing its answer to `out`.
+pub fn run_command(command: Command, out: &mut dyn Write) -> CliResult {
+    match command {
+        Command::Convert(args) => calc::convert(args, out),
+        Command::Budget(args) => calc::budget(args, out),
+        Command::Wire(args) => calc::wire(args, out),
+        Command::Units(args) => calc::units(args, out),
+        Command::Status(args) => calc::status(args, out),
+        Command::Resistor(args) => calc::resistor(args, out),
+    }
+}
+
+/// Print `value` as one line of JSON.
+pub(crate) fn print_json(out: &mut dyn Write, value: &serde_json::Value) -> CliResult {
+    writeln!(out, "{value}").map_err(io_failure)
+}
+
+/// Print text lines.
+pub(crate) fn print_lines(out: &mut dyn Write, lines: &[String]) -> CliResult {
+    for line in lines {
+        writeln!(out, "{line}").map_err(io_failure)?;
+    }
+    Ok(())
+}
+
+pub(crate) fn io_failure(e: std::io::Error) -> CliError {
+    CliError::Failure(format!("cannot write output: {e}"))
+}

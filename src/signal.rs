@@ -1,0 +1,261 @@
+//! Signal status: is this loop current a measurement or a failure signal?
+//!
+//! NAMUR NE 43 reserves 3.8–20.5 mA for measurement information and ≤ 3.6 mA / ≥ 21.0 mA
+//! for failure information; the gaps between (3.6–3.8 and 20.5–21.0) are neither and are
+//! treated as suspect. Below 1.0 mA nothing is powering the loop at all — a broken wire, a
+//! blown fuse or a dead supply (common practice; a two-wire transmitter cannot run on less
+//! than about 3.5 mA). Devices that signal failure at other levels get their own
+//! [`BandLimits`].
+
+use crate::error::{finite, FieldError, Result};
+use crate::scale::SignalSpan;
+use serde::{Deserialize, Serialize};
+
+/// Comparisons at a band edge forgive this much (mA), so that a current computed from a
+/// volts reading (0.9 V / 250 Ω) lands on the edge it was meant to hit.
+const EDGE_EPSILON_MA: f64 = 1e-9;
+
+/// Where the status bands start and end, mA. Defaults are NAMUR NE 43.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct BandLimits {
+    /// Below this there is no loop current (broken or unpowered loop). Common practice: 1.0.
+    pub no_current_below_ma: f64,
+    /// At or below this the device signals a failure (NE 43: 3.6).
+    pub fail_low_at_or_below_ma: f64,
+    /// Measurement information starts here (NE 43: 3.8).
+    pub measure_low_ma: f64,
+    /// Measurement information ends here (NE 43: 20.5).
+    pub measure_high_ma: f64,
+    /// At or above this the device signals a failure (NE 43: 21.0).
+    pub fail_high_at_or_above_ma: f64,
+}
+
+impl Default for BandLimits {
+    fn default() -> Self {
+        // NAMUR NE 43 (measurement 3.8–20.5 mA, failure ≤ 3.6 / ≥ 21.0 mA);
+        // 1.0 mA "no loop current" is common practice.
+        BandLimits {
+            no_current_below_ma: 1.0,
+            fail_low_at_or_below_ma: 3.6,
+            measure_low_ma: 3.8,
+            measure_high_ma: 20.5,
+            fail_high_at_or_above_ma: 21.0,
+        }
+    }
+}
+
+impl BandLimits {
+    /// Check that the limits are finite and in order around the signal span:
+    /// no-current < fail-low < measure-low ≤ span low < span high ≤ measure-high < fail-high.
+    pub fn validate(&self, span: &SignalSpan) -> Result<BandLimits> {
+        let named = [
+            ("no_current_below_ma", self.no_current_below_ma),
+            ("fail_low_at_or_below_ma", self.fail_low_at_or_below_ma),
+            ("measure_low_ma", self.measure_low_ma),
+            ("measure_high_ma", self.measure_high_ma),
+            ("fail_high_at_or_above_ma", self.fail_high_at_or_above_ma),
+        ];
+        for (name, v) in named {
+            finite(name, v)?;
+        }
+        let order = [
+            ("no_current_below_ma", self.no_current_below_ma, false),
+            (
+                "fail_low_at_or_below_ma",
+                self.fail_low_at_or_below_ma,
+                false,
+            ),
+            ("measure_low_ma", self.measure_low_ma, true),
+            ("signal low", span.low_ma, false),
+            ("signal high", span.high_ma, true),
+            ("measure_high_ma", self.measure_high_ma, false),
+            (
+                "fail_high_at_or_above_ma",
+                self.fail_high_at_or_above_ma,
+                false,
+            ),
+        ];
+        // The flag says whether the next limit may equal this one.
+        for pair in order.windows(2) {
+            let (a_name, a, may_equal_next) = pair[0];
+            let (b_name, b, _) = pair[1];
+            let ok = if may_equal_next { a <= b } else { a < b };
+            if !ok {
+                return Err(FieldError::new(
+                    b_name,
+                    format!(
+                        "{b} mA must be {} {a_name} ({a} mA)",
+                        if may_equal_next {
+                            "at or above"
+                        } else {
+                            "above"
+                        }
+                    ),
+                ));
+            }
+        }
+        Ok(*self)
+    }
+}
+
+/// What a loop current means, with stable machine names (`in-range`, `fail-low`, …).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum SignalStatus {
+    /// Below the no-current limit: the loop is open or unpowered.
+    NoLoopCurrent,
+    /// At or below the low failure limit: the device reports a fault (downscale).
+    FailLow,
+    /// Between the failure and measurement limits: neither a valid reading nor a fault.
+    SuspectLow,
+    /// Measurement information below 0 % (e.g. 3.8–4 mA): the process is below LRV.
+    UnderRange,
+    /// Within the signal span (4–20 mA).
+    InRange,
+    /// Measurement information above 100 % (e.g. 20–20.5 mA): the process is above URV.
+    OverRange,
+    /// Between the measurement and failure limits at the top.
+    SuspectHigh,
+    /// At or above the high failure limit: the device reports a fault (upscale).
+    FailHigh,
+}
+
+impl SignalStatus {
+    /// The stable machine name, as used in JSON and the CLI.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            SignalStatus::NoLoopCurrent => "no-loop-current",
+            SignalStatus::FailLow => "fail-low",
+            SignalStatus::SuspectLow => "suspect-low",
+            SignalStatus::UnderRange => "under-range",
+            SignalStatus::InRange => "in-range",
+            SignalStatus::OverRange => "over-range",
+            SignalStatus::SuspectHigh => "suspect-high",
+            SignalStatus::FailHigh => "fail-high",
+        }
+    }
+
+    /// All statuses from lowest current to highest.
+    pub const ALL: [SignalStatus; 8] = [
+        SignalStatus::NoLoopCurrent,
+        SignalStatus::FailLow,
+        SignalStatus::SuspectLow,
+        SignalStatus::UnderRange,
+        SignalStatus::InRange,
+        SignalStatus::OverRange,
+        SignalStatus::SuspectHigh,
+        SignalStatus::FailHigh,
+    ];
+
+    /// Parse a machine name back into a status.
+    pub fn from_name(name: &str) -> Option<SignalStatus> {
+        SignalStatus::ALL
+            .into_iter()
+            .find(|s| s.as_str() == name.trim())
+    }
+
+    /// True when the current carries a usable measurement (NE 43 measurement band).
+    pub fn is_measurement(self) -> bool {
+        matches!(
+            self,
+            SignalStatus::UnderRange | SignalStatus::InRange | SignalStatus::OverRange
+        )
+    }
+
+    /// True when the current is a failure signal or no signal at all.
+    pub fn is_failure(self) -> bool {
+        matches!(
+            self,
+            SignalStatus::NoLoopCurrent | SignalStatus::FailLow | SignalStatus::FailHigh
+        )
+    }
+
+    /// What it means, in a technician's words.
+    pub fn meaning(self) -> &'static str {
+        match self {
+            SignalStatus::NoLoopCurrent => {
+                "No loop current: the loop is open or unpowered (broken wire, blown fuse, supply off, transmitter disconnected)."
+            }
+            SignalStatus::FailLow => {
+                "Failure signal, downscale: the transmitter reports a fault (often a sensor break or internal fault), or the loop is starved of voltage."
+            }
+            SignalStatus::SuspectLow => {
+                "Neither a measurement nor a NE 43 failure signal: check the transmitter's failure setting and the loop voltage."
+            }
+            SignalStatus::UnderRange => {
+                "Valid measurement below the lower range value (process below LRV, or a zero shift)."
+            }
+            SignalStatus::InRange => "Valid measurement within the range.",
+            SignalStatus::OverRange => {
+                "Valid measurement above the upper range value (process above URV, or a span shift)."
+            }
+            SignalStatus::SuspectHigh => {
+                "Neither a measurement nor a NE 43 failure signal: check the transmitter's failure setting and its saturation limit."
+            }
+            SignalStatus::FailHigh => {
+                "Failure signal, upscale: the transmitter reports a fault (often a sensor break with upscale burnout), or a short across the loop."
+            }
+        }
+    }
+}
+
+impl std::fmt::Display for SignalStatus {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.as_str())
+    }
+}
+
+/// Classify a loop current against band limits and the signal span.
+///
+/// Edges: in-range includes both span ends; under-range is measure-low ≤ I < span low;
+/// over-range is span high < I ≤ measure-high; fail-low is I ≤ fail-low limit; fail-high
+/// is I ≥ fail-high limit; the suspect bands are the open gaps between.
+pub fn classify(ma: f64, limits: &BandLimits, span: &SignalSpan) -> Result<SignalStatus> {
+    let i = finite("mA", ma)?;
+    let e = EDGE_EPSILON_MA;
+    Ok(if i < limits.no_current_below_ma - e {
+        SignalStatus::NoLoopCurrent
+    } else if i <= limits.fail_low_at_or_below_ma + e {
+        SignalStatus::FailLow
+    } else if i < limits.measure_low_ma - e {
+        SignalStatus::SuspectLow
+    } else if i < span.low_ma - e {
+        SignalStatus::UnderRange
+    } else if i <= span.high_ma + e {
+        SignalStatus::InRange
+    } else if i <= limits.measure_high_ma + e {
+        SignalStatus::OverRange
+    } else if i < limits.fail_high_at_or_above_ma - e {
+        SignalStatus::SuspectHigh
+    } else {
+        SignalStatus::FailHigh
+    })
+}
+
+/// Classify with NE 43 defaults on a 4–20 mA span.
+pub fn classify_ne43(ma: f64) -> Result<SignalStatus> {
+    classify(ma, &BandLimits::default(), &SignalSpan::default())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn limits_out_of_order_are_refused() {
+        let mut l = BandLimits::default();
+        l.measure_low_ma = 3.5;
+        let e = l.validate(&SignalSpan::default()).unwrap_err();
+        assert_eq!(e.field, "measure_low_ma");
+        assert!(BandLimits::default()
+            .validate(&SignalSpan::default())
+            .is_ok());
+    }
+
+    #[test]
+    fn names_round_trip() {
+        for s in SignalStatus::ALL {
+            assert_eq!(SignalStatus::from_name(s.as_str()), Some(s));
+        }
+    }
+}
