@@ -22,6 +22,6 @@ pub mod resistor;
 pub mod rtd;
 pub mod scale;
 pub mod signal;
-pub mod thermocouple;
 pub mod tag;
+pub mod thermocouple;
 pub mod wire;
