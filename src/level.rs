@@ -363,7 +363,7 @@ fn validate(setup: &LevelSetup) -> Result<()> {
         return Err(FieldError::new(
             "max_m",
             format!(
-                "{} m must be above min_m ({} m)",
+                "{} m must be above the minimum level ({} m)",
                 show(max),
                 show(min)
             ),
@@ -515,7 +515,10 @@ mod tests {
             sg: 1.0,
             min_m,
             max_m,
-            mount: Mount::OpenTank { hp_tap_m: 0.0, tx_m },
+            mount: Mount::OpenTank {
+                hp_tap_m: 0.0,
+                tx_m,
+            },
             ports_swapped: false,
         }
     }

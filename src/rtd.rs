@@ -14,6 +14,7 @@ use std::fmt;
 use std::str::FromStr;
 
 use crate::error::{finite, positive, FieldError, Result};
+use crate::wire::{self, Conductor};
 
 /// Callendar–Van Dusen coefficient A (1/°C), IEC 60751.
 pub const CVD_A: f64 = 3.9083e-3;
@@ -88,7 +89,10 @@ impl FromStr for RtdKind {
             "pt1000" => Ok(RtdKind::Pt1000),
             _ => Err(FieldError::new(
                 "rtd_type",
-                format!("'{}' is not an RTD type; use pt100, pt500 or pt1000", text.trim()),
+                format!(
+                    "'{}' is not an RTD type; use pt100, pt500 or pt1000",
+                    text.trim()
+                ),
             )),
         }
     }
@@ -120,7 +124,10 @@ impl Rtd {
         if r0 > 100_000.0 {
             return Err(FieldError::new(
                 "r0_ohms",
-                format!("{} Ω is not a platinum RTD's R0; expected up to 100000 Ω", show(r0)),
+                format!(
+                    "{} Ω is not a platinum RTD's R0; expected up to 100000 Ω",
+                    show(r0)
+                ),
             ));
         }
         Ok(Rtd { r0_ohms: r0 })
@@ -281,6 +288,27 @@ impl Rtd {
             },
         })
     }
+
+    /// [`Rtd::lead_error`] for a cable run: `conductor` size, one-way length `cable_m`
+    /// and the cable's temperature `cable_temp_c` (not the element's), at element
+    /// temperature `temp_c`. The lead resistance is both conductors (out and back).
+    pub fn lead_error_for_cable(
+        &self,
+        wiring: Wiring,
+        conductor: &Conductor,
+        cable_m: f64,
+        cable_temp_c: f64,
+        temp_c: f64,
+    ) -> Result<LeadError> {
+        let lead = wire::loop_ohms(conductor, cable_m, cable_temp_c).map_err(|e| {
+            if e.field == "temp_c" {
+                e.renamed("cable_temp_c")
+            } else {
+                e
+            }
+        })?;
+        self.lead_error(wiring, lead, temp_c)
+    }
 }
 
 /// IEC 60751:2008 tolerance classes for platinum RTDs: the permitted deviation from the
@@ -392,7 +420,10 @@ impl FromStr for RtdClass {
             "C" => Ok(RtdClass::C),
             _ => Err(FieldError::new(
                 "class",
-                format!("'{}' is not an IEC 60751 class; use AA, A, B or C", text.trim()),
+                format!(
+                    "'{}' is not an IEC 60751 class; use AA, A, B or C",
+                    text.trim()
+                ),
             )),
         }
     }
@@ -492,10 +523,7 @@ fn check_temp(field: &str, temp_c: f64) -> Result<f64> {
     if !(RTD_MIN_TEMP_C..=RTD_MAX_TEMP_C).contains(&t) {
         return Err(FieldError::new(
             field,
-            format!(
-                "{} °C is outside the IEC 60751 range −200…850 °C",
-                show(t)
-            ),
+            format!("{} °C is outside the IEC 60751 range −200…850 °C", show(t)),
         ));
     }
     Ok(t)

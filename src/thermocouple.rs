@@ -148,17 +148,23 @@ impl TcType {
             Some(inv) => polynomial(inv.d, e).clamp(low, high),
             None => low + (high - low) * 0.5,
         };
-        solve_rising(|t| reference_mv(data, t) - e, |t| reference_slope(data, t), low, high, start)
-            .ok_or_else(|| {
-                FieldError::new(
-                    "mv",
-                    format!(
-                        "{} mV: the type {} temperature iteration did not converge",
-                        show(e),
-                        self.letter()
-                    ),
-                )
-            })
+        solve_rising(
+            |t| reference_mv(data, t) - e,
+            |t| reference_slope(data, t),
+            low,
+            high,
+            start,
+        )
+        .ok_or_else(|| {
+            FieldError::new(
+                "mv",
+                format!(
+                    "{} mV: the type {} temperature iteration did not converge",
+                    show(e),
+                    self.letter()
+                ),
+            )
+        })
     }
 
     /// The NIST approximate inverse polynomial alone, for an EMF `mv` with the reference
@@ -235,15 +241,13 @@ impl TcType {
         class: TcClass,
     ) -> Result<bool> {
         let measured = finite("measured_temp_c", measured_temp_c)?;
-        let tolerance = self
-            .class_tolerance_c(class, true_temp_c)
-            .map_err(|e| {
-                if e.field == "temp_c" {
-                    e.renamed("true_temp_c")
-                } else {
-                    e
-                }
-            })?;
+        let tolerance = self.class_tolerance_c(class, true_temp_c).map_err(|e| {
+            if e.field == "temp_c" {
+                e.renamed("true_temp_c")
+            } else {
+                e
+            }
+        })?;
         Ok((measured - true_temp_c).abs() <= tolerance)
     }
 
@@ -396,7 +400,10 @@ impl FromStr for TcClass {
             "3" => Ok(TcClass::Three),
             _ => Err(FieldError::new(
                 "class",
-                format!("'{}' is not an IEC 60584-1 class; use 1, 2 or 3", text.trim()),
+                format!(
+                    "'{}' is not an IEC 60584-1 class; use 1, 2 or 3",
+                    text.trim()
+                ),
             )),
         }
     }
@@ -604,7 +611,10 @@ mod tests {
                 let t = low + (high - low) * f64::from(i) / 20.0;
                 let h = 1e-3;
                 let numeric = (reference_mv(data, t + h) - reference_mv(data, t - h)) / (2.0 * h);
-                assert!((numeric - reference_slope(data, t)).abs() < 1e-7, "{tc} at {t}");
+                assert!(
+                    (numeric - reference_slope(data, t)).abs() < 1e-7,
+                    "{tc} at {t}"
+                );
             }
         }
     }

@@ -34,7 +34,11 @@ fn one_metre_of_water_is_the_conventional_metre_of_water() {
     // Twice the density, half the height for the same pressure.
     assert!(close(height_m_from_pa(2.0, 9806.65).unwrap(), 0.5, 1e-12));
     // 10 m of SG 1.02 sludge is 1.00028 bar (worked by hand: 1.02 × 10 × 9806.65 Pa).
-    assert!(close(head_in(1.02, 10.0, "bar").unwrap(), 1.000_278_3, 1e-9));
+    assert!(close(
+        head_in(1.02, 10.0, "bar").unwrap(),
+        1.000_278_3,
+        1e-9
+    ));
 }
 
 #[test]
@@ -84,7 +88,11 @@ fn open_tank_transmitter_below_the_tap_is_a_suppressed_zero() {
         ZeroShift::Suppressed { by_pa } => assert!(close(by_pa, r.lrv_pa, 1e-9)),
         other => panic!("expected a suppressed zero, got {other:?}"),
     }
-    assert!(r.zero.describe("inH2O(conv)").unwrap().contains("suppressed zero by 64.80"));
+    assert!(r
+        .zero
+        .describe("inH2O(conv)")
+        .unwrap()
+        .contains("suppressed zero by 64.80"));
 }
 
 #[test]
@@ -234,10 +242,7 @@ fn interface_between_two_liquids() {
     assert!(close(urv, 0.11, 1e-12));
     assert!(close(span, 0.24, 1e-12));
     // A lighter liquid under a heavier one is not an error: the span comes out negative.
-    let upside_down = LevelSetup {
-        sg: 0.8,
-        ..s
-    };
+    let upside_down = LevelSetup { sg: 0.8, ..s };
     assert!(range(&upside_down).unwrap().span_pa < 0.0);
 }
 
@@ -316,7 +321,11 @@ fn every_mount_reads_back_the_same_level_from_its_port_pressures() {
             ..straight
         };
         let read = level_from_dp(&swapped, p_lp - p_hp).unwrap();
-        assert!(close(read, level, 1e-9), "{} swapped: {read} m", mount.name());
+        assert!(
+            close(read, level, 1e-9),
+            "{} swapped: {read} m",
+            mount.name()
+        );
         // And the forward direction agrees with the hand-summed pressures.
         let dp = dp_at_level(&straight, level).unwrap();
         assert!(close(dp, p_hp - p_lp, 1e-6), "{}", mount.name());
@@ -344,7 +353,11 @@ fn every_mount_reads_back_the_same_level_from_its_port_pressures() {
             fill_sg: 0.93,
         },
     );
-    assert!(close(level_from_dp(&s, p_hp - p_lp).unwrap(), interface, 1e-9));
+    assert!(close(
+        level_from_dp(&s, p_hp - p_lp).unwrap(),
+        interface,
+        1e-9
+    ));
 }
 
 #[test]
@@ -398,7 +411,10 @@ fn bad_input_names_the_field() {
     let ok = open(1.0, 0.0, 2.0);
     assert_eq!(dp_at_level(&ok, -1.0).unwrap_err().field, "level_m");
     assert_eq!(level_from_dp(&ok, -5000.0).unwrap_err().field, "dp_pa");
-    assert_eq!(level_from_dp(&ok, f64::INFINITY).unwrap_err().field, "dp_pa");
+    assert_eq!(
+        level_from_dp(&ok, f64::INFINITY).unwrap_err().field,
+        "dp_pa"
+    );
 }
 
 #[test]
@@ -414,5 +430,9 @@ fn levels_outside_the_range_extend_the_same_line() {
             tx_m: 0.0,
         },
     );
-    assert!(close(level_from_dp(&s, column(1.0, 2.5)).unwrap(), 2.5, 1e-12));
+    assert!(close(
+        level_from_dp(&s, column(1.0, 2.5)).unwrap(),
+        2.5,
+        1e-12
+    ));
 }

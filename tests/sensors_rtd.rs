@@ -2,6 +2,7 @@
 //! inverse, tolerance classes, 2-wire lead error and refusals of bad input.
 
 use loopside::rtd::{ElementBuild, Rtd, RtdClass, RtdKind, Wiring};
+use loopside::wire::Conductor;
 use proptest::prelude::*;
 
 fn close(actual: f64, expected: f64, tolerance: f64) -> bool {
@@ -15,13 +16,13 @@ fn pt100_matches_the_standard_table() {
     // table as commonly published to 0.001 Ω (from memory), which the issue asks to meet
     // within 0.001 Ω.
     let table = [
-        (-200.0, 18.520),  // IEC 60751:2008 Table 1: −200 °C → 18.52 Ω
-        (-100.0, 60.256),  // IEC 60751:2008 Table 1: −100 °C → 60.26 Ω
-        (0.0, 100.000),    // IEC 60751:2008 Table 1: 0 °C → 100.00 Ω
-        (100.0, 138.506),  // IEC 60751:2008 Table 1: 100 °C → 138.51 Ω
-        (200.0, 175.856),  // IEC 60751:2008 Table 1: 200 °C → 175.86 Ω
-        (500.0, 280.978),  // IEC 60751:2008 Table 1: 500 °C → 280.98 Ω
-        (850.0, 390.481),  // IEC 60751:2008 Table 1: 850 °C → 390.48 Ω
+        (-200.0, 18.520), // IEC 60751:2008 Table 1: −200 °C → 18.52 Ω
+        (-100.0, 60.256), // IEC 60751:2008 Table 1: −100 °C → 60.26 Ω
+        (0.0, 100.000),   // IEC 60751:2008 Table 1: 0 °C → 100.00 Ω
+        (100.0, 138.506), // IEC 60751:2008 Table 1: 100 °C → 138.51 Ω
+        (200.0, 175.856), // IEC 60751:2008 Table 1: 200 °C → 175.86 Ω
+        (500.0, 280.978), // IEC 60751:2008 Table 1: 500 °C → 280.98 Ω
+        (850.0, 390.481), // IEC 60751:2008 Table 1: 850 °C → 390.48 Ω
     ];
     for (temp_c, ohms) in table {
         let r = pt100.ohms_at(temp_c).unwrap();
@@ -73,24 +74,42 @@ fn resistance_to_temperature_both_sides_of_zero() {
 #[test]
 fn tolerance_classes_follow_iec_60751() {
     // IEC 60751:2008 Table 3: class A ±(0.15 + 0.002|t|): at 100 °C, ±0.35 °C.
-    let a = RtdClass::A.tolerance_c(100.0, ElementBuild::WireWound).unwrap();
+    let a = RtdClass::A
+        .tolerance_c(100.0, ElementBuild::WireWound)
+        .unwrap();
     assert!(close(a, 0.35, 1e-12));
     // Class B ±(0.3 + 0.005|t|): at −196 °C, ±1.28 °C.
-    let b = RtdClass::B.tolerance_c(-196.0, ElementBuild::WireWound).unwrap();
+    let b = RtdClass::B
+        .tolerance_c(-196.0, ElementBuild::WireWound)
+        .unwrap();
     assert!(close(b, 1.28, 1e-12));
     // Class AA ±(0.1 + 0.0017|t|): at 250 °C, ±0.525 °C.
-    let aa = RtdClass::AA.tolerance_c(250.0, ElementBuild::WireWound).unwrap();
+    let aa = RtdClass::AA
+        .tolerance_c(250.0, ElementBuild::WireWound)
+        .unwrap();
     assert!(close(aa, 0.525, 1e-12));
     // Class C ±(0.6 + 0.01|t|): at 600 °C, ±6.6 °C.
-    let c = RtdClass::C.tolerance_c(600.0, ElementBuild::WireWound).unwrap();
+    let c = RtdClass::C
+        .tolerance_c(600.0, ElementBuild::WireWound)
+        .unwrap();
     assert!(close(c, 6.6, 1e-12));
     // Validity ranges, IEC 60751:2008 Table 3: wire-wound A −100…450 °C; thin-film A
     // −30…300 °C; thin-film AA 0…150 °C.
-    assert!(RtdClass::A.tolerance_c(450.0, ElementBuild::WireWound).is_ok());
-    assert!(RtdClass::A.tolerance_c(460.0, ElementBuild::WireWound).is_err());
-    assert!(RtdClass::A.tolerance_c(-50.0, ElementBuild::ThinFilm).is_err());
-    assert!(RtdClass::AA.tolerance_c(-10.0, ElementBuild::ThinFilm).is_err());
-    let e = RtdClass::B.tolerance_c(650.0, ElementBuild::WireWound).unwrap_err();
+    assert!(RtdClass::A
+        .tolerance_c(450.0, ElementBuild::WireWound)
+        .is_ok());
+    assert!(RtdClass::A
+        .tolerance_c(460.0, ElementBuild::WireWound)
+        .is_err());
+    assert!(RtdClass::A
+        .tolerance_c(-50.0, ElementBuild::ThinFilm)
+        .is_err());
+    assert!(RtdClass::AA
+        .tolerance_c(-10.0, ElementBuild::ThinFilm)
+        .is_err());
+    let e = RtdClass::B
+        .tolerance_c(650.0, ElementBuild::WireWound)
+        .unwrap_err();
     assert_eq!(e.field, "true_temp_c");
     assert!(e.reason.contains("\u{2212}196…600"), "{}", e.reason);
 }
@@ -110,8 +129,12 @@ fn is_within_class_reads_the_element_against_the_class() {
     assert!(close(check.deviation_c, 0.5128, 0.001));
     assert!(close(check.tolerance_c, 0.8, 1e-12));
     // Below zero the deviation is read with the C term: 60.25584 Ω is exactly −100 °C.
-    assert!(pt100.is_within_class(60.25584, -100.0, RtdClass::AA).is_err());
-    assert!(pt100.is_within_class(60.25584, -100.0, RtdClass::A).unwrap());
+    assert!(pt100
+        .is_within_class(60.25584, -100.0, RtdClass::AA)
+        .is_err());
+    assert!(pt100
+        .is_within_class(60.25584, -100.0, RtdClass::A)
+        .unwrap());
 }
 
 #[test]
@@ -140,6 +163,25 @@ fn two_wire_lead_error_uses_the_local_slope() {
 }
 
 #[test]
+fn lead_error_from_a_cable_run() {
+    // 100 m of 0.5 mm² copper at 20 °C: 2 × 100 m × (1/58 Ω·mm²/m) / 0.5 mm² = 6.8966 Ω
+    // loop (IEC 60028 resistivity), which on a 2-wire Pt100 at 0 °C is
+    // 6.8966 / 0.39083 = 17.646 °C — why 2-wire Pt100s are kept to short runs
+    // (common practice).
+    let pt100 = Rtd::pt100();
+    let conductor = Conductor::mm2(0.5).unwrap();
+    let err = pt100
+        .lead_error_for_cable(Wiring::TwoWire, &conductor, 100.0, 20.0, 0.0)
+        .unwrap();
+    assert!(close(err.lead_ohms, 200.0 / 58.0 / 0.5, 1e-9));
+    assert!(close(err.error_c, 200.0 / 58.0 / 0.5 / 0.39083, 1e-9));
+    let e = pt100
+        .lead_error_for_cable(Wiring::TwoWire, &conductor, 100.0, 400.0, 0.0)
+        .unwrap_err();
+    assert_eq!(e.field, "cable_temp_c");
+}
+
+#[test]
 fn bad_input_names_the_field_and_the_range() {
     let pt100 = Rtd::pt100();
     let e = pt100.ohms_at(900.0).unwrap_err();
@@ -152,7 +194,13 @@ fn bad_input_names_the_field_and_the_range() {
     assert!(e.reason.contains("18.520…390.481 Ω"), "{}", e.reason);
     assert_eq!(Rtd::custom(-5.0).unwrap_err().field, "r0_ohms");
     assert_eq!(Rtd::custom(0.0).unwrap_err().field, "r0_ohms");
-    assert_eq!(pt100.lead_error(Wiring::TwoWire, -1.0, 0.0).unwrap_err().field, "lead_ohms");
+    assert_eq!(
+        pt100
+            .lead_error(Wiring::TwoWire, -1.0, 0.0)
+            .unwrap_err()
+            .field,
+        "lead_ohms"
+    );
     assert_eq!("pt99".parse::<RtdKind>().unwrap_err().field, "rtd_type");
     assert_eq!("D".parse::<RtdClass>().unwrap_err().field, "class");
 }

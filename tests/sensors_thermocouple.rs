@@ -195,7 +195,10 @@ fn cold_junction_worked_example() {
     let below = source_mv(TcType::J, 0.0, 25.0).unwrap();
     assert!((below + 1.277).abs() <= TABLE_MV);
     // With the cold junction at 0 °C compensation changes nothing.
-    assert_eq!(source_mv(TcType::T, 150.0, 0.0).unwrap(), TcType::T.mv_at(150.0).unwrap());
+    assert_eq!(
+        source_mv(TcType::T, 150.0, 0.0).unwrap(),
+        TcType::T.mv_at(150.0).unwrap()
+    );
 }
 
 #[test]
@@ -224,15 +227,33 @@ fn iec_60584_tolerance_classes() {
     assert_eq!(tol(TcType::B, TcClass::Three, 700.0), 4.0);
     assert!((tol(TcType::B, TcClass::Three, 1000.0) - 5.0).abs() < 1e-12);
     // Classes that do not exist for a type, and temperatures outside a class.
-    assert_eq!(TcType::B.class_tolerance_c(TcClass::One, 1000.0).unwrap_err().field, "class");
-    assert_eq!(TcType::J.class_tolerance_c(TcClass::Three, 0.0).unwrap_err().field, "class");
-    let e = TcType::K.class_tolerance_c(TcClass::One, 1100.0).unwrap_err();
+    assert_eq!(
+        TcType::B
+            .class_tolerance_c(TcClass::One, 1000.0)
+            .unwrap_err()
+            .field,
+        "class"
+    );
+    assert_eq!(
+        TcType::J
+            .class_tolerance_c(TcClass::Three, 0.0)
+            .unwrap_err()
+            .field,
+        "class"
+    );
+    let e = TcType::K
+        .class_tolerance_c(TcClass::One, 1100.0)
+        .unwrap_err();
     assert_eq!(e.field, "temp_c");
     assert!(e.reason.contains("\u{2212}40…1000 °C"), "{}", e.reason);
     // A type K reading 402 °C at a true 400 °C is inside class 2 (±3.0 °C) but not class 1
     // (±1.6 °C).
-    assert!(TcType::K.is_within_class(402.0, 400.0, TcClass::Two).unwrap());
-    assert!(!TcType::K.is_within_class(402.0, 400.0, TcClass::One).unwrap());
+    assert!(TcType::K
+        .is_within_class(402.0, 400.0, TcClass::Two)
+        .unwrap());
+    assert!(!TcType::K
+        .is_within_class(402.0, 400.0, TcClass::One)
+        .unwrap());
 }
 
 #[test]
@@ -247,8 +268,14 @@ fn bad_input_names_the_field_and_the_range() {
     assert_eq!(e.field, "mv");
     assert!(e.reason.contains("\u{2212}6.258…20.872 mV"), "{}", e.reason);
     assert_eq!(TcType::B.temp_c_at(-0.001).unwrap_err().field, "mv");
-    assert_eq!(source_mv(TcType::K, 100.0, f64::NAN).unwrap_err().field, "cj_temp_c");
-    assert_eq!(source_mv(TcType::R, 100.0, -60.0).unwrap_err().field, "cj_temp_c");
+    assert_eq!(
+        source_mv(TcType::K, 100.0, f64::NAN).unwrap_err().field,
+        "cj_temp_c"
+    );
+    assert_eq!(
+        source_mv(TcType::R, 100.0, -60.0).unwrap_err().field,
+        "cj_temp_c"
+    );
     assert_eq!("Q".parse::<TcType>().unwrap_err().field, "tc_type");
     assert_eq!("type k".parse::<TcType>().unwrap(), TcType::K);
     assert_eq!("4".parse::<TcClass>().unwrap_err().field, "class");
