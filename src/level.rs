@@ -9,8 +9,12 @@
 //! Conventions, used everywhere in this module:
 //! - Pressures are in pascals; p = ρ·g·h with ρ = SG × 1000 kg/m³ and g = 9.80665 m/s², so
 //!   1 m of water at SG 1 is 9.80665 kPa (the conventional metre of water).
-//! - Every elevation is in metres above one datum: the elevation where the level reads 0.
-//!   Positive is up. A transmitter 1.2 m below that datum has `tx_m = -1.2`.
+//! - Levels (`min_m`, `max_m`, a level read back) are metres above the bottom (HP) tap or
+//!   seal — the zero-level tap — as the trade's ranging formulas use them.
+//! - For impulse-line mounts the transmitter's elevation `tx_m` is metres above that tap
+//!   (a transmitter 1.2 m below it has `tx_m = -1.2`). For seals and interface mounts the
+//!   seal, tap and transmitter elevations may be measured from any one datum (grade, the
+//!   tank floor); only their differences enter.
 //! - DP = P_HP − P_LP at the transmitter. The gas or vapour pressure above the liquid acts
 //!   on both sides of a closed tank and cancels; the weight of a gas-filled leg is ignored.
 //! - Impulse lines on the HP side are taken as full of process liquid (as a technician
@@ -49,32 +53,26 @@ pub fn head_in(sg: f64, height_m: f64, unit: &str) -> Result<f64> {
     units::convert(pa, "Pa", unit).map_err(|e| e.renamed("unit"))
 }
 
-/// How the DP transmitter is connected to the vessel. Elevations are metres above the
-/// level datum (see the module notes).
+/// How the DP transmitter is connected to the vessel (see the module notes for where each
+/// elevation is measured from).
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum Mount {
-    /// Open (vented) tank. The HP port is piped from the bottom tap at `hp_tap_m`; the LP
-    /// port is vented. The transmitter sits at `tx_m` (below the tap: suppression; above
-    /// it, with the line kept full: elevation).
+    /// Open (vented) tank. The HP port is piped from the bottom tap; the LP port is
+    /// vented. The transmitter sits `tx_m` above the tap (below it, negative: a suppressed
+    /// zero; above it, with the line kept full: an elevated zero).
     OpenTank {
-        /// Elevation of the bottom (HP) tap.
-        hp_tap_m: f64,
-        /// Elevation of the transmitter.
+        /// Transmitter elevation above the bottom (HP) tap.
         tx_m: f64,
     },
     /// Closed tank whose LP leg runs to the vapour space and holds only gas.
     DryLeg {
-        /// Elevation of the bottom (HP) tap.
-        hp_tap_m: f64,
-        /// Elevation of the transmitter.
+        /// Transmitter elevation above the bottom (HP) tap.
         tx_m: f64,
     },
     /// Closed tank whose LP leg is kept full of a fill liquid (condensate, glycol…) to a
     /// height `leg_m` above the transmitter, normally up to the top tap.
     WetLeg {
-        /// Elevation of the bottom (HP) tap.
-        hp_tap_m: f64,
-        /// Elevation of the transmitter.
+        /// Transmitter elevation above the bottom (HP) tap.
         tx_m: f64,
         /// Height of the liquid column in the LP leg, measured up from the transmitter.
         leg_m: f64,
@@ -106,8 +104,8 @@ pub enum Mount {
     },
     /// Interface between a heavier liquid (the range's `sg`) below and a lighter liquid
     /// (`upper_sg`) above, with the vessel full above the top tap. Both connections are
-    /// seals or legs full of `fill_sg`; the level is the interface elevation, which must
-    /// lie between the taps.
+    /// seals or legs full of `fill_sg`; the level is the interface's height above the
+    /// bottom tap, which must lie between the taps.
     Interface {
         /// Specific gravity of the lighter, upper liquid.
         upper_sg: f64,
@@ -141,9 +139,9 @@ impl Mount {
 pub struct LevelSetup {
     /// Specific gravity of the process liquid (for an interface: the lower, heavier one).
     pub sg: f64,
-    /// Level at 0 % of range (the LRV level), metres above the datum.
+    /// Level at 0 % of range (the LRV level), metres above the bottom tap or seal.
     pub min_m: f64,
-    /// Level at 100 % of range (the URV level), metres above the datum.
+    /// Level at 100 % of range (the URV level), metres above the bottom tap or seal.
     pub max_m: f64,
     /// How the transmitter is connected.
     pub mount: Mount,
@@ -249,7 +247,8 @@ pub fn dp_at_level(setup: &LevelSetup, level_m: f64) -> Result<f64> {
     Ok(dp_unchecked(setup, h))
 }
 
-/// The level (m above the datum) that a measured differential pressure `dp_pa` means:
+/// The level (m above the bottom tap or seal) that a measured differential pressure
+/// `dp_pa` means:
 /// the inverse of the ranging. DPs beyond the LRV…URV range give levels beyond
 /// min_m…max_m on the same straight line, as long as they stay within the levels the
 /// installation can see (between its taps or seals).
@@ -280,7 +279,7 @@ pub fn level_from_dp(setup: &LevelSetup, dp_pa: f64) -> Result<f64> {
 fn dp_unchecked(setup: &LevelSetup, h: f64) -> f64 {
     let sg = setup.sg;
     let dp = match setup.mount {
-        Mount::OpenTank { tx_m, .. } | Mount::DryLeg { tx_m, .. } => {
+        Mount::OpenTank { tx_m } | Mount::DryLeg { tx_m } => {
             // HP: liquid above the tap plus the full impulse line down (or up) to the
             // transmitter, i.e. process liquid from the surface to the transmitter.
             column_pa(sg, h - tx_m)
@@ -297,7 +296,7 @@ fn dp_unchecked(setup: &LevelSetup, h: f64) -> f64 {
             tx_m,
             fill_sg,
         } => {
-            let hp = column_pa(sg, h - hp_seal_m) + column_pa(fill_sg, hp_seal_m - tx_m);
+            let hp = column_pa(sg, h) + column_pa(fill_sg, hp_seal_m - tx_m);
             let lp = column_pa(fill_sg, lp_seal_m - tx_m);
             hp - lp
         }
@@ -305,7 +304,7 @@ fn dp_unchecked(setup: &LevelSetup, h: f64) -> f64 {
             hp_seal_m,
             tx_m,
             fill_sg,
-        } => column_pa(sg, h - hp_seal_m) + column_pa(fill_sg, hp_seal_m - tx_m),
+        } => column_pa(sg, h) + column_pa(fill_sg, hp_seal_m - tx_m),
         Mount::Interface {
             upper_sg,
             hp_tap_m,
@@ -315,8 +314,8 @@ fn dp_unchecked(setup: &LevelSetup, h: f64) -> f64 {
         } => {
             // Between the taps: heavy liquid below the interface, light above it. The light
             // liquid above the top tap acts on both sides and cancels.
-            let hp = column_pa(sg, h - hp_tap_m)
-                + column_pa(upper_sg, lp_tap_m - h)
+            let hp = column_pa(sg, h)
+                + column_pa(upper_sg, lp_tap_m - hp_tap_m - h)
                 + column_pa(fill_sg, hp_tap_m - tx_m);
             let lp = column_pa(fill_sg, lp_tap_m - tx_m);
             hp - lp
@@ -329,29 +328,23 @@ fn dp_unchecked(setup: &LevelSetup, h: f64) -> f64 {
     }
 }
 
-/// The span of levels over which DP changes linearly with level for this mount: from the
-/// bottom tap or seal up to the top tap, leg or seal (unbounded above for open tanks and
-/// dry legs).
+/// The levels over which DP changes linearly with level for this mount: from the bottom
+/// tap or seal (0 m) up to the top tap, leg or seal (unbounded for open tanks and dry
+/// legs).
 fn measurable_levels(setup: &LevelSetup) -> (f64, f64) {
     match setup.mount {
-        Mount::OpenTank { hp_tap_m, .. } | Mount::DryLeg { hp_tap_m, .. } => {
-            (hp_tap_m, f64::INFINITY)
+        Mount::OpenTank { .. } | Mount::DryLeg { .. } | Mount::OpenTankSeal { .. } => {
+            (0.0, f64::INFINITY)
         }
-        Mount::WetLeg {
-            hp_tap_m,
-            tx_m,
-            leg_m,
-            ..
-        } => (hp_tap_m, tx_m + leg_m),
+        Mount::WetLeg { tx_m, leg_m, .. } => (0.0, tx_m + leg_m),
         Mount::Seals {
             hp_seal_m,
             lp_seal_m,
             ..
-        } => (hp_seal_m, lp_seal_m),
-        Mount::OpenTankSeal { hp_seal_m, .. } => (hp_seal_m, f64::INFINITY),
+        } => (0.0, lp_seal_m - hp_seal_m),
         Mount::Interface {
             hp_tap_m, lp_tap_m, ..
-        } => (hp_tap_m, lp_tap_m),
+        } => (0.0, lp_tap_m - hp_tap_m),
     }
 }
 
@@ -370,28 +363,24 @@ fn validate(setup: &LevelSetup) -> Result<()> {
         ));
     }
     match setup.mount {
-        Mount::OpenTank { hp_tap_m, tx_m } | Mount::DryLeg { hp_tap_m, tx_m } => {
-            finite("hp_tap_m", hp_tap_m)?;
+        Mount::OpenTank { tx_m } | Mount::DryLeg { tx_m } => {
             finite("tx_m", tx_m)?;
         }
         Mount::WetLeg {
-            hp_tap_m,
             tx_m,
             leg_m,
             fill_sg,
         } => {
-            finite("hp_tap_m", hp_tap_m)?;
             finite("tx_m", tx_m)?;
             positive("leg_m", leg_m)?;
             check_sg("fill_sg", fill_sg)?;
-            if tx_m + leg_m <= hp_tap_m {
+            if tx_m + leg_m <= 0.0 {
                 return Err(FieldError::new(
                     "leg_m",
                     format!(
-                        "a wet leg of {} m from a transmitter at {} m ends at or below the HP tap ({} m)",
+                        "a wet leg of {} m from a transmitter at {} m ends at or below the HP tap",
                         show(leg_m),
-                        show(tx_m),
-                        show(hp_tap_m)
+                        show(tx_m)
                     ),
                 ));
             }
@@ -464,7 +453,7 @@ fn validate(setup: &LevelSetup) -> Result<()> {
         return Err(FieldError::new(
             "min_m",
             format!(
-                "{} m is below the bottom tap or seal at {} m; a DP transmitter cannot see level there",
+                "{} m is below the bottom tap or seal ({} m); a DP transmitter cannot see level there",
                 show(min),
                 show(low)
             ),
@@ -474,7 +463,7 @@ fn validate(setup: &LevelSetup) -> Result<()> {
         return Err(FieldError::new(
             "max_m",
             format!(
-                "{} m is above the top tap, leg or seal at {} m; the DP stops changing with level there",
+                "{} m is above the top tap, leg or seal ({} m above the bottom one); the DP stops changing with level there",
                 show(max),
                 show(high)
             ),
@@ -515,10 +504,7 @@ mod tests {
             sg: 1.0,
             min_m,
             max_m,
-            mount: Mount::OpenTank {
-                hp_tap_m: 0.0,
-                tx_m,
-            },
+            mount: Mount::OpenTank { tx_m },
             ports_swapped: false,
         }
     }

@@ -176,8 +176,8 @@ impl Rtd {
     pub fn temp_c_at(&self, ohms: f64) -> Result<f64> {
         let r = finite("ohms", ohms)?;
         let (low, high) = self.ohms_range();
-        // Accept values that round to the ends of the range (for example the 850 °C table
-        // value typed to two decimals).
+        // Accept values a floating-point rounding beyond the ends of the range, so the
+        // resistance computed for −200 °C or 850 °C reads back.
         let slack = 1e-9 * self.r0_ohms;
         if r < low - slack || r > high + slack {
             return Err(FieldError::new(

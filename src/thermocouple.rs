@@ -355,7 +355,7 @@ pub fn temp_c_from_measured(tc: TcType, measured_mv: f64, cj_temp_c: f64) -> Res
         FieldError::new(
             "mv",
             format!(
-                "{} mV with the cold junction at {} °C is {} mV from 0 °C, which {}",
+                "{} mV measured with the cold junction at {} °C is {} mV referred to 0 °C; {}",
                 show(e),
                 show(cj_temp_c),
                 show(e + e_cj),

@@ -47,15 +47,7 @@ fn open_tank_bottom_mounted_heptane_vessel() {
     // question "transmitter calibration range of a vessel level" (as republished by
     // instrumentationtools.com): heptane SG 0.68, 0–14 ft, transmitter at the bottom →
     // 0 to 114.24 "W.C.; 8 ft of level → 13.14 mA.
-    let s = setup(
-        0.68,
-        0.0,
-        14.0 * FT,
-        Mount::OpenTank {
-            hp_tap_m: 0.0,
-            tx_m: 0.0,
-        },
-    );
+    let s = setup(0.68, 0.0, 14.0 * FT, Mount::OpenTank { tx_m: 0.0 });
     let r = range(&s).unwrap();
     let (lrv, urv, span) = r.in_unit("inH2O(conv)").unwrap();
     assert!(close(lrv, 0.0, 1e-9));
@@ -71,15 +63,7 @@ fn open_tank_bottom_mounted_heptane_vessel() {
 fn open_tank_transmitter_below_the_tap_is_a_suppressed_zero() {
     // instrumentationtoolbox.com, "Zero Suppression Calibration in Level Measurement":
     // SG 0.9, 40 ft of level, transmitter 6 ft below the tank base → 64.8 to 496.8 "W.C.
-    let s = setup(
-        0.9,
-        0.0,
-        40.0 * FT,
-        Mount::OpenTank {
-            hp_tap_m: 0.0,
-            tx_m: -6.0 * FT,
-        },
-    );
+    let s = setup(0.9, 0.0, 40.0 * FT, Mount::OpenTank { tx_m: -6.0 * FT });
     let r = range(&s).unwrap();
     let (lrv, urv, _) = r.in_unit("inH2O(conv)").unwrap();
     assert!(close(lrv, 64.8, 0.005));
@@ -100,15 +84,7 @@ fn closed_tank_dry_leg_and_wet_leg_with_the_transmitter_above_the_tap() {
     // learninstrumentationengineering.com, "Calibration of DP level transmitter
     // (elevation)": taps 5470 mm apart, SG 1.12, transmitter 1250 mm above the 0 % (HP)
     // tap. Dry leg: LRV −1400, URV 4726.4 mmH2O.
-    let dry = setup(
-        1.12,
-        0.0,
-        5.47,
-        Mount::DryLeg {
-            hp_tap_m: 0.0,
-            tx_m: 1.25,
-        },
-    );
+    let dry = setup(1.12, 0.0, 5.47, Mount::DryLeg { tx_m: 1.25 });
     let (lrv, urv, span) = range(&dry).unwrap().in_unit("mmH2O").unwrap();
     assert!(close(lrv, -1400.0, 1e-6));
     assert!(close(urv, 4726.4, 1e-6));
@@ -120,7 +96,6 @@ fn closed_tank_dry_leg_and_wet_leg_with_the_transmitter_above_the_tap() {
         0.0,
         5.47,
         Mount::WetLeg {
-            hp_tap_m: 0.0,
             tx_m: 1.25,
             leg_m: 4.49,
             fill_sg: 1.17,
@@ -144,7 +119,6 @@ fn wet_leg_with_the_transmitter_at_the_tap() {
         0.0,
         7.27,
         Mount::WetLeg {
-            hp_tap_m: 0.0,
             tx_m: 0.0,
             leg_m: 8.21,
             fill_sg: 0.94,
@@ -254,64 +228,60 @@ fn column(sg: f64, h: f64) -> f64 {
 
 #[test]
 fn every_mount_reads_back_the_same_level_from_its_port_pressures() {
-    // The same closed tank (liquid SG 1.05, vapour at 50 kPa gauge, level 2.3 m above the
-    // datum, bottom tap at 0.3 m) instrumented five ways. For each, the pressures on the
-    // HP and LP ports are summed from the columns a technician would trace on site; every
-    // mount must turn its own DP back into 2.3 m.
+    // The same closed tank (liquid SG 1.05, vapour at 50 kPa gauge, level 2.0 m above the
+    // bottom tap) instrumented five ways. Elevations for the seal mounts are taken from
+    // the tank floor, with the bottom tap 0.3 m up. For each mount the pressures on the HP
+    // and LP ports are summed from the columns a technician would trace on site; every
+    // mount must turn its own DP back into 2.0 m.
     let sg = 1.05;
     let vapour = 50_000.0;
-    let level = 2.3;
-    let hp_tap = 0.3;
+    let level = 2.0;
     let cases: Vec<(Mount, f64, f64)> = vec![
         (
-            Mount::OpenTank {
-                hp_tap_m: hp_tap,
-                tx_m: -1.0,
-            },
+            // Transmitter 1.3 m below the bottom tap.
+            Mount::OpenTank { tx_m: -1.3 },
             // Open tank: no vapour pressure, LP vented.
-            column(sg, level - hp_tap) + column(sg, hp_tap + 1.0),
+            column(sg, level) + column(sg, 1.3),
             0.0,
         ),
         (
-            Mount::DryLeg {
-                hp_tap_m: hp_tap,
-                tx_m: -1.0,
-            },
-            vapour + column(sg, level - hp_tap) + column(sg, hp_tap + 1.0),
+            Mount::DryLeg { tx_m: -1.3 },
+            vapour + column(sg, level) + column(sg, 1.3),
             vapour,
         ),
         (
             Mount::WetLeg {
-                hp_tap_m: hp_tap,
-                tx_m: -1.0,
+                tx_m: -1.3,
                 leg_m: 5.5,
                 fill_sg: 1.0,
             },
-            vapour + column(sg, level - hp_tap) + column(sg, hp_tap + 1.0),
+            vapour + column(sg, level) + column(sg, 1.3),
             vapour + column(1.0, 5.5),
         ),
         (
+            // Seals at 0.3 m and 4.5 m above the floor, transmitter at 1.2 m.
             Mount::Seals {
-                hp_seal_m: hp_tap,
+                hp_seal_m: 0.3,
                 lp_seal_m: 4.5,
                 tx_m: 1.2,
                 fill_sg: 0.93,
             },
-            vapour + column(sg, level - hp_tap) + column(0.93, hp_tap - 1.2),
+            vapour + column(sg, level) + column(0.93, 0.3 - 1.2),
             vapour + column(0.93, 4.5 - 1.2),
         ),
         (
+            // Open tank with one seal at 0.3 m, transmitter at grade (0 m).
             Mount::OpenTankSeal {
-                hp_seal_m: hp_tap,
-                tx_m: -0.8,
+                hp_seal_m: 0.3,
+                tx_m: 0.0,
                 fill_sg: 0.93,
             },
-            column(sg, level - hp_tap) + column(0.93, hp_tap + 0.8),
+            column(sg, level) + column(0.93, 0.3),
             0.0,
         ),
     ];
     for (mount, p_hp, p_lp) in cases {
-        let straight = setup(sg, 0.5, 4.0, mount);
+        let straight = setup(sg, 0.2, 3.7, mount);
         let read = level_from_dp(&straight, p_hp - p_lp).unwrap();
         assert!(close(read, level, 1e-9), "{}: {read} m", mount.name());
         // The same installation with the ports swapped sees the negative DP and still
@@ -331,20 +301,20 @@ fn every_mount_reads_back_the_same_level_from_its_port_pressures() {
         assert!(close(dp, p_hp - p_lp, 1e-6), "{}", mount.name());
     }
 
-    // Interface: water under oil, vessel full to 6 m with 20 kPa of gas above; interface
-    // at 1.1 m between taps at 0.3 m and 2.3 m; seals filled with SG 0.93, transmitter at
-    // 0 m.
+    // Interface: water under oil, vessel full to 6 m above the floor with 20 kPa of gas
+    // above; taps at 0.3 m and 2.3 m; interface 0.8 m above the bottom tap (1.1 m above
+    // the floor); legs filled with SG 0.93, transmitter at the floor.
     let (water, oil, top) = (1.0, 0.85, 6.0);
-    let interface = 1.1;
+    let interface_floor = 1.1;
     let p_hp = 20_000.0
-        + column(oil, top - interface)
-        + column(water, interface - 0.3)
+        + column(oil, top - interface_floor)
+        + column(water, interface_floor - 0.3)
         + column(0.93, 0.3);
     let p_lp = 20_000.0 + column(oil, top - 2.3) + column(0.93, 2.3);
     let s = setup(
         water,
-        0.5,
-        2.0,
+        0.2,
+        1.7,
         Mount::Interface {
             upper_sg: oil,
             hp_tap_m: 0.3,
@@ -353,26 +323,13 @@ fn every_mount_reads_back_the_same_level_from_its_port_pressures() {
             fill_sg: 0.93,
         },
     );
-    assert!(close(
-        level_from_dp(&s, p_hp - p_lp).unwrap(),
-        interface,
-        1e-9
-    ));
+    assert!(close(level_from_dp(&s, p_hp - p_lp).unwrap(), 0.8, 1e-9));
 }
 
 #[test]
 fn bad_input_names_the_field() {
-    let open = |sg: f64, min_m: f64, max_m: f64| {
-        setup(
-            sg,
-            min_m,
-            max_m,
-            Mount::OpenTank {
-                hp_tap_m: 0.0,
-                tx_m: 0.0,
-            },
-        )
-    };
+    let open =
+        |sg: f64, min_m: f64, max_m: f64| setup(sg, min_m, max_m, Mount::OpenTank { tx_m: 0.0 });
     assert_eq!(range(&open(-1.0, 0.0, 2.0)).unwrap_err().field, "sg");
     assert_eq!(range(&open(0.0, 0.0, 2.0)).unwrap_err().field, "sg");
     let e = range(&open(1.0, 2.0, 2.0)).unwrap_err();
@@ -421,15 +378,7 @@ fn bad_input_names_the_field() {
 fn levels_outside_the_range_extend_the_same_line() {
     // A DP above the URV reads as a level above max_m (the transmitter would saturate,
     // but the technician still wants to know what the pressure means).
-    let s = setup(
-        1.0,
-        0.0,
-        2.0,
-        Mount::OpenTank {
-            hp_tap_m: 0.0,
-            tx_m: 0.0,
-        },
-    );
+    let s = setup(1.0, 0.0, 2.0, Mount::OpenTank { tx_m: 0.0 });
     assert!(close(
         level_from_dp(&s, column(1.0, 2.5)).unwrap(),
         2.5,

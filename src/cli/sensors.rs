@@ -348,25 +348,29 @@ pub(super) fn tc(args: TcArgs, out: &mut dyn Write) -> CliResult {
     --lp-seal-m 9,5 --tx-m 1 --fill-sg 0,93 --unit inH2O --json\n  \
     loopside level --sg 1,0 --min-m 0,2 --max-m 1,8 --mount interface --upper-sg 0,85 \\\n    \
     --lp-tap-m 2 --fill-sg 0,93\n\
-    Elevations are metres above the level datum (the 0 m level), up positive.\n\
+    Levels are metres above the bottom (HP) tap or seal. --tx-m is above that tap for\n\
+    open, dry-leg and wet-leg; seals, open-seal and interface take every elevation from\n\
+    one datum of your choice (only differences matter).\n\
     Mounts: open, dry-leg, wet-leg, seals, open-seal, interface.")]
 pub struct LevelArgs {
     /// Specific gravity of the liquid (for interface: the lower, heavier liquid).
     #[arg(long, allow_hyphen_values = true, value_name = "S")]
     sg: String,
-    /// Level at the LRV (4 mA), m above the datum.
+    /// Level at the LRV (4 mA), m above the bottom (HP) tap or seal.
     #[arg(long, allow_hyphen_values = true, value_name = "H")]
     min_m: String,
-    /// Level at the URV (20 mA), m above the datum.
+    /// Level at the URV (20 mA), m above the bottom (HP) tap or seal.
     #[arg(long, allow_hyphen_values = true, value_name = "H")]
     max_m: String,
     /// How the transmitter is connected (default open).
     #[arg(long, value_name = "MOUNT", value_parser = ["open", "dry-leg", "wet-leg", "seals", "open-seal", "interface"])]
     mount: Option<String>,
-    /// Transmitter elevation, m (default 0: level with the datum).
+    /// Transmitter elevation, m: above the bottom tap for open, dry-leg and wet-leg; on the
+    /// same datum as the seal or tap elevations for seals, open-seal and interface
+    /// (default 0).
     #[arg(long, allow_hyphen_values = true, value_name = "Z")]
     tx_m: Option<String>,
-    /// Bottom (HP) tap elevation for open, dry-leg, wet-leg and interface, m (default 0).
+    /// Bottom (HP) tap elevation for interface, m (default 0).
     #[arg(long, allow_hyphen_values = true, value_name = "Z")]
     hp_tap_m: Option<String>,
     /// Top (LP) tap elevation for interface, m.
@@ -425,11 +429,9 @@ impl LevelArgs {
         let max_m = parse_in("max-m", &self.max_m, "m")?;
         let mount_name = self.mount.as_deref().unwrap_or("open");
         let tx_m = optional(&self.tx_m, "tx-m", 0.0)?;
-        let hp_tap_m = optional(&self.hp_tap_m, "hp-tap-m", 0.0)?;
         let mount = match mount_name {
-            "dry-leg" => Mount::DryLeg { hp_tap_m, tx_m },
+            "dry-leg" => Mount::DryLeg { tx_m },
             "wet-leg" => Mount::WetLeg {
-                hp_tap_m,
                 tx_m,
                 leg_m: required(&self.leg_m, "leg-m", mount_name)?,
                 fill_sg: required(&self.fill_sg, "fill-sg", mount_name)?,
@@ -447,12 +449,12 @@ impl LevelArgs {
             },
             "interface" => Mount::Interface {
                 upper_sg: required(&self.upper_sg, "upper-sg", mount_name)?,
-                hp_tap_m,
+                hp_tap_m: optional(&self.hp_tap_m, "hp-tap-m", 0.0)?,
                 lp_tap_m: required(&self.lp_tap_m, "lp-tap-m", mount_name)?,
                 tx_m,
                 fill_sg: required(&self.fill_sg, "fill-sg", mount_name)?,
             },
-            _ => Mount::OpenTank { hp_tap_m, tx_m },
+            _ => Mount::OpenTank { tx_m },
         };
         Ok(LevelSetup {
             sg,
@@ -514,7 +516,17 @@ pub(super) fn level(args: LevelArgs, out: &mut dyn Write) -> CliResult {
         format!("LRV     {}", display::value(lrv, unit, span)),
         format!("URV     {}", display::value(urv, unit, span)),
         format!("span    {}", display::value(span, unit, span)),
-        format!("zero    {}", ranging.zero.describe(unit).map_err(as_flag)?),
+        match ranging.zero {
+            ZeroShift::None => "zero    zero-based (LRV = 0)".to_string(),
+            ZeroShift::Elevated { .. } => format!(
+                "zero    elevated zero by {} (LRV below 0)",
+                display::value(shift, unit, span)
+            ),
+            ZeroShift::Suppressed { .. } => format!(
+                "zero    suppressed zero by {} (LRV above 0)",
+                display::value(shift, unit, span)
+            ),
+        },
     ];
     if let Some(h) = level_m {
         lines.push(format!("level   {} m", display::fixed(h, 3)));
