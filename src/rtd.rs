@@ -176,9 +176,9 @@ impl Rtd {
     pub fn temp_c_at(&self, ohms: f64) -> Result<f64> {
         let r = finite("ohms", ohms)?;
         let (low, high) = self.ohms_range();
-        // Accept values a floating-point rounding beyond the ends of the range, so the
-        // resistance computed for −200 °C or 850 °C reads back.
-        let slack = 1e-9 * self.r0_ohms;
+        // Accept values up to half a table step (0.005 Ω on a Pt100) beyond the ends, so
+        // the table's 18.52 Ω for −200 °C reads back (as −200.0004 °C) instead of failing.
+        let slack = 5e-5 * self.r0_ohms;
         if r < low - slack || r > high + slack {
             return Err(FieldError::new(
                 "ohms",
@@ -194,16 +194,16 @@ impl Rtd {
         let ratio = r / self.r0_ohms;
         let quadratic = quadratic_root(ratio);
         if ratio >= 1.0 {
-            return Ok(quadratic.min(RTD_MAX_TEMP_C));
+            return Ok(quadratic);
         }
         // Below 0 °C: start from the quadratic root (within 0.1 °C of the answer) and let
         // Newton add the C term.
-        let mut t = quadratic.max(RTD_MIN_TEMP_C);
+        let mut t = quadratic;
         for _ in 0..NEWTON_MAX_STEPS {
             let step = (cvd_ratio(t) - ratio) / cvd_ratio_slope(t);
             t -= step;
             if step.abs() < NEWTON_TOLERANCE_C {
-                return Ok(t.clamp(RTD_MIN_TEMP_C, 0.0));
+                return Ok(t.min(0.0));
             }
         }
         Err(FieldError::new(

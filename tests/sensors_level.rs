@@ -8,7 +8,6 @@ use loopside::level::{
 };
 
 const FT: f64 = 0.3048;
-const IN: f64 = 0.0254;
 
 fn close(actual: f64, expected: f64, tolerance: f64) -> bool {
     (actual - expected).abs() <= tolerance
