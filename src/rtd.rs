@@ -360,7 +360,10 @@ impl RtdClass {
         }
     }
 
-    /// Temperature range (°C) over which the class applies, per IEC 60751:2008 Table 3.
+    /// Temperature range (°C) over which the class applies, per IEC 60751:2008 (tolerance
+    /// table). Wire-wound: AA −50…250, A −100…450, B and C −196…600 °C. Thin-film: AA
+    /// 0…150, A −30…300, B −50…500, C −50…600 °C (the thin-film ranges are from memory of
+    /// the 2008 edition; the 2022 edition renames the classes and changes some ranges).
     pub fn validity_c(self, build: ElementBuild) -> (f64, f64) {
         match (build, self) {
             (ElementBuild::WireWound, RtdClass::AA) => (-50.0, 250.0),

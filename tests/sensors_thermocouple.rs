@@ -5,6 +5,10 @@
 use loopside::thermocouple::{source_mv, temp_c_from_measured, TcClass, TcType};
 use proptest::prelude::*;
 
+// The NIST Monograph 175 table values below are quoted from memory; the ones marked
+// "inverse range edge" are printed in the NIST ITS-90 coefficient file itself (the EMF
+// limits of each inverse polynomial), which was read for this work.
+
 /// NIST Monograph 175 tables give EMF to 0.001 mV; a correct reference function rounds to
 /// the printed value, so it lies within half a step of it (a little slack for the step).
 const TABLE_MV: f64 = 0.0006;
@@ -204,8 +208,9 @@ fn cold_junction_worked_example() {
 #[test]
 fn iec_60584_tolerance_classes() {
     let tol = |tc: TcType, class: TcClass, t: f64| tc.class_tolerance_c(class, t).unwrap();
-    // IEC 60584-1:2013: type K class 1 is ±1.5 °C from −40 to 375 °C, then ±0.004·|t| to
-    // 1000 °C.
+    // IEC 60584-1:2013 (values from memory, matching the IEC 584-2 column of the published
+    // tolerance table at therncway.net "Thermocouple Tolerance and Applicable Standards"):
+    // type K class 1 is ±1.5 °C from −40 to 375 °C, then ±0.004·|t| to 1000 °C.
     assert_eq!(tol(TcType::K, TcClass::One, 100.0), 1.5);
     assert!((tol(TcType::K, TcClass::One, 500.0) - 2.0).abs() < 1e-12);
     // Type K class 2: ±2.5 °C to 333 °C, then ±0.0075·|t| to 1200 °C.
