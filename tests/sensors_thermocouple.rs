@@ -100,6 +100,8 @@ fn noble_metal_types_r_s_b_match_nist_tables() {
             (250.0, 1.923),   // NIST ITS-90 database, type R inverse range edge: 250 °C → 1.923 mV
             (1000.0, 10.506), // NIST Monograph 175, type R table: 1000 °C → 10.506 mV
             (1200.0, 13.228), // NIST ITS-90 database, type R inverse range edge: 1200 °C → 13.228 mV
+            (1500.0, 17.451), // NIST Monograph 175, type R table: 1500 °C → 17.451 mV
+            (1664.5, 19.739), // NIST ITS-90 database, type R inverse range edge: 1664.5 °C → 19.739 mV
             (1768.0, 21.101), // NIST Monograph 175, type R table: 1768 °C → 21.101 mV
         ],
     );
@@ -110,6 +112,8 @@ fn noble_metal_types_r_s_b_match_nist_tables() {
             (100.0, 0.646),   // NIST Monograph 175, type S table: 100 °C → 0.646 mV
             (250.0, 1.874),   // NIST ITS-90 database, type S inverse range edge: 250 °C → 1.874 mV
             (1000.0, 9.587),  // NIST Monograph 175, type S table: 1000 °C → 9.587 mV
+            (1500.0, 15.582), // NIST Monograph 175, type S table: 1500 °C → 15.582 mV
+            (1664.5, 17.536), // NIST ITS-90 database, type S inverse range edge: 1664.5 °C → 17.536 mV
             (1768.0, 18.693), // NIST Monograph 175, type S table: 1768 °C → 18.693 mV
         ],
     );
