@@ -28,6 +28,7 @@
 use crate::error::{finite, positive, FieldError, Result};
 use crate::rtd::show;
 use crate::units::{self, STANDARD_GRAVITY, WATER_DENSITY_KG_M3};
+use serde::{Deserialize, Serialize};
 
 /// Hydrostatic pressure (Pa) at the bottom of a column `height_m` tall of a liquid with
 /// specific gravity `sg`: p = SG·1000 kg/m³·9.80665 m/s²·h. A negative height (a point
@@ -55,7 +56,8 @@ pub fn head_in(sg: f64, height_m: f64, unit: &str) -> Result<f64> {
 
 /// How the DP transmitter is connected to the vessel (see the module notes for where each
 /// elevation is measured from).
-#[derive(Debug, Clone, Copy, PartialEq)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "mount", rename_all = "kebab-case")]
 pub enum Mount {
     /// Open (vented) tank. The HP port is piped from the bottom tap; the LP port is
     /// vented. The transmitter sits `tx_m` above the tap (below it, negative: a suppressed
@@ -135,7 +137,7 @@ impl Mount {
 }
 
 /// A DP level measurement to range: the liquid, the level range and the piping.
-#[derive(Debug, Clone, Copy, PartialEq)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 pub struct LevelSetup {
     /// Specific gravity of the process liquid (for an interface: the lower, heavier one).
     pub sg: f64,

@@ -15,6 +15,7 @@ use std::str::FromStr;
 
 use crate::error::{finite, positive, FieldError, Result};
 use crate::wire::{self, Conductor};
+use serde::{Deserialize, Serialize};
 
 /// Callendar–Van Dusen coefficient A (1/°C), IEC 60751.
 pub const CVD_A: f64 = 3.9083e-3;
@@ -34,7 +35,8 @@ const NEWTON_TOLERANCE_C: f64 = 1e-10;
 const NEWTON_MAX_STEPS: usize = 100;
 
 /// The nominal sizes a technician finds on a nameplate: R0 = 100, 500 or 1000 Ω at 0 °C.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(rename_all = "lowercase")]
 pub enum RtdKind {
     /// Pt100: 100 Ω at 0 °C, the most common industrial element.
     Pt100,
@@ -314,7 +316,7 @@ impl Rtd {
 /// IEC 60751:2008 tolerance classes for platinum RTDs: the permitted deviation from the
 /// standard table, ±(fixed + factor·|t|) °C, over a validity range that depends on the
 /// element's construction.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
 pub enum RtdClass {
     /// Class AA: ±(0.1 + 0.0017·|t|) °C.
     AA,
@@ -328,7 +330,8 @@ pub enum RtdClass {
 
 /// How the platinum element is made; IEC 60751:2008 gives thin-film elements narrower
 /// validity ranges for each class than wire-wound ones.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
 pub enum ElementBuild {
     /// Wire-wound element (the default when a data sheet does not say).
     WireWound,
@@ -444,7 +447,8 @@ pub struct ClassCheck {
 }
 
 /// How the element is connected to the transmitter.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
 pub enum Wiring {
     /// Two wires: the lead resistance adds to the reading.
     TwoWire,

@@ -25,6 +25,7 @@ use std::str::FromStr;
 use crate::error::{finite, FieldError, Result};
 use crate::rtd::{show, show3};
 use its90::TypeData;
+use serde::{Deserialize, Serialize};
 
 /// Newton stops once a step is below this (°C).
 const NEWTON_TOLERANCE_C: f64 = 1e-10;
@@ -35,7 +36,7 @@ const SOLVER_MAX_STEPS: usize = 200;
 const TYPE_B_RISING_FROM_C: f64 = 25.0;
 
 /// The letter-designated thermocouple types of NIST Monograph 175 and IEC 60584-1.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
 pub enum TcType {
     /// Type B: Pt-30%Rh / Pt-6%Rh, 0…1820 °C.
     B,
@@ -366,13 +367,16 @@ pub fn temp_c_from_measured(tc: TcType, measured_mv: f64, cj_temp_c: f64) -> Res
 }
 
 /// IEC 60584-1 tolerance classes for thermocouples (class 1 tightest).
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
 pub enum TcClass {
     /// Class 1.
+    #[serde(rename = "1")]
     One,
     /// Class 2.
+    #[serde(rename = "2")]
     Two,
     /// Class 3 (the low-temperature class for E, K, N and T; the wide one for B).
+    #[serde(rename = "3")]
     Three,
 }
 

@@ -384,3 +384,23 @@ fn levels_outside_the_range_extend_the_same_line() {
         1e-12
     ));
 }
+
+#[test]
+fn a_setup_can_be_stored_with_a_tag() {
+    // The tag register stores a level setup as JSON; it must read back unchanged.
+    let s = LevelSetup {
+        sg: 1.02,
+        min_m: 0.3,
+        max_m: 7.0,
+        mount: Mount::WetLeg {
+            tx_m: -0.4,
+            leg_m: 8.0,
+            fill_sg: 1.0,
+        },
+        ports_swapped: false,
+    };
+    let text = serde_json::to_string(&s).unwrap();
+    assert!(text.contains("\"mount\":\"wet-leg\""), "{text}");
+    let back: LevelSetup = serde_json::from_str(&text).unwrap();
+    assert_eq!(back, s);
+}
