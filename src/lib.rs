@@ -5,7 +5,14 @@
 //!
 //! - [`number`] — reading numbers as typed (`12,5`, `250 ohm`);
 //! - [`units`] — engineering units and NIST SP 811 factors;
-//! - [`error`] — the typed error every computation returns.
+//! - [`error`] — the typed error every computation returns;
+//! - [`scale`], [`signal`], [`budget`], [`wire`], [`resistor`] — the loop computations;
+//! - [`tag`] — one loop in the register; [`display`] — rounding for people;
+//! - [`cli`] — the command-line front (prints; not part of the pure core);
+//! - [`rtd`], [`thermocouple`] and [`level`] — what a temperature or DP level transmitter
+//!   should see for a given temperature or level.
+
+#![warn(missing_docs)]
 
 pub mod error;
 pub mod number;
@@ -17,10 +24,14 @@ pub mod cli;
 pub mod demo;
 pub mod display;
 pub mod journal;
+pub mod level;
 pub mod report;
 pub mod resistor;
+pub mod rtd;
 pub mod scale;
+pub mod sensor;
 pub mod signal;
 pub mod store;
 pub mod tag;
+pub mod thermocouple;
 pub mod wire;

@@ -245,7 +245,7 @@ mod tests {
     fn limits_out_of_order_are_refused() {
         let l = BandLimits {
             measure_low_ma: 3.5,
-            ..BandLimits::default()
+            ..Default::default()
         };
         let e = l.validate(&SignalSpan::default()).unwrap_err();
         assert_eq!(e.field, "measure_low_ma");

@@ -8,6 +8,7 @@
 //! written) exit with 1.
 
 mod calc;
+mod sensors;
 mod store;
 
 use crate::error::FieldError;
@@ -55,6 +56,12 @@ pub enum Command {
     Import(store::ImportArgs),
     /// Fill an empty store with the demo plant (Brindlemoor Water Reclamation Works).
     Demo(store::DemoArgs),
+    /// Platinum RTD (IEC 60751): resistance ↔ temperature, class tolerance, lead error.
+    Rtd(sensors::RtdArgs),
+    /// Thermocouple (NIST ITS-90): EMF ↔ temperature with cold-junction compensation.
+    Tc(sensors::TcArgs),
+    /// DP level transmitter ranging: LRV, URV, span, zero elevation or suppression.
+    Level(sensors::LevelArgs),
 }
 
 /// An error a subcommand reports: bad input (exit 2) or something else (exit 1).
@@ -95,6 +102,9 @@ pub fn run_command(command: Command, out: &mut dyn Write) -> CliResult {
         Command::Export(args) => store::export(args, out),
         Command::Import(args) => store::import(args, out),
         Command::Demo(args) => store::demo(args, out),
+        Command::Rtd(args) => sensors::rtd(args, out),
+        Command::Tc(args) => sensors::tc(args, out),
+        Command::Level(args) => sensors::level(args, out),
     }
 }
 
