@@ -402,12 +402,15 @@ fn tag_list(store: &FileStore, a: TagListArgs, out: &mut dyn Write) -> CliResult
     let lines: Vec<String> = tags
         .iter()
         .map(|t| {
+            // Pad by characters, not bytes, so units such as m³/h and °C line up.
+            let range = format!(
+                "{}..{} {}",
+                t.tag.scale.lrv, t.tag.scale.urv, t.tag.scale.unit
+            );
             format!(
-                "{:<12} {}..{} {:<6} {}{}",
-                t.tag.number,
-                t.tag.scale.lrv,
-                t.tag.scale.urv,
-                t.tag.scale.unit,
+                "{}  {}  {}{}",
+                pad(&t.tag.number, 12),
+                pad(&range, 16),
                 t.tag.service,
                 if t.tag.archived { " (archived)" } else { "" }
             )
@@ -887,4 +890,10 @@ pub(super) fn demo(args: DemoArgs, out: &mut dyn Write) -> CliResult {
             store.folder().display()
         )],
     )
+}
+
+/// `text` padded with spaces to `width` characters (not bytes).
+fn pad(text: &str, width: usize) -> String {
+    let n = text.chars().count();
+    format!("{text}{}", " ".repeat(width.saturating_sub(n)))
 }
