@@ -13,7 +13,10 @@ pub mod units;
 
 pub use error::{FieldError, Result};
 pub mod budget;
+pub mod caution;
+pub mod check;
 pub mod cli;
+pub mod diagnose;
 pub mod display;
 pub mod resistor;
 pub mod scale;

@@ -245,6 +245,17 @@ fn value_span(scale: &Scale) -> f64 {
     loopside budget --supply 24 --supply-tolerance 5 --min-volts 12 --load barrier=340 --drop indicator=2.5 --json\n\
     Name an element with NAME=VALUE so the verdict can say which one limits.")]
 pub struct BudgetArgs {
+    #[command(flatten)]
+    loop_args: LoopArgs,
+    /// Print one JSON object.
+    #[arg(long)]
+    json: bool,
+}
+
+/// A loop's power as given on the command line (shared by `budget`, `check` and
+/// `diagnose`).
+#[derive(Debug, Clone, Args)]
+pub struct LoopArgs {
     /// Nominal supply, V.
     #[arg(long, allow_hyphen_values = true, value_name = "V")]
     supply: String,
@@ -283,9 +294,6 @@ pub struct BudgetArgs {
     /// Upper end of the HART resistance window, Ω (default 1100).
     #[arg(long, allow_hyphen_values = true, value_name = "OHMS")]
     hart_max_ohms: Option<String>,
-    /// Print one JSON object.
-    #[arg(long)]
-    json: bool,
 }
 
 /// Split `NAME=VALUE` (or just `VALUE`) into a name and the number text.
@@ -310,8 +318,9 @@ pub(super) fn conductor_from(
     }
 }
 
-impl BudgetArgs {
-    fn loop_config(&self) -> Result<LoopConfig, FieldError> {
+impl LoopArgs {
+    /// Build the core loop configuration from the flags.
+    pub fn loop_config(&self) -> Result<LoopConfig, FieldError> {
         let supply = parse_in("supply", &self.supply, "V")?;
         let min_volts = parse_in("min-volts", &self.min_volts, "V")?;
         let mut config = LoopConfig::new(supply, min_volts);
@@ -382,7 +391,7 @@ impl BudgetArgs {
 }
 
 pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
-    let config = args.loop_config()?;
+    let config = args.loop_args.loop_config()?;
     let b = config.budget()?;
     if args.json {
         let obj = json!({

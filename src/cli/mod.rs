@@ -8,6 +8,7 @@
 //! written) exit with 1.
 
 mod calc;
+mod check;
 
 use crate::error::FieldError;
 use clap::{Parser, Subcommand};
@@ -42,6 +43,10 @@ pub enum Command {
     Status(calc::StatusArgs),
     /// Volts, power and reading error of a sense resistor.
     Resistor(calc::ResistorArgs),
+    /// Judge an as-found / as-left loop check: errors, hysteresis, verdict.
+    Check(check::CheckArgs),
+    /// Find a fault step by step from a symptom and your measurements.
+    Diagnose(check::DiagnoseArgs),
 }
 
 /// An error a subcommand reports: bad input (exit 2) or something else (exit 1).
@@ -77,6 +82,8 @@ pub fn run_command(command: Command, out: &mut dyn Write) -> CliResult {
         Command::Units(args) => calc::units(args, out),
         Command::Status(args) => calc::status(args, out),
         Command::Resistor(args) => calc::resistor(args, out),
+        Command::Check(args) => check::check(args, out),
+        Command::Diagnose(args) => check::diagnose(args, &mut std::io::stdin().lock(), out),
     }
 }
 
