@@ -172,7 +172,7 @@ fn check_text_and_markdown_output() {
     assert!(out.status.success());
     let text = String::from_utf8(out.stdout).unwrap();
     assert!(text.contains("FAIL"), "{text}");
-    assert!(text.contains("+0.63 %"), "0.1 mA of 16: {text}");
+    assert!(text.contains("+0.75 %"), "0.12 mA of 16: {text}");
     let mut md_args = args.to_vec();
     md_args.push("--markdown");
     let out = loopside(&md_args);
