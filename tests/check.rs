@@ -375,8 +375,16 @@ fn result_is_a_log_payload_and_a_markdown_table() {
     assert_eq!(json["stage"], "as-left");
     let back: CheckResult = serde_json::from_value(json).unwrap();
     assert_eq!(back.points.len(), r.points.len());
-    assert_eq!((back.pass, back.stage, back.date), (r.pass, r.stage, r.date));
-    close(back.max_error_pct, r.max_error_pct, 1e-12, "max error read back");
+    assert_eq!(
+        (back.pass, back.stage, back.date),
+        (r.pass, r.stage, r.date)
+    );
+    close(
+        back.max_error_pct,
+        r.max_error_pct,
+        1e-12,
+        "max error read back",
+    );
     close(back.points[6].measured, 12.036, 1e-12, "measured read back");
 
     let md = r.to_markdown();
@@ -395,7 +403,7 @@ fn result_is_a_log_payload_and_a_markdown_table() {
     );
     assert!(
         md.contains(
-            "| 7 | falling | 2.2500 m | 12.000 mA | 12.036 mA | +0.036 mA | +0.23 % | pass |"
+            "| 7 | falling | 2.2500 m | 12.000 mA | 12.036 mA | +0.036 mA | +0.22 % | pass |"
         ),
         "{md}"
     );

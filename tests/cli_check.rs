@@ -164,7 +164,7 @@ fn check_text_and_markdown_output() {
         "--applied",
         "0,5,10,5,0",
         "--measured",
-        "4,12.1,20,12,4",
+        "4,12.12,20,12,4",
         "--date",
         "2026-12-01",
     ];

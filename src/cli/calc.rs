@@ -17,10 +17,17 @@ use std::io::Write;
 #[derive(Debug, Clone, Args)]
 pub struct RangeArgs {
     /// Range as LRV..URV in the engineering unit (LRV > URV for a reversed range).
-    #[arg(long, allow_hyphen_values = true, value_name = "LRV..URV")]
+    // Not marked required, so that `check` and `diagnose` can make the whole group
+    // optional (a flattened `Option<RangeArgs>`); clap still refuses a missing one.
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "LRV..URV",
+        required = false
+    )]
     pub range: String,
     /// Engineering unit of the range (bar, m, °C, m³/h … or free text such as pH).
-    #[arg(long, value_name = "U")]
+    #[arg(long, value_name = "U", required = false)]
     pub unit: String,
     /// Square-root (DP flow) transfer.
     #[arg(long)]
@@ -246,25 +253,25 @@ fn value_span(scale: &Scale) -> f64 {
     Name an element with NAME=VALUE so the verdict can say which one limits.")]
 pub struct BudgetArgs {
     #[command(flatten)]
-    loop_args: LoopArgs,
+    pub(crate) loop_args: LoopArgs,
     /// Print one JSON object.
     #[arg(long)]
     json: bool,
 }
 
-/// A loop's power as given on the command line (shared by `budget`, `check` and
-/// `diagnose`).
+/// A loop's power configuration as given on the command line (shared by `budget`,
+/// `tag add` and `tag edit`).
 #[derive(Debug, Clone, Args)]
-pub struct LoopArgs {
+pub(crate) struct LoopArgs {
     /// Nominal supply, V.
     #[arg(long, allow_hyphen_values = true, value_name = "V")]
-    supply: String,
+    supply: Option<String>,
     /// How far the supply may sag below nominal, %.
     #[arg(long, allow_hyphen_values = true, value_name = "PCT")]
     supply_tolerance: Option<String>,
     /// Transmitter minimum terminal voltage (lift-off), V.
     #[arg(long, allow_hyphen_values = true, value_name = "V")]
-    min_volts: String,
+    min_volts: Option<String>,
     /// A resistive element in series, Ω (repeat; NAME=OHMS to name it).
     #[arg(long, allow_hyphen_values = true, value_name = "OHMS")]
     load: Vec<String>,
@@ -319,10 +326,34 @@ pub(super) fn conductor_from(
 }
 
 impl LoopArgs {
-    /// Build the core loop configuration from the flags.
-    pub fn loop_config(&self) -> Result<LoopConfig, FieldError> {
-        let supply = parse_in("supply", &self.supply, "V")?;
-        let min_volts = parse_in("min-volts", &self.min_volts, "V")?;
+    /// True when no loop option was given at all.
+    pub(crate) fn is_empty(&self) -> bool {
+        self.supply.is_none()
+            && self.supply_tolerance.is_none()
+            && self.min_volts.is_none()
+            && self.load.is_empty()
+            && self.drops.is_empty()
+            && self.cable_m.is_none()
+            && self.awg.is_none()
+            && self.mm2.is_none()
+            && self.temp_c.is_none()
+            && self.fault_ma.is_none()
+            && self.hart_max_ohms.is_none()
+    }
+
+    /// Build the loop from the flags; `--supply` and `--min-volts` are required.
+    pub(crate) fn loop_config(&self) -> Result<LoopConfig, FieldError> {
+        let supply = self.supply.as_deref().ok_or_else(|| {
+            FieldError::new("supply", "give the nominal loop supply with --supply V")
+        })?;
+        let min_volts = self.min_volts.as_deref().ok_or_else(|| {
+            FieldError::new(
+                "min-volts",
+                "give the transmitter minimum terminal voltage with --min-volts V",
+            )
+        })?;
+        let supply = parse_in("supply", supply, "V")?;
+        let min_volts = parse_in("min-volts", min_volts, "V")?;
         let mut config = LoopConfig::new(supply, min_volts);
         if let Some(t) = &self.supply_tolerance {
             config.supply_tolerance_percent = parse_in("supply-tolerance", t, "%")?;

@@ -29,7 +29,7 @@ pub struct TagArgs {
     #[command(flatten)]
     range: Option<RangeArgs>,
     #[command(flatten)]
-    loop_args: Option<LoopArgs>,
+    loop_args: LoopArgs,
     /// The transmitter talks HART.
     #[arg(long)]
     hart: bool,
@@ -55,8 +55,8 @@ impl TagArgs {
         };
         let number = self.tag.as_deref().unwrap_or("loop");
         let mut tag = Tag::new(number, range.scale()?)?;
-        if let Some(l) = &self.loop_args {
-            tag.loop_config = Some(l.loop_config()?);
+        if !self.loop_args.is_empty() {
+            tag.loop_config = Some(self.loop_args.loop_config()?);
         }
         tag.hart = self.hart;
         if let Some(t) = &self.tolerance {
