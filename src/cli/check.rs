@@ -185,8 +185,15 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
     if args.markdown {
         return write!(out, "{}", result.to_markdown()).map_err(super::io_failure);
     }
-    let mut lines: Vec<String> = result.to_markdown().lines().map(str::to_string).collect();
-    lines.retain(|l| !l.starts_with("|---"));
+    let mut lines: Vec<String> = CAUTIONS.iter().map(|c| format!("! {c}")).collect();
+    lines.push(String::new());
+    lines.extend(
+        result
+            .to_markdown()
+            .lines()
+            .filter(|l| !l.starts_with("|---"))
+            .map(str::to_string),
+    );
     print_lines(out, &lines)
 }
 
