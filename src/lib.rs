@@ -8,7 +8,9 @@
 //! - [`error`] — the typed error every computation returns;
 //! - [`scale`], [`signal`], [`budget`], [`wire`], [`resistor`] — the loop computations;
 //! - [`tag`] — one loop in the register; [`display`] — rounding for people;
-//! - [`cli`] — the command-line front (prints; not part of the pure core).
+//! - [`cli`] — the command-line front (prints; not part of the pure core);
+//! - [`rtd`], [`thermocouple`] and [`level`] — what a temperature or DP level transmitter
+//!   should see for a given temperature or level.
 
 #![warn(missing_docs)]
 
@@ -23,8 +25,11 @@ pub mod check;
 pub mod cli;
 pub mod diagnose;
 pub mod display;
+pub mod level;
 pub mod resistor;
+pub mod rtd;
 pub mod scale;
 pub mod signal;
 pub mod tag;
+pub mod thermocouple;
 pub mod wire;
