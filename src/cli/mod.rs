@@ -8,8 +8,8 @@
 //! written) exit with 1.
 
 mod calc;
-mod sensors;
 mod check;
+mod sensors;
 
 use crate::error::FieldError;
 use clap::{Parser, Subcommand};
