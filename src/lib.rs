@@ -29,6 +29,7 @@ pub mod level;
 pub mod resistor;
 pub mod rtd;
 pub mod scale;
+pub mod sensor;
 pub mod signal;
 pub mod tag;
 pub mod thermocouple;

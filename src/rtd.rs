@@ -179,7 +179,8 @@ impl Rtd {
         let r = finite("ohms", ohms)?;
         let (low, high) = self.ohms_range();
         // Accept values up to half a table step (0.005 Ω on a Pt100) beyond the ends, so
-        // the table's 18.52 Ω for −200 °C reads back (as −200.0004 °C) instead of failing.
+        // the table's 18.52 Ω for −200 °C reads back as the range end instead of failing;
+        // the answer is clamped to −200…850 °C so later steps (slope, class) accept it.
         let slack = 5e-5 * self.r0_ohms;
         if r < low - slack || r > high + slack {
             return Err(FieldError::new(
@@ -196,7 +197,7 @@ impl Rtd {
         let ratio = r / self.r0_ohms;
         let quadratic = quadratic_root(ratio);
         if ratio >= 1.0 {
-            return Ok(quadratic);
+            return Ok(quadratic.min(RTD_MAX_TEMP_C));
         }
         // Below 0 °C: start from the quadratic root (within 0.1 °C of the answer) and let
         // Newton add the C term.
@@ -205,7 +206,7 @@ impl Rtd {
             let step = (cvd_ratio(t) - ratio) / cvd_ratio_slope(t);
             t -= step;
             if step.abs() < NEWTON_TOLERANCE_C {
-                return Ok(t.min(0.0));
+                return Ok(t.clamp(RTD_MIN_TEMP_C, 0.0));
             }
         }
         Err(FieldError::new(

@@ -15,9 +15,9 @@
 //!   and refuses EMFs outside the range NIST publishes it for; it reports the polynomial's
 //!   published error band with the result.
 //!
-//! The coefficient tables live in [`its90`].
+//! The coefficient tables live in `thermocouple/its90.rs`.
 
-pub mod its90;
+mod its90;
 
 use std::fmt;
 use std::str::FromStr;
