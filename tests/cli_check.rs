@@ -220,8 +220,13 @@ fn check_refuses_bad_input_with_one_line_naming_the_field() {
         "0,4.5",
         "--measured",
         "4,20",
+        "--data-dir",
+        std::env::temp_dir()
+            .join(format!("loopside-cli-check-empty-{}", std::process::id()))
+            .to_str()
+            .unwrap(),
     ]);
-    assert!(e.contains("--range"), "{e}");
+    assert!(e.contains("LT-101") && e.contains("register"), "{e}");
 }
 
 #[test]
@@ -442,4 +447,96 @@ fn diagnose_with_a_plant_procedure_file() {
     ]);
     assert_eq!(j["conclusion"]["step"], "dry");
     assert_eq!(j["procedure"], "wet-well-jb3");
+}
+
+#[test]
+fn check_and_diagnose_read_the_tag_from_the_register_and_save_to_its_log() {
+    let dir = std::env::temp_dir().join(format!("loopside-cli-check-store-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    let d = dir.to_str().unwrap();
+    let out = loopside(&[
+        "tag",
+        "add",
+        "LT-101",
+        "--range",
+        "0..4,5",
+        "--unit",
+        "m",
+        "--supply",
+        "24",
+        "--min-volts",
+        "10,5",
+        "--load",
+        "PLC input=250",
+        "--data-dir",
+        d,
+    ]);
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    // The range and tolerance come from the register: 2.25 m is 12 mA; 0.01 mA = 0.0625 %.
+    let j = loopside_json(&[
+        "check",
+        "--tag",
+        "LT-101",
+        "--data-dir",
+        d,
+        "--device",
+        "transmitter",
+        "--applied",
+        "0,2.25,4.5",
+        "--measured",
+        "4,12.01,20",
+        "--save",
+        "--json",
+    ]);
+    close(
+        j["max_error_pct"].as_f64().unwrap(),
+        0.0625,
+        1e-9,
+        "from the register",
+    );
+    assert!(j["saved"].is_string(), "{j}");
+    let answers = temp_file(
+        "open.json",
+        r#"{"tx_ma": 0, "supply_v": 24, "terminal_v": 0.1}"#,
+    );
+    let j = loopside_json(&[
+        "diagnose",
+        "--tag",
+        "LT-101",
+        "--data-dir",
+        d,
+        "--symptom",
+        "stuck-low",
+        "--answers",
+        answers.to_str().unwrap(),
+        "--save",
+        "--json",
+    ]);
+    assert_eq!(j["conclusion"]["step"], "open-wiring");
+    assert!(j["saved"].is_string());
+    let out = loopside(&["note", "list", "--data-dir", d]);
+    let text = String::from_utf8(out.stdout).unwrap();
+    assert!(
+        text.contains("loop-check") && text.contains("fault-finding"),
+        "{text}"
+    );
+    let e = loopside_refuses(&[
+        "check",
+        "--tag",
+        "PT-999",
+        "--data-dir",
+        d,
+        "--device",
+        "transmitter",
+        "--applied",
+        "0,10",
+        "--measured",
+        "4,20",
+    ]);
+    assert!(e.contains("PT-999"), "{e}");
+    let _ = std::fs::remove_dir_all(&dir);
 }

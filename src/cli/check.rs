@@ -14,18 +14,25 @@ use crate::diagnose::procedure::{self, Procedure, StepKind};
 use crate::diagnose::session::{Answer, AnswerSheet, Progress, Session};
 use crate::diagnose::Settings;
 use crate::error::FieldError;
+use crate::journal::{Entry, Kind};
 use crate::number::{parse_in, parse_list, parse_quantity, parse_range};
+use crate::store::Store;
 use crate::tag::Tag;
 use chrono::NaiveDate;
 use clap::Args;
 use std::io::{BufRead, Write};
 
-/// Which tag to work on: a number, and (until the register is reachable) its range and loop.
+/// Which tag to work on: a number from the register, or a range (and loop) given inline.
 #[derive(Debug, Args)]
 pub struct TagArgs {
-    /// Tag number, e.g. LT-101.
+    /// Tag number, e.g. LT-101: read from the register unless --range is given.
     #[arg(long, value_name = "NUMBER")]
     tag: Option<String>,
+    #[command(flatten)]
+    data: super::store::DataArgs,
+    /// Save the result to the tag's log (needs --tag of a tag in the register).
+    #[arg(long, requires = "tag")]
+    save: bool,
     #[command(flatten)]
     range: Option<RangeArgs>,
     #[command(flatten)]
@@ -39,19 +46,26 @@ pub struct TagArgs {
 }
 
 impl TagArgs {
-    /// The tag these flags describe.
+    /// The tag these flags describe: from the register when only --tag is given.
     fn tag(&self) -> Result<Tag, CliError> {
         let Some(range) = &self.range else {
-            return Err(CliError::Input(FieldError::new(
-                "tag",
-                match &self.tag {
-                    Some(n) => format!(
-                        "the tag register cannot be read from the command line yet; give {}'s range with --range LRV..URV --unit U",
-                        n.trim()
-                    ),
-                    None => "give the tag's range with --range LRV..URV --unit U".to_string(),
-                },
-            )));
+            let Some(number) = &self.tag else {
+                return Err(CliError::Input(FieldError::new(
+                    "tag",
+                    "give --tag NUMBER of a tag in the register, or the range with --range LRV..URV --unit U",
+                )));
+            };
+            let store = self.data.open()?;
+            let mut tag = store
+                .require_tag(number)
+                .map_err(super::store::store_error)?
+                .tag
+                .clone();
+            if let Some(t) = &self.tolerance {
+                tag.tolerance_percent = parse_in("tolerance", t, "%")?;
+            }
+            tag.validate()?;
+            return Ok(tag);
         };
         let number = self.tag.as_deref().unwrap_or("loop");
         let mut tag = Tag::new(number, range.scale()?)?;
@@ -131,6 +145,29 @@ pub struct CheckArgs {
     json: bool,
 }
 
+/// Save `payload` to the tag's log as an entry of `kind`; returns the entry id.
+fn save_entry(
+    which: &TagArgs,
+    kind: Kind,
+    text: &str,
+    payload: serde_json::Value,
+) -> Result<String, CliError> {
+    let number = which
+        .tag
+        .as_deref()
+        .ok_or_else(|| FieldError::new("tag", "--save needs --tag NUMBER"))?;
+    let mut store = which.data.open()?;
+    let id = store
+        .require_tag(number)
+        .map_err(super::store::store_error)?
+        .id
+        .clone();
+    let mut entry = Entry::new(&id, chrono::Local::now().fixed_offset(), "", kind, text)?;
+    entry.payload = Some(payload);
+    let saved = store.append(entry).map_err(super::store::store_error)?;
+    Ok(saved.to_string())
+}
+
 fn parse_date(field: &str, text: &str) -> Result<NaiveDate, FieldError> {
     NaiveDate::parse_from_str(text.trim(), "%Y-%m-%d").map_err(|_| {
         FieldError::new(
@@ -178,8 +215,27 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
     let applied = parse_list("applied", &args.applied)?;
     let measured = parse_list("measured", &args.measured)?;
     let result = check.run(&applied, &measured)?;
+    let mut value = serde_json::to_value(&result).map_err(|e| CliError::Failure(e.to_string()))?;
+    let saved = if args.which.save {
+        let text = format!(
+            "{} check, {}: {}",
+            result.device.as_str(),
+            result.stage.label(),
+            result.summary()
+        );
+        Some(save_entry(
+            &args.which,
+            Kind::LoopCheck,
+            &text,
+            value.clone(),
+        )?)
+    } else {
+        None
+    };
     if args.json {
-        let value = serde_json::to_value(&result).map_err(|e| CliError::Failure(e.to_string()))?;
+        if let Some(id) = &saved {
+            value["saved"] = serde_json::json!(id);
+        }
         return print_json(out, &value);
     }
     if args.markdown {
@@ -194,6 +250,9 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
             .filter(|l| !l.starts_with("|---"))
             .map(str::to_string),
     );
+    if let Some(id) = saved {
+        lines.push(format!("saved to the log as {id}"));
+    }
     print_lines(out, &lines)
 }
 
@@ -297,8 +356,25 @@ pub(super) fn diagnose(
         }
         None => interactive(&mut session, &procedure, &tag, input, out, !args.json)?,
     }
+    let mut value = serde_json::to_value(&session).map_err(|e| CliError::Failure(e.to_string()))?;
+    let saved = if args.which.save {
+        let text = match &session.conclusion {
+            Some(c) => format!("{}: {}", procedure.title, c.text),
+            None => format!("{}: not finished", procedure.title),
+        };
+        Some(save_entry(
+            &args.which,
+            Kind::FaultFinding,
+            &text,
+            value.clone(),
+        )?)
+    } else {
+        None
+    };
     if args.json {
-        let value = serde_json::to_value(&session).map_err(|e| CliError::Failure(e.to_string()))?;
+        if let Some(id) = &saved {
+            value["saved"] = serde_json::json!(id);
+        }
         return print_json(out, &value);
     }
     let mut lines = Vec::new();
@@ -308,6 +384,9 @@ pub(super) fn diagnose(
         lines.push(String::new());
     }
     lines.extend(report_lines(&session));
+    if let Some(id) = saved {
+        lines.push(format!("saved to the log as {id}"));
+    }
     print_lines(out, &lines)
 }
 
