@@ -1,9 +1,9 @@
 //! The `check` and `diagnose` subcommands: loop checks and guided fault-finding.
 //!
-//! Both work on one tag. Until the tag register is reachable from the command line, the
-//! tag is given inline with the same range and loop flags as `convert` and `budget`
-//! (`--range 0..10 --unit bar --supply 24 --min-volts 10,5 --load 250`); `--tag` then only
-//! names it.
+//! Both work on one tag: read from the register (`--tag LT-101`, `--data-dir DIR`), or
+//! given inline with the same range and loop flags as `convert` and `budget`
+//! (`--range 0..10 --unit bar --supply 24 --min-volts 10,5 --load 250`; `--tag` then only
+//! names it). `--save` writes the result to the tag's log.
 
 use super::calc::{LoopArgs, RangeArgs};
 use super::{print_json, print_lines, CliError, CliResult};
