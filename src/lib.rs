@@ -20,8 +20,11 @@ pub mod units;
 
 pub use error::{FieldError, Result};
 pub mod budget;
+pub mod caution;
+pub mod check;
 pub mod cli;
 pub mod demo;
+pub mod diagnose;
 pub mod display;
 pub mod journal;
 pub mod level;

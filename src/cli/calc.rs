@@ -17,10 +17,17 @@ use std::io::Write;
 #[derive(Debug, Clone, Args)]
 pub struct RangeArgs {
     /// Range as LRV..URV in the engineering unit (LRV > URV for a reversed range).
-    #[arg(long, allow_hyphen_values = true, value_name = "LRV..URV")]
+    // Not marked required, so that `check` and `diagnose` can make the whole group
+    // optional (a flattened `Option<RangeArgs>`); clap still refuses a missing one.
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "LRV..URV",
+        required = false
+    )]
     pub range: String,
     /// Engineering unit of the range (bar, m, °C, m³/h … or free text such as pH).
-    #[arg(long, value_name = "U")]
+    #[arg(long, value_name = "U", required = false)]
     pub unit: String,
     /// Square-root (DP flow) transfer.
     #[arg(long)]

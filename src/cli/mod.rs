@@ -8,6 +8,7 @@
 //! written) exit with 1.
 
 mod calc;
+mod check;
 mod sensors;
 mod store;
 
@@ -62,6 +63,10 @@ pub enum Command {
     Tc(sensors::TcArgs),
     /// DP level transmitter ranging: LRV, URV, span, zero elevation or suppression.
     Level(sensors::LevelArgs),
+    /// Judge an as-found / as-left loop check: errors, hysteresis, verdict.
+    Check(check::CheckArgs),
+    /// Find a fault step by step from a symptom and your measurements.
+    Diagnose(check::DiagnoseArgs),
 }
 
 /// An error a subcommand reports: bad input (exit 2) or something else (exit 1).
@@ -105,6 +110,8 @@ pub fn run_command(command: Command, out: &mut dyn Write) -> CliResult {
         Command::Rtd(args) => sensors::rtd(args, out),
         Command::Tc(args) => sensors::tc(args, out),
         Command::Level(args) => sensors::level(args, out),
+        Command::Check(args) => check::check(args, out),
+        Command::Diagnose(args) => check::diagnose(args, &mut std::io::stdin().lock(), out),
     }
 }
 

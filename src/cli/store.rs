@@ -48,7 +48,8 @@ impl DataArgs {
             })
     }
 
-    fn open(&self) -> Result<FileStore, CliError> {
+    /// Open the data folder's store, reporting any recovery on stderr.
+    pub(crate) fn open(&self) -> Result<FileStore, CliError> {
         let store = FileStore::open(&self.folder()?).map_err(store_error)?;
         for r in store.recoveries() {
             eprintln!("warning: {}", r.message);
@@ -57,7 +58,8 @@ impl DataArgs {
     }
 }
 
-fn store_error(e: StoreError) -> CliError {
+/// A store error as a CLI error: bad input exits 2, the rest 1.
+pub(crate) fn store_error(e: StoreError) -> CliError {
     match e {
         StoreError::Input(f) => CliError::Input(f),
         other => CliError::Failure(other.to_string()),

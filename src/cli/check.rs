@@ -1,0 +1,534 @@
+//! The `check` and `diagnose` subcommands: loop checks and guided fault-finding.
+//!
+//! Both work on one tag: read from the register (`--tag LT-101`, `--data-dir DIR`), or
+//! given inline with the same range and loop flags as `convert` and `budget`
+//! (`--range 0..10 --unit bar --supply 24 --min-volts 10,5 --load 250`; `--tag` then only
+//! names it). `--save` writes the result to the tag's log.
+
+use super::calc::{LoopArgs, RangeArgs};
+use super::{print_json, print_lines, CliError, CliResult};
+use crate::caution::CAUTIONS;
+use crate::check::{Accuracy, Device, InputRange, LoopCheck, ReferenceInstrument, Stage};
+use crate::diagnose::measure::Measurement;
+use crate::diagnose::procedure::{self, Procedure, StepKind};
+use crate::diagnose::session::{Answer, AnswerSheet, Progress, Session};
+use crate::diagnose::Settings;
+use crate::error::FieldError;
+use crate::journal::{Entry, Kind};
+use crate::number::{parse_in, parse_list, parse_quantity, parse_range};
+use crate::store::Store;
+use crate::tag::Tag;
+use chrono::NaiveDate;
+use clap::Args;
+use std::io::{BufRead, Write};
+
+/// Which tag to work on: a number from the register, or a range (and loop) given inline.
+#[derive(Debug, Args)]
+pub struct TagArgs {
+    /// Tag number, e.g. LT-101: read from the register unless --range is given.
+    #[arg(long, value_name = "NUMBER")]
+    tag: Option<String>,
+    #[command(flatten)]
+    data: super::store::DataArgs,
+    /// Save the result to the tag's log (needs --tag of a tag in the register).
+    #[arg(long, requires = "tag")]
+    save: bool,
+    #[command(flatten)]
+    range: Option<RangeArgs>,
+    #[command(flatten)]
+    loop_args: LoopArgs,
+    /// The transmitter talks HART.
+    #[arg(long)]
+    hart: bool,
+    /// Acceptance tolerance, ± % of span (default: the tag's, else 0.5).
+    #[arg(long, allow_hyphen_values = true, value_name = "PCT")]
+    tolerance: Option<String>,
+}
+
+impl TagArgs {
+    /// The tag these flags describe: from the register when only --tag is given.
+    fn tag(&self) -> Result<Tag, CliError> {
+        let Some(range) = &self.range else {
+            let Some(number) = &self.tag else {
+                return Err(CliError::Input(FieldError::new(
+                    "tag",
+                    "give --tag NUMBER of a tag in the register, or the range with --range LRV..URV --unit U",
+                )));
+            };
+            let store = self.data.open()?;
+            let mut tag = store
+                .require_tag(number)
+                .map_err(super::store::store_error)?
+                .tag
+                .clone();
+            if let Some(t) = &self.tolerance {
+                tag.tolerance_percent = parse_in("tolerance", t, "%")?;
+            }
+            tag.validate()?;
+            return Ok(tag);
+        };
+        let number = self.tag.as_deref().unwrap_or("loop");
+        let mut tag = Tag::new(number, range.scale()?)?;
+        if !self.loop_args.is_empty() {
+            tag.loop_config = Some(self.loop_args.loop_config()?);
+        }
+        tag.hart = self.hart;
+        if let Some(t) = &self.tolerance {
+            tag.tolerance_percent = parse_in("tolerance", t, "%")?;
+        }
+        tag.validate()?;
+        Ok(tag)
+    }
+}
+
+/// `loopside check`
+#[derive(Debug, Args)]
+#[command(after_help = "Examples:\n  \
+    loopside check --tag PT-204 --range 0..10 --unit bar --device transmitter \\\n    \
+    --applied 0,2.5,5,7.5,10,7.5,5,2.5,0 --measured 4.01,8.02,12.03,16.02,20.01,16.04,12.05,8.03,4.02\n  \
+    loopside check --range 0..4,5 --unit m --device receiver --applied \"4;12;20\" --measured \"0,00;2,26;4,50\" --json\n\
+    Lists are in test order, rising then falling; use ';' between items to write decimal commas.")]
+pub struct CheckArgs {
+    #[command(flatten)]
+    which: TagArgs,
+    /// transmitter: apply engineering values, read mA; receiver: inject mA, read the display.
+    #[arg(long, value_parser = ["transmitter", "receiver"])]
+    device: String,
+    /// What was applied at each point (engineering values, or mA for a receiver).
+    #[arg(long, allow_hyphen_values = true, value_name = "LIST")]
+    applied: String,
+    /// What was read at each point (mA, or displayed values for a receiver).
+    #[arg(long, allow_hyphen_values = true, value_name = "LIST")]
+    measured: String,
+    /// as-found (default) or as-left.
+    #[arg(long, value_parser = ["as-found", "as-left"])]
+    stage: Option<String>,
+    /// An adjustment was made during this visit.
+    #[arg(long)]
+    adjusted: bool,
+    /// A note for the record.
+    #[arg(long, value_name = "TEXT")]
+    note: Option<String>,
+    /// Reference instrument id (asset number).
+    #[arg(long, value_name = "ID", requires_all = ["reference_accuracy", "reference_due"])]
+    reference_id: Option<String>,
+    /// Reference accuracy: ± % of span (plain number or with %), or with a unit (0.004 mA, 0.5 mbar).
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "ACC",
+        requires = "reference_id"
+    )]
+    reference_accuracy: Option<String>,
+    /// Date the reference's calibration falls due, YYYY-MM-DD.
+    #[arg(long, value_name = "DATE", requires = "reference_id")]
+    reference_due: Option<String>,
+    /// Date of the check, YYYY-MM-DD (default today).
+    #[arg(long, value_name = "DATE")]
+    date: Option<String>,
+    /// ΔP range of a square-root transmitter, LRV..URV (applied values are then ΔP).
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "LRV..URV",
+        requires = "input_unit"
+    )]
+    input_range: Option<String>,
+    /// Unit of --input-range.
+    #[arg(long, value_name = "U", requires = "input_range")]
+    input_unit: Option<String>,
+    /// Print the table as Markdown (for a report).
+    #[arg(long, conflicts_with = "json")]
+    markdown: bool,
+    /// Print one JSON object.
+    #[arg(long)]
+    json: bool,
+}
+
+/// Save `payload` to the tag's log as an entry of `kind`; returns the entry id.
+fn save_entry(
+    which: &TagArgs,
+    kind: Kind,
+    text: &str,
+    payload: serde_json::Value,
+) -> Result<String, CliError> {
+    let number = which
+        .tag
+        .as_deref()
+        .ok_or_else(|| FieldError::new("tag", "--save needs --tag NUMBER"))?;
+    let mut store = which.data.open()?;
+    let id = store
+        .require_tag(number)
+        .map_err(super::store::store_error)?
+        .id
+        .clone();
+    let mut entry = Entry::new(&id, chrono::Local::now().fixed_offset(), "", kind, text)?;
+    entry.payload = Some(payload);
+    let saved = store.append(entry).map_err(super::store::store_error)?;
+    Ok(saved.to_string())
+}
+
+fn parse_date(field: &str, text: &str) -> Result<NaiveDate, FieldError> {
+    NaiveDate::parse_from_str(text.trim(), "%Y-%m-%d").map_err(|_| {
+        FieldError::new(
+            field,
+            format!("'{}' is not a date; write it as YYYY-MM-DD", text.trim()),
+        )
+    })
+}
+
+pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
+    let tag = args.which.tag()?;
+    let device = Device::parse(&args.device)?;
+    let date = match &args.date {
+        Some(d) => parse_date("date", d)?,
+        None => chrono::Local::now().date_naive(),
+    };
+    let mut check = LoopCheck::for_tag(&tag, device, date)
+        .stage(Stage::parse(args.stage.as_deref().unwrap_or("as-found"))?)
+        .adjusted(args.adjusted);
+    if args.which.tag.is_none() {
+        check = check.tag_number("");
+    }
+    if let Some(n) = &args.note {
+        check = check.note(n);
+    }
+    if let (Some(text), Some(unit)) = (&args.input_range, &args.input_unit) {
+        let (lrv, urv) = parse_range("input-range", text)?;
+        check = check.input_range(InputRange {
+            lrv,
+            urv,
+            unit: unit.trim().to_string(),
+        });
+    }
+    if let (Some(id), Some(acc), Some(due)) = (
+        &args.reference_id,
+        &args.reference_accuracy,
+        &args.reference_due,
+    ) {
+        check = check.reference(ReferenceInstrument {
+            id: id.trim().to_string(),
+            accuracy: parse_accuracy(acc, &tag, args.input_unit.as_deref())?,
+            calibration_due: parse_date("reference-due", due)?,
+        });
+    }
+    let applied = parse_list("applied", &args.applied)?;
+    let measured = parse_list("measured", &args.measured)?;
+    let result = check.run(&applied, &measured)?;
+    let mut value = serde_json::to_value(&result).map_err(|e| CliError::Failure(e.to_string()))?;
+    let saved = if args.which.save {
+        let text = format!(
+            "{} check, {}: {}",
+            result.device.as_str(),
+            result.stage.label(),
+            result.summary()
+        );
+        Some(save_entry(
+            &args.which,
+            Kind::LoopCheck,
+            &text,
+            value.clone(),
+        )?)
+    } else {
+        None
+    };
+    if args.json {
+        if let Some(id) = &saved {
+            value["saved"] = serde_json::json!(id);
+        }
+        return print_json(out, &value);
+    }
+    if args.markdown {
+        return write!(out, "{}", result.to_markdown()).map_err(super::io_failure);
+    }
+    let mut lines: Vec<String> = CAUTIONS.iter().map(|c| format!("! {c}")).collect();
+    lines.push(String::new());
+    lines.extend(
+        result
+            .to_markdown()
+            .lines()
+            .filter(|l| !l.starts_with("|---"))
+            .map(str::to_string),
+    );
+    if let Some(id) = saved {
+        lines.push(format!("saved to the log as {id}"));
+    }
+    print_lines(out, &lines)
+}
+
+/// Read a reference accuracy: a plain number or `%` is % of span; mA is mA; another unit
+/// of the tag's quantity is converted into the range (or input) unit.
+fn parse_accuracy(text: &str, tag: &Tag, input_unit: Option<&str>) -> Result<Accuracy, FieldError> {
+    let field = "reference-accuracy";
+    let (value, unit) = parse_quantity(field, text)?;
+    let value = value.abs();
+    Ok(match unit {
+        None => Accuracy::PercentOfSpan(value),
+        Some(u) if u.symbol == "%" => Accuracy::PercentOfSpan(value),
+        Some(u) if u.symbol == "mA" => Accuracy::Ma(value),
+        Some(u) if u.symbol == "A" => Accuracy::Ma(value * 1000.0),
+        Some(u) => {
+            let target = input_unit.unwrap_or(&tag.scale.unit);
+            let to = crate::units::lookup(target).ok_or_else(|| {
+                FieldError::new(
+                    field,
+                    format!(
+                        "give it in % of span or mA; the range unit '{target}' cannot be converted"
+                    ),
+                )
+            })?;
+            let zero = crate::units::convert_units(0.0, u, to).map_err(|e| e.renamed(field))?;
+            let v = crate::units::convert_units(value, u, to).map_err(|e| e.renamed(field))?;
+            Accuracy::Units((v - zero).abs())
+        }
+    })
+}
+
+/// `loopside diagnose`
+#[derive(Debug, Args)]
+#[command(
+    after_help = "Symptoms: stuck-low, pegged-high, steady-wrong, short-of-top, noisy, disagree, hart-no-answer.\n\
+Examples:\n  \
+    loopside diagnose --tag LT-101 --range 0..4,5 --unit m --supply 24 --min-volts 10,5 --load \"PLC input=250\" --symptom stuck-low\n  \
+    loopside diagnose --range 0..16 --unit bar --symptom steady-wrong --answers answers.json --json\n\
+An answers file is one JSON object: measurement keys (tx_ma, rx_ma, supply_v, terminal_v, resistor_v, resistor_ohms,\n\
+loop_ohms, shield_ac_v, swing_ma, displayed, control_value, process_value) with numbers, and question step ids with yes/no."
+)]
+pub struct DiagnoseArgs {
+    #[command(flatten)]
+    which: TagArgs,
+    /// The symptom (or procedure id).
+    #[arg(long, value_name = "NAME")]
+    symptom: String,
+    /// Answer from a JSON file instead of asking on the terminal.
+    #[arg(long, value_name = "FILE")]
+    answers: Option<std::path::PathBuf>,
+    /// A plant's own procedure file (repeatable); searched before the built-in ones.
+    #[arg(long, value_name = "FILE")]
+    procedure: Vec<std::path::PathBuf>,
+    /// Allowance between two mA readings, mA (default 0.05).
+    #[arg(long, allow_hyphen_values = true, value_name = "MA")]
+    meter_tolerance: Option<String>,
+    /// Print the session (steps, measurements, findings, conclusion) as one JSON object.
+    #[arg(long)]
+    json: bool,
+}
+
+fn read_file(field: &str, path: &std::path::Path) -> Result<String, CliError> {
+    std::fs::read_to_string(path).map_err(|e| {
+        CliError::Input(FieldError::new(
+            field,
+            format!("cannot read {}: {e}", path.display()),
+        ))
+    })
+}
+
+pub(super) fn diagnose(
+    args: DiagnoseArgs,
+    input: &mut dyn BufRead,
+    out: &mut dyn Write,
+) -> CliResult {
+    let tag = args.which.tag()?;
+    let mut extra = Vec::new();
+    for path in &args.procedure {
+        let text = read_file("procedure", path)?;
+        extra.push(Procedure::from_json(&text).map_err(|e| {
+            FieldError::new(
+                format!("procedure {}: {}", path.display(), e.field),
+                e.reason,
+            )
+        })?);
+    }
+    let procedure = procedure::find(&args.symptom, &extra)?;
+    let mut settings = Settings::default();
+    if let Some(t) = &args.meter_tolerance {
+        settings.meter_tolerance_ma = parse_in("meter-tolerance", t, "mA")?;
+    }
+    settings.validate()?;
+    let mut session = Session::start_with(&procedure, &tag, settings);
+    match &args.answers {
+        Some(path) => {
+            let sheet = AnswerSheet::from_json(&read_file("answers", path)?, &tag)?;
+            if let Progress::Next(id) = session.run_sheet(&procedure, &tag, &sheet)? {
+                let missing = missing_answer(&session, &procedure, &id, &tag);
+                return Err(CliError::Input(FieldError::new("answers", missing)));
+            }
+        }
+        None => interactive(&mut session, &procedure, &tag, input, out, !args.json)?,
+    }
+    let mut value = serde_json::to_value(&session).map_err(|e| CliError::Failure(e.to_string()))?;
+    let saved = if args.which.save {
+        let text = match &session.conclusion {
+            Some(c) => format!("{}: {}", procedure.title, c.text),
+            None => format!("{}: not finished", procedure.title),
+        };
+        Some(save_entry(
+            &args.which,
+            Kind::FaultFinding,
+            &text,
+            value.clone(),
+        )?)
+    } else {
+        None
+    };
+    if args.json {
+        if let Some(id) = &saved {
+            value["saved"] = serde_json::json!(id);
+        }
+        return print_json(out, &value);
+    }
+    let mut lines = Vec::new();
+    if args.answers.is_some() {
+        lines.push(format!("{} — {}", procedure.title, tag.number));
+        lines.extend(CAUTIONS.iter().map(|c| format!("! {c}")));
+        lines.push(String::new());
+    }
+    lines.extend(report_lines(&session));
+    if let Some(id) = saved {
+        lines.push(format!("saved to the log as {id}"));
+    }
+    print_lines(out, &lines)
+}
+
+fn missing_answer(session: &Session, procedure: &Procedure, id: &str, tag: &Tag) -> String {
+    match procedure.step(id).map(|s| &s.kind) {
+        Some(StepKind::Question { question, .. }) => {
+            format!("no yes/no answer for step '{id}' ({question})")
+        }
+        _ => {
+            let pending = session.pending(procedure);
+            let list: Vec<String> = pending
+                .iter()
+                .map(|m| format!("'{}' ({}, {})", m.key(), m.label(), m.unit(tag)))
+                .collect();
+            format!("step '{id}' needs {}", list.join(" and "))
+        }
+    }
+}
+
+fn report_lines(session: &Session) -> Vec<String> {
+    let mut lines = vec!["Findings:".to_string()];
+    for f in &session.findings {
+        lines.push(format!("- [{}] {}", f.step, f.text));
+    }
+    if let Some(c) = &session.conclusion {
+        lines.push(String::new());
+        lines.push(format!("Conclusion: {}", c.text));
+    }
+    if !session.technician_conclusion.is_empty() {
+        lines.push(format!("Technician: {}", session.technician_conclusion));
+    }
+    lines
+}
+
+fn prompt(out: &mut dyn Write, text: &str) -> CliResult {
+    write!(out, "{text}").map_err(super::io_failure)?;
+    out.flush().map_err(super::io_failure)
+}
+
+fn read_answer(input: &mut dyn BufRead) -> Result<String, CliError> {
+    let mut line = String::new();
+    let n = input
+        .read_line(&mut line)
+        .map_err(|e| CliError::Failure(format!("cannot read the answer: {e}")))?;
+    if n == 0 {
+        return Err(CliError::Input(FieldError::new(
+            "input",
+            "ended before the procedure reached a conclusion; run again, or use --answers FILE",
+        )));
+    }
+    Ok(line.trim().to_string())
+}
+
+/// Ask on the terminal until the procedure concludes. Bad answers are explained and asked
+/// again; the end of input stops with an error.
+fn interactive(
+    session: &mut Session,
+    procedure: &Procedure,
+    tag: &Tag,
+    input: &mut dyn BufRead,
+    out: &mut dyn Write,
+    show_findings: bool,
+) -> CliResult {
+    let mut lines = vec![
+        format!("{} — {}", procedure.title, tag.number),
+        String::new(),
+    ];
+    lines.push("Before you start:".to_string());
+    lines.extend(CAUTIONS.iter().map(|c| format!("! {c}")));
+    print_lines(out, &lines)?;
+    let mut shown = 0;
+    while let Some(step) = session.current_step(procedure) {
+        print_lines(out, &[String::new(), format!("» {}", step.instruction)])?;
+        let answer = match &step.kind {
+            StepKind::Question { question, .. } => loop {
+                prompt(out, &format!("  {question} (yes/no): "))?;
+                match read_answer(input)?.to_lowercase().as_str() {
+                    "y" | "yes" => break Answer::YesNo(true),
+                    "n" | "no" => break Answer::YesNo(false),
+                    _ => print_lines(out, &["  Please answer yes or no.".to_string()])?,
+                }
+            },
+            StepKind::Measure { .. } => {
+                let mut values = std::collections::BTreeMap::new();
+                for m in session.pending(procedure) {
+                    let v = ask_value(m, tag, input, out)?;
+                    values.insert(m, v);
+                }
+                Answer::Values(values)
+            }
+            StepKind::Conclusion { .. } => break,
+        };
+        session.answer(procedure, tag, answer)?;
+        if show_findings {
+            let new: Vec<String> = session.findings[shown..]
+                .iter()
+                .map(|f| format!("  → {}", f.text))
+                .collect();
+            print_lines(out, &new)?;
+        }
+        shown = session.findings.len();
+    }
+    if let Some(c) = &session.conclusion {
+        print_lines(out, &[String::new(), format!("Conclusion: {}", c.text)])?;
+    }
+    prompt(out, "Your own conclusion (optional, Enter to skip): ")?;
+    let mut line = String::new();
+    if input.read_line(&mut line).is_ok() {
+        session.conclude(&line);
+    }
+    print_lines(out, &[String::new()])
+}
+
+fn ask_value(
+    m: Measurement,
+    tag: &Tag,
+    input: &mut dyn BufRead,
+    out: &mut dyn Write,
+) -> Result<f64, CliError> {
+    loop {
+        let unit = m.unit(tag);
+        let unit_text = if unit.is_empty() {
+            String::new()
+        } else {
+            format!(" [{unit}]")
+        };
+        prompt(out, &format!("  {}{unit_text}: ", m.label()))?;
+        let text = read_answer(input)?;
+        match m.parse(tag, &text) {
+            Ok(v) => return Ok(v),
+            Err(e) => print_lines(out, &[format!("  {e}")])?,
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn dates_must_be_iso() {
+        assert!(parse_date("date", "2026-12-01").is_ok());
+        assert_eq!(parse_date("date", "01/12/2026").unwrap_err().field, "date");
+    }
+}

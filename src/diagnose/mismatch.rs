@@ -1,0 +1,697 @@
+//! "It reads wrong": which configuration mistake explains the numbers?
+//!
+//! Two places where a reading can go wrong are tested with the same hypotheses:
+//!
+//! - **at the receiver**: the transmitter sends current I, the receiver shows A, but the
+//!   tag's scale says it should show E = value(I);
+//! - **at the transmitter**: the process is at P (applied with a calibrator or read on a
+//!   trusted gauge), but the transmitter sends I instead of the current(P) the tag calls for.
+//!
+//! Each hypothesis predicts what would be seen if it were true; those whose prediction
+//! lies within the fit tolerance (% of span) are reported, closest first:
+//!
+//! - engineering units mixed up — the observed value is the expected one expressed in
+//!   another unit of the same quantity (factors from [`crate::units`], NIST SP 811);
+//! - square root taken twice (one root too many) or not at all (one too few);
+//! - reversed action (4 and 20 mA swapped);
+//! - a different input resistor on a voltage input (receiver only): the card reads volts
+//!   across R_actual and scales them as if across R_assumed, so it sees I·R_actual/R_assumed;
+//! - a characterization table not applied (the receiver shows the measured variable);
+//! - a different range — one reading cannot fix both ends, so the range is solved with one
+//!   end kept (the LRV, then the URV); a solved end that lands on a round number (two
+//!   significant digits) is the likely one. This hypothesis always "fits", so it is listed
+//!   after the others.
+
+use crate::display;
+use crate::error::{finite, FieldError, Result};
+use crate::scale::{RootLocation, Scale, Transfer};
+use crate::units;
+use serde::{Deserialize, Serialize};
+
+/// Input resistors commonly found on voltage inputs, Ω (common practice: 250 Ω gives
+/// 1–5 V; 500 Ω gives 2–10 V; 100 Ω and 50 Ω appear on low-voltage cards).
+pub const COMMON_INPUT_OHMS: [f64; 4] = [250.0, 500.0, 100.0, 50.0];
+
+/// Where the mismatch was found.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum MismatchAt {
+    /// Between the loop current and the receiver's display.
+    Receiver,
+    /// Between the process and the loop current.
+    Transmitter,
+}
+
+/// Which end of the range a solved range kept from the tag.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum KeptEnd {
+    /// The LRV is the tag's; the URV was solved.
+    Lrv,
+    /// The URV is the tag's; the LRV was solved.
+    Urv,
+}
+
+/// One explanation of a mismatch.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "kind", rename_all = "kebab-case")]
+pub enum Hypothesis {
+    /// Engineering units mixed up: the value is shown in `shown_unit` instead of
+    /// `expected_unit`.
+    UnitsMixedUp {
+        /// The tag's unit.
+        expected_unit: String,
+        /// The unit the numbers turn out to be in.
+        shown_unit: String,
+        /// How many `shown_unit` make one `expected_unit` (ratio of SI factors).
+        factor: f64,
+    },
+    /// `roots` square roots more than the tag calls for.
+    ExtraSquareRoot {
+        /// How many roots too many.
+        roots: u8,
+    },
+    /// A square root the tag calls for is not taken.
+    MissingSquareRoot,
+    /// 4 and 20 mA swapped.
+    Reversed,
+    /// Input resistor differs from the one the card's scaling assumes.
+    InputResistor {
+        /// The resistor fitted, Ω.
+        actual_ohms: f64,
+        /// The resistor the scaling assumes, Ω.
+        assumed_ohms: f64,
+    },
+    /// The characterization table is not applied: the measured variable is shown.
+    TableNotApplied,
+    /// The device is ranged differently; solved with one end kept.
+    DifferentRange {
+        /// Solved (or kept) LRV.
+        lrv: f64,
+        /// Solved (or kept) URV.
+        urv: f64,
+        /// Unit of the range.
+        unit: String,
+        /// Which end was kept.
+        kept: KeptEnd,
+        /// The solved end is a round number (two significant digits) within tolerance.
+        round: bool,
+    },
+}
+
+impl Hypothesis {
+    /// The stable machine name.
+    pub fn code(&self) -> &'static str {
+        match self {
+            Hypothesis::UnitsMixedUp { .. } => "units-mixed-up",
+            Hypothesis::ExtraSquareRoot { .. } => "extra-square-root",
+            Hypothesis::MissingSquareRoot => "missing-square-root",
+            Hypothesis::Reversed => "reversed",
+            Hypothesis::InputResistor { .. } => "input-resistor",
+            Hypothesis::TableNotApplied => "table-not-applied",
+            Hypothesis::DifferentRange { .. } => "different-range",
+        }
+    }
+}
+
+/// A hypothesis that fits, with what it predicts and how closely.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Explanation {
+    /// The hypothesis.
+    pub hypothesis: Hypothesis,
+    /// What it predicts would be observed (value at the receiver, mA at the transmitter).
+    pub predicted: f64,
+    /// |observed − predicted| as % of span.
+    pub residual_pct: f64,
+    /// The explanation in plain words, with the numbers.
+    pub text: String,
+}
+
+/// The worked comparison.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Mismatch {
+    /// Where.
+    pub at: MismatchAt,
+    /// The loop current, mA.
+    pub current_ma: f64,
+    /// The process value (transmitter comparisons only), in the range unit.
+    pub process_value: Option<f64>,
+    /// What should be observed.
+    pub expected: f64,
+    /// What was observed.
+    pub observed: f64,
+    /// Unit of `expected` and `observed`.
+    pub unit: String,
+    /// (observed − expected) as % of span.
+    pub difference_pct: f64,
+    /// Tolerance used to call a fit, % of span.
+    pub fit_tolerance_pct: f64,
+    /// Observed agrees with expected within the tolerance.
+    pub agrees: bool,
+    /// The hypotheses that fit, most specific and closest first.
+    pub explanations: Vec<Explanation>,
+}
+
+impl Mismatch {
+    /// True when at least one hypothesis other than a solved range fits, or a solved
+    /// range lands on a round number.
+    pub fn explained(&self) -> bool {
+        self.explanations.iter().any(|e| match e.hypothesis {
+            Hypothesis::DifferentRange { round, .. } => round,
+            _ => true,
+        })
+    }
+}
+
+/// Value span of the display (positive).
+fn display_span(scale: &Scale) -> Result<f64> {
+    let lo = scale.from_percent(0.0)?.value;
+    let hi = scale.from_percent(100.0)?.value;
+    Ok((hi - lo).abs())
+}
+
+/// Round to two significant digits.
+fn round2(v: f64) -> f64 {
+    if v == 0.0 || !v.is_finite() {
+        return v;
+    }
+    let mag = v.abs().log10().floor() - 1.0;
+    let step = 10f64.powf(mag);
+    (v / step).round() * step
+}
+
+fn fmt_value(v: f64, unit: &str, span: f64) -> String {
+    display::value(v, unit, span)
+}
+
+/// Receiver roots configured: 1 when the receiver extracts the root.
+fn receiver_roots(scale: &Scale) -> Option<u8> {
+    match &scale.transfer {
+        Transfer::Linear => Some(0),
+        Transfer::SquareRoot { root_in, .. } => Some(match root_in {
+            RootLocation::Receiver => 1,
+            RootLocation::Transmitter => 0,
+        }),
+        Transfer::Table(_) => None,
+    }
+}
+
+fn sort_explanations(list: &mut [Explanation]) {
+    let rank = |e: &Explanation| match e.hypothesis {
+        Hypothesis::DifferentRange { round: true, .. } => 1,
+        Hypothesis::DifferentRange { round: false, .. } => 2,
+        _ => 0,
+    };
+    list.sort_by(|a, b| {
+        rank(a)
+            .cmp(&rank(b))
+            .then(a.residual_pct.total_cmp(&b.residual_pct))
+    });
+}
+
+/// The receiver shows `shown` while the loop carries `current_ma`: is it configured as the
+/// tag says, and if not, what explains it? `resistors` are input resistors known from the
+/// tag's loop (tried before the common values).
+pub fn explain_display(
+    scale: &Scale,
+    current_ma: f64,
+    shown: f64,
+    fit_tolerance_pct: f64,
+    resistors: &[f64],
+) -> Result<Mismatch> {
+    let current = finite("tx_ma", current_ma)?;
+    let shown = finite("displayed", shown)?;
+    let tol = crate::error::positive("fit tolerance", fit_tolerance_pct)?;
+    let span_v = display_span(scale)?;
+    if span_v <= 0.0 {
+        return Err(FieldError::new(
+            "range",
+            "the displayed value does not change over the range",
+        ));
+    }
+    let unit = scale.value_unit().to_string();
+    let pct = scale.signal.percent_of(current);
+    let expected = scale.from_ma(current)?.value;
+    let residual = |pred: f64| (shown - pred).abs() / span_v * 100.0;
+    let difference_pct = (shown - expected) / span_v * 100.0;
+    let agrees = difference_pct.abs() <= tol;
+    let mut out = Mismatch {
+        at: MismatchAt::Receiver,
+        current_ma: current,
+        process_value: None,
+        expected,
+        observed: shown,
+        unit: unit.clone(),
+        difference_pct,
+        fit_tolerance_pct: tol,
+        agrees,
+        explanations: Vec::new(),
+    };
+    if agrees {
+        return Ok(out);
+    }
+    let show = |v: f64| fmt_value(v, &unit, span_v);
+    let mut found: Vec<Explanation> = Vec::new();
+    let push = |found: &mut Vec<Explanation>, h: Hypothesis, predicted: f64, text: String| {
+        let r = residual(predicted);
+        if r <= tol {
+            found.push(Explanation {
+                hypothesis: h,
+                predicted,
+                residual_pct: r,
+                text,
+            });
+        }
+    };
+
+    // Engineering units mixed up.
+    for (shown_unit, predicted, factor) in unit_alternatives(&unit, expected)? {
+        let span_x = unit_span(&unit, &shown_unit, scale)?;
+        let r = (shown - predicted).abs() / span_x * 100.0;
+        if r <= tol {
+            found_units(
+                &mut found,
+                &unit,
+                &shown_unit,
+                predicted,
+                factor,
+                r,
+                expected,
+            );
+        }
+    }
+
+    // Reversed action.
+    let reversed = scale.from_percent(100.0 - pct)?.value;
+    push(
+        &mut found,
+        Hypothesis::Reversed,
+        reversed,
+        format!(
+            "Reversed action: at {} the receiver shows {}, which is what it would show if 4 and 20 mA were swapped (expected {}). Check the receiver's range direction or the transmitter's output action.",
+            display::ma(current),
+            show(shown),
+            show(expected)
+        ),
+    );
+
+    // Square root taken twice or not at all.
+    if let Some(r0) = receiver_roots(scale) {
+        let c = (pct / 100.0).max(0.0);
+        let candidates: &[u8] = if r0 == 0 { &[1] } else { &[0, 2] };
+        for &r in candidates {
+            let fraction = c.powf(0.5f64.powi(r as i32));
+            let predicted = scale.lrv + fraction * scale.span();
+            let (h, what) = if r > r0 {
+                let text = match (&scale.transfer, r0) {
+                    (Transfer::SquareRoot { .. }, 0) => "the square root is taken twice: the transmitter already extracts it and the receiver takes it again",
+                    (Transfer::SquareRoot { .. }, _) => "the square root is taken twice in the receiver (input scaling and a function block both extract it)",
+                    _ => "the receiver takes a square root this linear loop does not call for",
+                };
+                (Hypothesis::ExtraSquareRoot { roots: r - r0 }, text)
+            } else {
+                (
+                    Hypothesis::MissingSquareRoot,
+                    "the receiver does not take the square root: it shows ΔP as if it were flow",
+                )
+            };
+            push(
+                &mut found,
+                h,
+                predicted,
+                format!(
+                    "Square root: {what}. At {} that shows {} instead of {}.",
+                    display::ma(current),
+                    show(predicted),
+                    show(expected)
+                ),
+            );
+        }
+    }
+
+    // A different input resistor on a voltage input.
+    if current > 0.5 {
+        let mut candidates: Vec<f64> = Vec::new();
+        for r in resistors.iter().chain(COMMON_INPUT_OHMS.iter()) {
+            if r.is_finite() && *r > 0.0 && !candidates.iter().any(|c| (c - r).abs() < 1e-9) {
+                candidates.push(*r);
+            }
+        }
+        let mut ratios: Vec<f64> = Vec::new();
+        for &actual in &candidates {
+            for &assumed in &candidates {
+                if (actual - assumed).abs() < 1e-9 {
+                    continue;
+                }
+                let k = actual / assumed;
+                if ratios.iter().any(|q| (q - k).abs() < 1e-9) {
+                    continue;
+                }
+                let predicted = scale.from_ma(current * k)?.value;
+                if residual(predicted) <= tol {
+                    ratios.push(k);
+                    push(
+                        &mut found,
+                        Hypothesis::InputResistor {
+                            actual_ohms: actual,
+                            assumed_ohms: assumed,
+                        },
+                        predicted,
+                        format!(
+                            "Input resistor: the card reads volts across {} but scales them as if across {}, so it sees {} instead of {} and shows {}. Check the resistor fitted and the card's input setting.",
+                            display::ohms(actual),
+                            display::ohms(assumed),
+                            display::ma(current * k),
+                            display::ma(current),
+                            show(predicted)
+                        ),
+                    );
+                }
+            }
+        }
+    }
+
+    // A table that is not applied.
+    if let Transfer::Table(_) = &scale.transfer {
+        let measured = scale.lrv + pct / 100.0 * scale.span();
+        let r = (shown - measured).abs() / scale.span().abs() * 100.0;
+        if r <= tol {
+            found.push(Explanation {
+                hypothesis: Hypothesis::TableNotApplied,
+                predicted: measured,
+                residual_pct: r,
+                text: format!(
+                    "Table not applied: the receiver shows {}, the measured variable, instead of {} from the characterization table.",
+                    fmt_value(measured, &scale.unit, scale.span()),
+                    show(expected)
+                ),
+            });
+        }
+    }
+
+    // A different range, solved with one end kept.
+    let to_domain = |v: f64| match &scale.transfer {
+        Transfer::Table(t) => t.input_for(v),
+        _ => v,
+    };
+    let t = (to_domain(expected) - scale.lrv) / scale.span();
+    let a = to_domain(shown);
+    found.extend(solve_ranges(scale, t, a, tol, MismatchAt::Receiver, shown));
+
+    sort_explanations(&mut found);
+    out.explanations = found;
+    Ok(out)
+}
+
+fn found_units(
+    found: &mut Vec<Explanation>,
+    unit: &str,
+    shown_unit: &str,
+    predicted: f64,
+    factor: f64,
+    residual_pct: f64,
+    expected: f64,
+) {
+    found.push(Explanation {
+        hypothesis: Hypothesis::UnitsMixedUp {
+            expected_unit: unit.to_string(),
+            shown_unit: shown_unit.to_string(),
+            factor,
+        },
+        predicted,
+        residual_pct,
+        text: format!(
+            "Units mixed up: {expected:.4} {unit} is {predicted:.4} {shown_unit}; the numbers shown are in {shown_unit}, not {unit}. Make the ranges agree in one unit."
+        ),
+    });
+}
+
+/// Every other unit of the same quantity: (symbol, the expected value in it, factor).
+fn unit_alternatives(unit: &str, expected: f64) -> Result<Vec<(String, f64, f64)>> {
+    let Some(u) = units::lookup(unit) else {
+        return Ok(Vec::new());
+    };
+    let mut out = Vec::new();
+    for x in units::UNITS
+        .iter()
+        .filter(|x| x.quantity == u.quantity && x.symbol != u.symbol)
+    {
+        let v = units::convert_units(expected, u, x)?;
+        out.push((x.symbol.to_string(), v, u.factor / x.factor));
+    }
+    Ok(out)
+}
+
+/// Span of the tag's displayed range expressed in another unit (positive).
+fn unit_span(unit: &str, other: &str, scale: &Scale) -> Result<f64> {
+    let lo = scale.from_percent(0.0)?.value;
+    let hi = scale.from_percent(100.0)?.value;
+    Ok((units::convert(hi, unit, other)? - units::convert(lo, unit, other)?).abs())
+}
+
+/// Solve a different range: the device maps `a` (a value in the range's domain) to the
+/// fraction `t` of its span, where the tag's range would not. With one end kept the other
+/// follows: U' = LRV + (a − LRV)/t, or L' = (a − URV·t)/(1 − t). At the receiver `t` is
+/// the fraction the current stands for and `a` the value shown; at the transmitter `a` is
+/// the process value and `t` the fraction of span its current shows. `predicted` is what
+/// is observed (the solved range reproduces it exactly).
+fn solve_ranges(
+    scale: &Scale,
+    t: f64,
+    a: f64,
+    tol: f64,
+    at: MismatchAt,
+    predicted: f64,
+) -> Vec<Explanation> {
+    let (lrv, urv, span) = (scale.lrv, scale.urv, scale.span());
+    let unit = scale.unit.clone();
+    let who = match at {
+        MismatchAt::Receiver => "receiver",
+        MismatchAt::Transmitter => "transmitter",
+    };
+    let show = |v: f64| display::fixed(v, display::decimals_for_span(span));
+    let mut out = Vec::new();
+    if t.abs() > 1e-6 {
+        let new_urv = lrv + (a - lrv) / t;
+        let uncertainty = tol / 100.0 * span.abs() / t.abs();
+        let round = (new_urv - round2(new_urv)).abs() <= uncertainty && new_urv != lrv;
+        if new_urv.is_finite() && (new_urv - lrv).abs() > 1e-12 {
+            out.push(Explanation {
+                hypothesis: Hypothesis::DifferentRange {
+                    lrv,
+                    urv: new_urv,
+                    unit: unit.clone(),
+                    kept: KeptEnd::Lrv,
+                    round,
+                },
+                predicted,
+                residual_pct: 0.0,
+                text: format!(
+                    "Different range: if the {who}'s LRV is {} {unit} as on the tag, its URV must be {} {unit} (about {} {unit}) instead of {} {unit}.",
+                    show(lrv),
+                    show(new_urv),
+                    show(round2(new_urv)),
+                    show(urv)
+                ),
+            });
+        }
+    }
+    if (1.0 - t).abs() > 1e-6 {
+        let new_lrv = (a - urv * t) / (1.0 - t);
+        let uncertainty = tol / 100.0 * span.abs() / (1.0 - t).abs();
+        let round = (new_lrv - round2(new_lrv)).abs() <= uncertainty;
+        let lrv_solved = out.is_empty();
+        if new_lrv.is_finite() && (urv - new_lrv).abs() > 1e-12 && (round || lrv_solved) {
+            out.push(Explanation {
+                hypothesis: Hypothesis::DifferentRange {
+                    lrv: new_lrv,
+                    urv,
+                    unit: unit.clone(),
+                    kept: KeptEnd::Urv,
+                    round,
+                },
+                predicted,
+                residual_pct: 0.0,
+                text: format!(
+                    "Different range: if the {who}'s URV is {} {unit} as on the tag, its LRV must be {} {unit} instead of {} {unit}.",
+                    show(urv),
+                    show(new_lrv),
+                    show(lrv)
+                ),
+            });
+        }
+    }
+    out
+}
+
+/// The process is at `process_value` (in the range unit) but the transmitter sends
+/// `current_ma`: is it configured as the tag says, and if not, what explains it?
+pub fn explain_transmitter(
+    scale: &Scale,
+    process_value: f64,
+    current_ma: f64,
+    fit_tolerance_pct: f64,
+) -> Result<Mismatch> {
+    let current = finite("tx_ma", current_ma)?;
+    let p = finite("process_value", process_value)?;
+    let tol = crate::error::positive("fit tolerance", fit_tolerance_pct)?;
+    let width = scale.signal.width_ma();
+    // The percent of span the process should produce, from the range unit.
+    let pct_e = match &scale.transfer {
+        Transfer::SquareRoot { .. } => {
+            scale
+                .from_value(p)
+                .map_err(|e| e.renamed("process_value"))?
+                .percent
+        }
+        _ => (p - scale.lrv) / scale.span() * 100.0,
+    };
+    let expected = scale.signal.ma_at(pct_e);
+    let residual = |pred: f64| (current - pred).abs() / width * 100.0;
+    let difference_pct = (current - expected) / width * 100.0;
+    let agrees = difference_pct.abs() <= tol;
+    let mut out = Mismatch {
+        at: MismatchAt::Transmitter,
+        current_ma: current,
+        process_value: Some(p),
+        expected,
+        observed: current,
+        unit: "mA".to_string(),
+        difference_pct,
+        fit_tolerance_pct: tol,
+        agrees,
+        explanations: Vec::new(),
+    };
+    if agrees {
+        return Ok(out);
+    }
+    let unit = scale.unit.clone();
+    let pv = |v: f64| fmt_value(v, &unit, scale.span());
+    let mut found: Vec<Explanation> = Vec::new();
+    let push = |found: &mut Vec<Explanation>, h: Hypothesis, predicted: f64, text: String| {
+        let r = residual(predicted);
+        if r <= tol {
+            found.push(Explanation {
+                hypothesis: h,
+                predicted,
+                residual_pct: r,
+                text,
+            });
+        }
+    };
+
+    let reversed = scale.signal.ma_at(100.0 - pct_e);
+    push(
+        &mut found,
+        Hypothesis::Reversed,
+        reversed,
+        format!(
+            "Reversed action: at {} the transmitter sends {}, as if its 4 and 20 mA ends were swapped (expected {}). Check its range direction or output action.",
+            pv(p),
+            display::ma(current),
+            display::ma(expected)
+        ),
+    );
+
+    let linear_domain = !matches!(scale.transfer, Transfer::SquareRoot { .. });
+    if let Transfer::Linear | Transfer::SquareRoot { .. } = &scale.transfer {
+        let t0 = matches!(
+            scale.transfer,
+            Transfer::SquareRoot {
+                root_in: RootLocation::Transmitter,
+                ..
+            }
+        );
+        let c = (pct_e / 100.0).max(0.0);
+        if t0 {
+            let predicted = scale.signal.ma_at(c * c * 100.0);
+            push(
+                &mut found,
+                Hypothesis::MissingSquareRoot,
+                predicted,
+                format!(
+                    "Square root not taken: the tag has the transmitter extract the root, but it sends a current linear in ΔP ({} instead of {}). Set its output to square root, or move the root to the receiver.",
+                    display::ma(current),
+                    display::ma(expected)
+                ),
+            );
+        } else {
+            let predicted = scale.signal.ma_at(c.sqrt() * 100.0);
+            let what = if matches!(scale.transfer, Transfer::SquareRoot { .. }) {
+                "the square root is taken twice: the transmitter extracts it and the receiver takes it again"
+            } else {
+                "the transmitter's output is set to square root on a linear loop"
+            };
+            push(
+                &mut found,
+                Hypothesis::ExtraSquareRoot { roots: 1 },
+                predicted,
+                format!(
+                    "Square root: {what}. At {} it sends {} instead of {}.",
+                    pv(p),
+                    display::ma(current),
+                    display::ma(expected)
+                ),
+            );
+        }
+    }
+
+    if linear_domain {
+        // Range numbers entered in another unit of the same quantity.
+        if let Some(u) = units::lookup(&unit) {
+            for x in units::UNITS
+                .iter()
+                .filter(|x| x.quantity == u.quantity && x.symbol != u.symbol)
+            {
+                let px = units::convert_units(p, u, x)?;
+                let predicted = scale.signal.ma_at((px - scale.lrv) / scale.span() * 100.0);
+                let r = residual(predicted);
+                if r <= tol {
+                    found.push(Explanation {
+                        hypothesis: Hypothesis::UnitsMixedUp {
+                            expected_unit: unit.clone(),
+                            shown_unit: x.symbol.to_string(),
+                            factor: u.factor / x.factor,
+                        },
+                        predicted,
+                        residual_pct: r,
+                        text: format!(
+                            "Units mixed up: the transmitter's range numbers are in {} instead of {unit} ({} is {px:.4} {}), so it sends {} instead of {}.",
+                            x.symbol,
+                            pv(p),
+                            x.symbol,
+                            display::ma(current),
+                            display::ma(expected)
+                        ),
+                    });
+                }
+            }
+        }
+        // The transmitter ranged L'..U': c = (p − L')/(U' − L'); solve with one end kept.
+        let c = scale.signal.percent_of(current) / 100.0;
+        found.extend(solve_ranges(
+            scale,
+            c,
+            p,
+            tol,
+            MismatchAt::Transmitter,
+            scale.signal.ma_at(c * 100.0),
+        ));
+    }
+    sort_explanations(&mut found);
+    out.explanations = found;
+    Ok(out)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn two_significant_digits() {
+        assert_eq!(round2(10.04), 10.0);
+        assert_eq!(round2(1.63), 1.6);
+        assert_eq!(round2(4.48), 4.5);
+        assert_eq!(round2(0.0), 0.0);
+    }
+}
