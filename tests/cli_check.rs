@@ -540,3 +540,62 @@ fn check_and_diagnose_read_the_tag_from_the_register_and_save_to_its_log() {
     assert!(e.contains("PT-999"), "{e}");
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+#[test]
+fn temperature_transmitter_checked_with_applied_ohms_and_millivolts() {
+    // IEC 60751:2008 Pt100 table: −20 °C 92.16 Ω, 0 °C 100.00 Ω, 20 °C 107.79 Ω,
+    // 40 °C 115.54 Ω, 60 °C 123.24 Ω. On a −20…80 °C range those are 4.0, 7.2, 10.4, 13.6, 16.8 mA.
+    let j = util::loopside_json(&[
+        "check",
+        "--range",
+        "-20..80",
+        "--unit",
+        "degC",
+        "--device",
+        "transmitter",
+        "--rtd",
+        "pt100",
+        "--applied",
+        "92.16,100,107.79,115.54,123.24",
+        "--measured",
+        "4.0,7.2,10.4,13.6,16.8",
+        "--json",
+    ]);
+    let expected: Vec<f64> = j["points"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|p| p["expected"].as_f64().unwrap())
+        .collect();
+    for (got, want) in expected.iter().zip([4.0, 7.2, 10.4, 13.6, 16.8]) {
+        assert!(
+            (got - want).abs() < 0.002,
+            "expected {want} mA, computed {got}"
+        );
+    }
+    assert_eq!(j["sensor_inputs"]["unit"], "Ω");
+    // NIST Monograph 175, type K: E(400 °C) − E(18 °C) = 16.397 − 0.718 = 15.679 mV; on a
+    // 0…500 °C range 400 °C is 16.8 mA. At 0 °C with the junction at 18 °C: −0.718 mV → 4 mA.
+    let j = util::loopside_json(&[
+        "check",
+        "--range",
+        "0..500",
+        "--unit",
+        "degC",
+        "--device",
+        "transmitter",
+        "--tc",
+        "K",
+        "--cj-c",
+        "18",
+        "--applied",
+        "-0.718;15.679",
+        "--measured",
+        "4;16.8",
+        "--json",
+    ]);
+    let zero = j["points"][0]["expected"].as_f64().unwrap();
+    assert!((zero - 4.0).abs() < 0.001, "type K 0 °C: {zero} mA");
+    let got = j["points"][1]["expected"].as_f64().unwrap();
+    assert!((got - 16.8).abs() < 0.001, "type K 400 °C: {got} mA");
+}

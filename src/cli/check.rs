@@ -16,8 +16,11 @@ use crate::diagnose::Settings;
 use crate::error::FieldError;
 use crate::journal::{Entry, Kind};
 use crate::number::{parse_in, parse_list, parse_quantity, parse_range};
+use crate::rtd::{RtdKind, Wiring};
+use crate::sensor::Sensor;
 use crate::store::Store;
 use crate::tag::Tag;
+use crate::thermocouple::TcType;
 use chrono::NaiveDate;
 use clap::Args;
 use std::io::{BufRead, Write};
@@ -137,6 +140,25 @@ pub struct CheckArgs {
     /// Unit of --input-range.
     #[arg(long, value_name = "U", requires = "input_range")]
     input_unit: Option<String>,
+    /// The applied values are a temperature sensor's input: ohms of this RTD
+    /// (pt100, pt500, pt1000), turned into the range unit by IEC 60751.
+    #[arg(long, value_name = "TYPE", conflicts_with_all = ["tc", "sensor_input"])]
+    rtd: Option<String>,
+    /// The applied values are millivolts of this thermocouple type (B E J K N R S T),
+    /// with the transmitter's cold junction at --cj-c (NIST ITS-90).
+    #[arg(
+        long,
+        value_name = "TYPE",
+        requires = "cj_c",
+        conflicts_with = "sensor_input"
+    )]
+    tc: Option<String>,
+    /// Cold-junction temperature for --tc, °C.
+    #[arg(long, allow_hyphen_values = true, value_name = "T", requires = "tc")]
+    cj_c: Option<String>,
+    /// The applied values are the input of the sensor stored with the tag (Ω, mV or Pa).
+    #[arg(long)]
+    sensor_input: bool,
     /// Print the table as Markdown (for a report).
     #[arg(long, conflicts_with = "json")]
     markdown: bool,
@@ -212,10 +234,32 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
             calibration_due: parse_date("reference-due", due)?,
         });
     }
-    let applied = parse_list("applied", &args.applied)?;
+    let mut applied = parse_list("applied", &args.applied)?;
+    let sensor = sensor_for_check(&args, &tag)?;
+    let mut sensor_inputs = None;
+    if let Some(sensor) = sensor {
+        if device != Device::Transmitter {
+            return Err(CliError::Input(FieldError::new(
+                "device",
+                "a sensor input (--rtd, --tc, --sensor-input) is applied to a transmitter",
+            )));
+        }
+        sensor_inputs = Some((sensor.applied_unit(), applied.clone()));
+        applied = applied
+            .iter()
+            .map(|&v| {
+                sensor
+                    .measured_from_applied(v, &tag.scale.unit)
+                    .map(|m| m.in_range_unit)
+            })
+            .collect::<Result<Vec<f64>, FieldError>>()?;
+    }
     let measured = parse_list("measured", &args.measured)?;
     let result = check.run(&applied, &measured)?;
     let mut value = serde_json::to_value(&result).map_err(|e| CliError::Failure(e.to_string()))?;
+    if let Some((unit, inputs)) = &sensor_inputs {
+        value["sensor_inputs"] = serde_json::json!({ "unit": unit, "values": inputs });
+    }
     let saved = if args.which.save {
         let text = format!(
             "{} check, {}: {}",
@@ -531,4 +575,41 @@ mod tests {
         assert!(parse_date("date", "2026-12-01").is_ok());
         assert_eq!(parse_date("date", "01/12/2026").unwrap_err().field, "date");
     }
+}
+
+/// The sensor whose input the applied values are, if the technician said so.
+fn sensor_for_check(args: &CheckArgs, tag: &Tag) -> Result<Option<Sensor>, CliError> {
+    if let Some(kind) = &args.rtd {
+        let element = kind
+            .parse::<RtdKind>()
+            .map_err(|e| CliError::Input(e.renamed("rtd")))?;
+        return Ok(Some(Sensor::Rtd {
+            element,
+            wiring: Wiring::FourWire,
+            lead_ohms: 0.0,
+        }));
+    }
+    if let Some(kind) = &args.tc {
+        let tc = kind
+            .parse::<TcType>()
+            .map_err(|e| CliError::Input(e.renamed("tc")))?;
+        let cj_c = match &args.cj_c {
+            Some(t) => parse_in("cj-c", t, "°C")?,
+            None => 0.0,
+        };
+        return Ok(Some(Sensor::Thermocouple { tc, cj_c }));
+    }
+    if args.sensor_input {
+        return match tag.sensor {
+            Some(s) => Ok(Some(s)),
+            None => Err(CliError::Input(FieldError::new(
+                "sensor-input",
+                format!(
+                    "tag {} has no sensor recorded; use --rtd or --tc",
+                    tag.number
+                ),
+            ))),
+        };
+    }
+    Ok(None)
 }
