@@ -20,3 +20,7 @@ pub mod scale;
 pub mod signal;
 pub mod tag;
 pub mod wire;
+pub mod view;
+
+#[cfg(feature = "ui")]
+pub mod app;
