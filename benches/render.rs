@@ -56,7 +56,9 @@ fn main() {
         height: PHONE.height,
         pixels: vec![Default::default(); (PHONE.width * PHONE.height) as usize],
     };
-    println!("render at phone size (1080x2400 @2.75), median of {RUNS} full redraws, target < 8 ms:");
+    println!(
+        "render at phone size (1080x2400 @2.75), median of {RUNS} full redraws, target < 8 ms:"
+    );
     for screen in SCREENS {
         h.show(screen);
         h.draw_into(&mut frame); // first draw lays out and loads glyphs
@@ -72,7 +74,11 @@ fn main() {
             "  {:<8} {:>7.2} ms {}",
             screen_name(screen),
             m.as_secs_f64() * 1e3,
-            if m < Duration::from_millis(8) { "ok" } else { "OVER TARGET" }
+            if m < Duration::from_millis(8) {
+                "ok"
+            } else {
+                "OVER TARGET"
+            }
         );
     }
 
@@ -105,6 +111,10 @@ fn main() {
     println!(
         "process start to first frame, 2,000 tags, median of {STARTS}: {:.1} ms {}",
         m.as_secs_f64() * 1e3,
-        if m < Duration::from_millis(150) { "ok (target < 150 ms)" } else { "OVER TARGET (150 ms)" }
+        if m < Duration::from_millis(150) {
+            "ok (target < 150 ms)"
+        } else {
+            "OVER TARGET (150 ms)"
+        }
     );
 }

@@ -19,8 +19,11 @@ pub mod resistor;
 pub mod scale;
 pub mod signal;
 pub mod tag;
-pub mod wire;
 pub mod view;
+pub mod wire;
 
 #[cfg(feature = "ui")]
 pub mod app;
+
+#[cfg(all(feature = "ui", target_os = "android"))]
+pub mod android;

@@ -18,7 +18,7 @@ fn main() {
 }
 
 /// With no subcommand: the app window (store in the platform data folder).
-#[cfg(feature = "ui")]
+#[cfg(all(feature = "ui", not(target_os = "android")))]
 fn open_app() {
     if let Err(e) = loopside::app::run_desktop() {
         eprintln!("error: {e}");
@@ -27,7 +27,7 @@ fn open_app() {
 }
 
 /// Built without the `ui` feature there is no window: print the help text instead.
-#[cfg(not(feature = "ui"))]
+#[cfg(not(all(feature = "ui", not(target_os = "android"))))]
 fn open_app() {
     use clap::CommandFactory;
     let _ = Cli::command().print_help();

@@ -29,7 +29,10 @@ fn one(app: &App, label: &str) -> ElementHandle {
 }
 
 fn value_of(app: &App, label: &str) -> String {
-    one(app, label).accessible_value().unwrap_or_default().to_string()
+    one(app, label)
+        .accessible_value()
+        .unwrap_or_default()
+        .to_string()
 }
 
 #[test]
@@ -79,7 +82,11 @@ fn editing_the_loop_moves_the_verdict() {
     let adapter = app.window.global::<loopside::app::PowerAdapter>();
     assert_eq!(adapter.get_verdict_kind(), 1, "LT-101 has enough voltage");
     one(&app, "Supply").set_accessible_value("15");
-    assert_eq!(adapter.get_verdict_kind(), 3, "15 V is not enough for LT-101");
+    assert_eq!(
+        adapter.get_verdict_kind(),
+        3,
+        "15 V is not enough for LT-101"
+    );
     one(&app, "Supply").set_accessible_value("24 V x");
     assert_eq!(adapter.get_error_field(), "supply");
 }
@@ -92,7 +99,11 @@ fn a_note_appears_in_the_log() {
     one(&app, "Add note").invoke_accessible_default_action();
     let entry = one(&app, "LT-101 Note: Cable gland loose at JB-01, tightened");
     assert!(entry.is_valid());
-    assert_eq!(value_of(&app, "Note"), "", "the field is cleared after adding");
+    assert_eq!(
+        value_of(&app, "Note"),
+        "",
+        "the field is cleared after adding"
+    );
 }
 
 #[test]
@@ -100,13 +111,15 @@ fn cautions_come_before_fault_finding_steps() {
     let app = app();
     app.show_screen(Screen::Fault);
     assert_eq!(
-        ElementHandle::find_by_accessible_label(&app.window, "Reading stuck low or at zero").count(),
+        ElementHandle::find_by_accessible_label(&app.window, "Reading stuck low or at zero")
+            .count(),
         0,
         "no symptom or step before the cautions are read"
     );
     one(&app, "I have read these; start").invoke_accessible_default_action();
     assert_eq!(
-        ElementHandle::find_by_accessible_label(&app.window, "Reading stuck low or at zero").count(),
+        ElementHandle::find_by_accessible_label(&app.window, "Reading stuck low or at zero")
+            .count(),
         1
     );
 }

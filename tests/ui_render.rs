@@ -32,7 +32,11 @@ fn every_screen_draws_at_both_sizes_and_themes() {
     let h = Headless::new(AppState::demo()).unwrap();
     for dark in [false, true] {
         h.app.set_dark(dark);
-        let background = if dark { [0x05, 0x08, 0x0b] } else { [0xff, 0xff, 0xff] };
+        let background = if dark {
+            [0x05, 0x08, 0x0b]
+        } else {
+            [0xff, 0xff, 0xff]
+        };
         for size in [PHONE, DESKTOP] {
             for screen in SCREENS {
                 h.show(screen);
@@ -99,5 +103,8 @@ fn failure_current_puts_the_marker_left_of_the_span() {
     h.show(Screen::Convert);
     let f = h.render(PHONE);
     let (centre, left, _) = marker_and_band(&f);
-    assert!(centre < left, "3.5 mA marker at {centre}, span starts at {left}");
+    assert!(
+        centre < left,
+        "3.5 mA marker at {centre}, span starts at {left}"
+    );
 }

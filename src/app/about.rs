@@ -1,6 +1,6 @@
 //! About screen glue: version, data folder, licences, theme switch.
 
-use super::{model, AppState, AppWindow, AboutAdapter, Shared, Theme};
+use super::{model, AboutAdapter, AppState, AppWindow, Shared, Theme};
 use slint::ComponentHandle;
 
 /// The licences loopside ships under and with.

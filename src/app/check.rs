@@ -55,10 +55,12 @@ pub fn connect(window: &AppWindow, state: &Shared) {
 
 /// As-found readings of the demo plant's PT-204 check (zero shifted up), for the preview.
 fn preview_readings() -> Vec<String> {
-    ["4.150", "8.140", "12.090", "16.050", "20.010", "16.060", "12.100", "8.150", "4.160"]
-        .iter()
-        .map(|s| s.to_string())
-        .collect()
+    [
+        "4.150", "8.140", "12.090", "16.050", "20.010", "16.060", "12.100", "8.150", "4.160",
+    ]
+    .iter()
+    .map(|s| s.to_string())
+    .collect()
 }
 
 /// Copy what does not depend on readings.
@@ -69,7 +71,13 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     ));
     if let Some(tag) = state.open_tag() {
         a.set_tag_title(tag.number.clone().into());
-        a.set_tolerance_text(format!("± {} of span", crate::display::percent(tag.tolerance_percent)).into());
+        a.set_tolerance_text(
+            format!(
+                "± {} of span",
+                crate::display::percent(tag.tolerance_percent)
+            )
+            .into(),
+        );
     }
 }
 

@@ -59,10 +59,22 @@ fn scale_and_bands(state: &AppState) -> Result<(Scale, BandLimits, String, Strin
         let lrv = parse_number("LRV", &c.lrv)?;
         let urv = parse_number("URV", &c.urv)?;
         let scale = Scale::linear(lrv, urv, &c.unit)?;
-        let detail = format!("{} – {} {} · linear", c.lrv.trim(), c.urv.trim(), c.unit.trim());
-        return Ok((scale, BandLimits::default(), "Range typed here".to_string(), detail));
+        let detail = format!(
+            "{} – {} {} · linear",
+            c.lrv.trim(),
+            c.urv.trim(),
+            c.unit.trim()
+        );
+        return Ok((
+            scale,
+            BandLimits::default(),
+            "Range typed here".to_string(),
+            detail,
+        ));
     }
-    let tag = state.open_tag().ok_or_else(|| crate::FieldError::new("tag", "no tag is open"))?;
+    let tag = state
+        .open_tag()
+        .ok_or_else(|| crate::FieldError::new("tag", "no tag is open"))?;
     Ok((
         tag.scale.clone(),
         tag.bands,
@@ -77,7 +89,10 @@ pub fn tag_detail(tag: &crate::tag::Tag) -> String {
     let transfer = match &s.transfer {
         Transfer::Linear => "linear".to_string(),
         Transfer::SquareRoot { cutoff_percent, .. } => {
-            format!("square root, {} cutoff", crate::display::percent(*cutoff_percent))
+            format!(
+                "square root, {} cutoff",
+                crate::display::percent(*cutoff_percent)
+            )
         }
         Transfer::Table(t) => format!("table → {}", t.output_unit()),
     };

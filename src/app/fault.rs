@@ -33,8 +33,9 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     let weak = window.as_weak();
     a.on_step_edited(move |_, _| {
         if let Some(w) = weak.upgrade() {
-            w.global::<FaultAdapter>()
-                .set_error_text("Preview: findings arrive with the fault-finding engine (branch check).".into());
+            w.global::<FaultAdapter>().set_error_text(
+                "Preview: findings arrive with the fault-finding engine (branch check).".into(),
+            );
         }
     });
     let weak = window.as_weak();
@@ -65,13 +66,15 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
         crate::view::CAUTIONS.iter().map(|c| (*c).into()).collect(),
     ));
     a.set_symptoms(model(SYMPTOMS.iter().map(|s| (*s).into()).collect()));
-    let step = |title: &str, detail: &str, label: &str, unit: &str, value: &str, st: i32| super::FaultStep {
-        title: title.into(),
-        detail: detail.into(),
-        input_label: label.into(),
-        unit: unit.into(),
-        value: value.into(),
-        state: st,
+    let step = |title: &str, detail: &str, label: &str, unit: &str, value: &str, st: i32| {
+        super::FaultStep {
+            title: title.into(),
+            detail: detail.into(),
+            input_label: label.into(),
+            unit: unit.into(),
+            value: value.into(),
+            state: st,
+        }
     };
     a.set_steps(model(vec![
         step(
@@ -104,5 +107,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
         "Supply is present but no volts reach the transmitter: look for a loose or broken termination on the way (junction box first).".into(),
     );
     a.set_finding_kind(3);
-    a.set_resume_text("Preview: the steps are an example until the fault-finding engine lands.".into());
+    a.set_resume_text(
+        "Preview: the steps are an example until the fault-finding engine lands.".into(),
+    );
 }

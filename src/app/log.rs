@@ -60,8 +60,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     adapter.on_export_report(move |_kind| {
         if let Some(w) = weak.upgrade() {
             w.global::<LogAdapter>().set_message(
-                "Export is not available yet: it arrives with the journal (store branch)."
-                    .into(),
+                "Export is not available yet: it arrives with the journal (store branch).".into(),
             );
         }
     });
@@ -69,8 +68,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     adapter.on_import_bundle(move || {
         if let Some(w) = weak.upgrade() {
             w.global::<LogAdapter>().set_message(
-                "Import is not available yet: it arrives with the journal (store branch)."
-                    .into(),
+                "Import is not available yet: it arrives with the journal (store branch).".into(),
             );
         }
     });
@@ -80,7 +78,10 @@ pub fn connect(window: &AppWindow, state: &Shared) {
 pub fn add_note(state: &mut AppState, text: &str, who: &str, follow_up: bool) -> Result<()> {
     let text = text.trim();
     if text.is_empty() {
-        return Err(FieldError::new("note", "is empty; type what you found or did"));
+        return Err(FieldError::new(
+            "note",
+            "is empty; type what you found or did",
+        ));
     }
     if text.chars().count() > MAX_NOTE_CHARS {
         return Err(FieldError::new(
@@ -126,7 +127,14 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     let adapter = window.global::<LogAdapter>();
     let tag = state.ui.open_tag.clone().unwrap_or_default();
     let all = state.ui.log_all || tag.is_empty();
-    adapter.set_heading(if tag.is_empty() { "—".to_string() } else { tag.clone() }.into());
+    adapter.set_heading(
+        if tag.is_empty() {
+            "—".to_string()
+        } else {
+            tag.clone()
+        }
+        .into(),
+    );
     adapter.set_all_tags(all);
     adapter.set_search_text(state.ui.log_search.clone().into());
     adapter.set_rows(model(

@@ -80,7 +80,8 @@ pub struct App {
 impl App {
     /// Create the window on the current Slint platform, wire every screen and show the
     /// saved (or default) screen.
-    pub fn new(state: AppState) -> Result<App, slint::PlatformError> {
+    pub fn new(mut state: AppState) -> Result<App, slint::PlatformError> {
+        power::sync_form(&mut state);
         let window = AppWindow::new()?;
         let state: Shared = Rc::new(RefCell::new(state));
         connect(&window, &state);
@@ -152,6 +153,12 @@ fn connect(window: &AppWindow, state: &Shared) {
     });
     let weak = window.as_weak();
     let st = state.clone();
+    adapter.on_back(move || match weak.upgrade() {
+        Some(w) => back(&w, &st),
+        None => false,
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
     adapter.on_clear_demo(move || {
         if let Some(w) = weak.upgrade() {
             {
@@ -218,13 +225,9 @@ pub(crate) fn model<T: Clone + 'static>(items: Vec<T>) -> slint::ModelRc<T> {
     slint::ModelRc::new(slint::VecModel::from(items))
 }
 
-/// Run the desktop app: store in the platform data folder, the demo plant on first start.
-pub fn run_desktop() -> Result<(), Box<dyn std::error::Error>> {
-    let data_dir = directories::ProjectDirs::from("", "", "loopside")
-        .map(|d| d.data_dir().to_path_buf())
-        .ok_or("no home folder to keep loopside's data in")?;
+/// The state to start with: what was saved in `data_dir`, or the demo plant on first start.
+pub fn load_or_demo(data_dir: PathBuf) -> std::io::Result<AppState> {
     let mut state = AppState::demo();
-    state.data_dir = Some(data_dir.clone());
     if let Some(saved) = state::load(&data_dir)? {
         state.ui = saved.ui;
         state.demo = saved.demo;
@@ -233,9 +236,27 @@ pub fn run_desktop() -> Result<(), Box<dyn std::error::Error>> {
             state.log = saved.log;
         }
     }
-    let app = App::new(state)?;
+    state.data_dir = Some(data_dir);
+    Ok(state)
+}
+
+/// Save what must survive into the state's data folder (nothing when it has none).
+pub fn save(state: &AppState) -> std::io::Result<()> {
+    match &state.data_dir {
+        Some(dir) => state::save(dir, &state::Saved::from_state(state)),
+        None => Ok(()),
+    }
+}
+
+/// Run the desktop app: store in the platform data folder, the demo plant on first start.
+/// (Not on Android, where the data folder comes from the activity: see `crate::android`.)
+#[cfg(not(target_os = "android"))]
+pub fn run_desktop() -> Result<(), Box<dyn std::error::Error>> {
+    let data_dir = directories::ProjectDirs::from("", "", "loopside")
+        .map(|d| d.data_dir().to_path_buf())
+        .ok_or("no home folder to keep loopside's data in")?;
+    let app = App::new(load_or_demo(data_dir)?)?;
     app.window.run()?;
-    let s = app.state.borrow();
-    state::save(&data_dir, &state::Saved::from_state(&s))?;
+    save(&app.state.borrow())?;
     Ok(())
 }

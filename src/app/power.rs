@@ -5,9 +5,9 @@ use super::state::PowerForm;
 use super::{model, navigate, AppState, AppWindow, PowerAdapter, Screen, Shared};
 use crate::budget::{Cable, ElementKind, LoopConfig, SeriesElement, DEFAULT_FAULT_MA};
 use crate::display;
-use crate::view::plain;
 use crate::error::{FieldError, Result};
 use crate::number::{parse_in, parse_number};
+use crate::view::plain;
 use crate::view::power::{view, PowerView, Slice};
 use crate::wire::Conductor;
 use slint::ComponentHandle;
@@ -117,7 +117,6 @@ pub fn form_from(tag: &str, c: &LoopConfig) -> PowerForm {
     }
 }
 
-
 /// Read a conductor as typed: `1.0 mm²`, `1,5 mm2`, `18 AWG`, `AWG 18`, `2/0 awg`.
 pub fn parse_conductor(text: &str) -> Result<Conductor> {
     let t = text.trim();
@@ -137,7 +136,8 @@ pub fn config_from(form: &PowerForm) -> Result<LoopConfig> {
     let tx_min = parse_in("transmitter minimum", &form.tx_min, "V")?;
     let mut c = LoopConfig::new(supply, tx_min);
     if !form.tolerance.trim().is_empty() {
-        c.supply_tolerance_percent = parse_number("tolerance", form.tolerance.trim_end_matches('%'))?;
+        c.supply_tolerance_percent =
+            parse_number("tolerance", form.tolerance.trim_end_matches('%'))?;
     }
     c.fault_ma = if form.fault.trim().is_empty() {
         DEFAULT_FAULT_MA
@@ -222,7 +222,11 @@ pub fn sync_form(state: &mut AppState) {
 fn update(window: &AppWindow, state: &AppState) {
     let adapter = window.global::<PowerAdapter>();
     let tag = state.open_tag();
-    adapter.set_tag_title(tag.map(|t| t.number.clone()).unwrap_or_else(|| "No tag open".to_string()).into());
+    adapter.set_tag_title(
+        tag.map(|t| t.number.clone())
+            .unwrap_or_else(|| "No tag open".to_string())
+            .into(),
+    );
     adapter.set_tag_detail(tag.map(|t| t.service.clone()).unwrap_or_default().into());
     let hart = tag.is_some_and(|t| t.hart);
     match config_from(&state.ui.power).and_then(|c| view(&c, hart)) {

@@ -6,9 +6,10 @@
 //! per thread (Slint's platform is per thread, so parallel tests each get their own).
 
 use super::{App, AppState, Screen};
-use slint::platform::software_renderer::{MinimalSoftwareWindow, RepaintBufferType, Rgb8Pixel};
+use slint::platform::software_renderer::{MinimalSoftwareWindow, RepaintBufferType};
 use slint::platform::{Platform, WindowAdapter, WindowEvent};
 use slint::PhysicalSize;
+use slint::Rgb8Pixel;
 use std::cell::RefCell;
 use std::path::Path;
 use std::rc::Rc;
@@ -101,7 +102,9 @@ impl Frame {
         encoder.set_depth(png::BitDepth::Eight);
         let mut writer = encoder.write_header().map_err(std::io::Error::other)?;
         let bytes: Vec<u8> = self.pixels.iter().flat_map(|p| [p.r, p.g, p.b]).collect();
-        writer.write_image_data(&bytes).map_err(std::io::Error::other)?;
+        writer
+            .write_image_data(&bytes)
+            .map_err(std::io::Error::other)?;
         writer.finish().map_err(std::io::Error::other)
     }
 }
@@ -130,7 +133,8 @@ impl Headless {
         self.window.dispatch_event(WindowEvent::ScaleFactorChanged {
             scale_factor: size.scale,
         });
-        self.window.set_size(PhysicalSize::new(size.width, size.height));
+        self.window
+            .set_size(PhysicalSize::new(size.width, size.height));
     }
 
     /// Draw the current state at `size` into a new frame.
@@ -154,6 +158,37 @@ impl Headless {
         });
     }
 
+    /// Mark the cautions read on Find fault or Check (as the technician's tap does).
+    pub fn read_cautions(&self, screen: Screen) {
+        use slint::ComponentHandle;
+        match screen {
+            Screen::Fault => self
+                .app
+                .window
+                .global::<super::FaultAdapter>()
+                .invoke_read_cautions(),
+            Screen::Check => self
+                .app
+                .window
+                .global::<super::CheckAdapter>()
+                .invoke_read_cautions(),
+            _ => {}
+        }
+    }
+
+    /// Show the cautions again on Find fault and Check.
+    pub fn reset_cautions(&self) {
+        use slint::ComponentHandle;
+        self.app
+            .window
+            .global::<super::FaultAdapter>()
+            .set_cautions_read(false);
+        self.app
+            .window
+            .global::<super::CheckAdapter>()
+            .set_cautions_read(false);
+    }
+
     /// Show a screen.
     pub fn show(&self, screen: Screen) {
         self.app.show_screen(screen);
@@ -162,7 +197,10 @@ impl Headless {
 
 /// Render every screen at `size` in light and dark, writing `OUT/<size>-<screen>-<theme>.png`.
 /// Returns the files written.
-pub fn render_all(out: &Path, size: RenderSize) -> Result<Vec<std::path::PathBuf>, Box<dyn std::error::Error>> {
+pub fn render_all(
+    out: &Path,
+    size: RenderSize,
+) -> Result<Vec<std::path::PathBuf>, Box<dyn std::error::Error>> {
     std::fs::create_dir_all(out)?;
     let headless = Headless::new(AppState::demo())?;
     let mut written = Vec::new();
@@ -181,6 +219,22 @@ pub fn render_all(out: &Path, size: RenderSize) -> Result<Vec<std::path::PathBuf
             frame.write_png(&path)?;
             written.push(path);
         }
+        // Find fault and Check again past their cautions, to show the work itself.
+        for screen in [Screen::Fault, Screen::Check] {
+            headless.show(screen);
+            headless.read_cautions(screen);
+            let frame = headless.render(size);
+            let name = format!(
+                "{}-{}-work-{}.png",
+                size.name,
+                super::screen_name(screen),
+                if dark { "dark" } else { "light" }
+            );
+            let path = out.join(name);
+            frame.write_png(&path)?;
+            written.push(path);
+        }
+        headless.reset_cautions();
     }
     Ok(written)
 }

@@ -102,7 +102,9 @@ pub fn tags() -> Result<Vec<Tag>> {
     ft310.cable = cable(240.0, 0.75);
 
     let mut tt412 = LoopConfig::new(24.0, 12.0);
-    tt412.elements.push(SeriesElement::ohms("IS barrier", 340.0));
+    tt412
+        .elements
+        .push(SeriesElement::ohms("IS barrier", 340.0));
     tt412.elements.push(SeriesElement::ohms("PLC input", 250.0));
     tt412.cable = cable(310.0, 1.0);
 
@@ -118,7 +120,9 @@ pub fn tags() -> Result<Vec<Tag>> {
     lt605.cable = cable(60.0, 1.0);
 
     let mut pdt707 = LoopConfig::new(24.0, 10.5);
-    pdt707.elements.push(SeriesElement::ohms("PLC input", 250.0));
+    pdt707
+        .elements
+        .push(SeriesElement::ohms("PLC input", 250.0));
     pdt707.cable = cable(75.0, 1.0);
 
     // Horizontal cylinder, 2.0 m across, 12 m³ full: volume fraction by level fraction.
@@ -190,13 +194,7 @@ pub fn tags() -> Result<Vec<Tag>> {
         with_loop(
             Tag::new(
                 "LT-605",
-                Scale::new(
-                    0.0,
-                    2.0,
-                    "m",
-                    Transfer::Table(table),
-                    SignalSpan::default(),
-                )?,
+                Scale::new(0.0, 2.0, "m", Transfer::Table(table), SignalSpan::default())?,
             )?,
             "Ferric dosing tank (horizontal cylinder)",
             "Chemical store",

@@ -1,7 +1,9 @@
 //! Tags screen glue: search the register, open a tag, add or edit one through
 //! [`crate::tag::Tag::validate`]. The register is in memory until the store lands.
 
-use super::{model, navigate, refresh_all, screen_from_name, AppState, AppWindow, Shared, TagsAdapter};
+use super::{
+    model, navigate, refresh_all, screen_from_name, AppState, AppWindow, Shared, TagsAdapter,
+};
 use crate::display;
 use crate::error::{FieldError, Result};
 use crate::number::parse_number;
@@ -65,9 +67,10 @@ pub fn connect(window: &AppWindow, state: &Shared) {
             let base = if is_new { None } else { s.open_tag() };
             tag_from_form(&form, base).and_then(|tag| {
                 let replacing = base.map(|b| b.number.clone());
-                let taken = s.tags.iter().any(|t| {
-                    t.number == tag.number && Some(&t.number) != replacing.as_ref()
-                });
+                let taken = s
+                    .tags
+                    .iter()
+                    .any(|t| t.number == tag.number && Some(&t.number) != replacing.as_ref());
                 if taken {
                     Err(FieldError::new(
                         "tag",
@@ -148,8 +151,14 @@ pub fn form_of(tag: &Tag) -> super::TagForm {
         urv: crate::view::plain(tag.scale.urv).into(),
         unit: tag.scale.unit.clone().into(),
         transfer: transfer.into(),
-        supply: lc.map(|c| crate::view::plain(c.supply_volts)).unwrap_or_default().into(),
-        tx_min: lc.map(|c| crate::view::plain(c.tx_min_volts)).unwrap_or_default().into(),
+        supply: lc
+            .map(|c| crate::view::plain(c.supply_volts))
+            .unwrap_or_default()
+            .into(),
+        tx_min: lc
+            .map(|c| crate::view::plain(c.tx_min_volts))
+            .unwrap_or_default()
+            .into(),
         tolerance: crate::view::plain(tag.tolerance_percent).into(),
     }
 }
@@ -163,7 +172,13 @@ pub fn tag_from_form(form: &super::TagForm, base: Option<&Tag>) -> Result<Tag> {
         Some(b) => {
             let mut t = b.clone();
             t.number = number;
-            t.scale = Scale::new(lrv, urv, &form.unit, b.scale.transfer.clone(), b.scale.signal)?;
+            t.scale = Scale::new(
+                lrv,
+                urv,
+                &form.unit,
+                b.scale.transfer.clone(),
+                b.scale.signal,
+            )?;
             t
         }
         None => Tag::new(&number, Scale::linear(lrv, urv, &form.unit)?)?,

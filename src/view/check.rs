@@ -66,7 +66,13 @@ pub fn view(readings: &[String], tolerance_percent: f64, signal: &SignalSpan) ->
         let rising = i <= 4;
         let expected_ma = signal.ma_at(p);
         let text = readings.get(i).map(String::as_str).unwrap_or("");
-        let arrow = if i == 4 { "" } else if rising { " ↑" } else { " ↓" };
+        let arrow = if i == 4 {
+            ""
+        } else if rising {
+            " ↑"
+        } else {
+            " ↓"
+        };
         let mut row = Row {
             point: format!("{}{arrow}", display::fixed(p, 0) + " %"),
             expected: display::fixed(expected_ma, 3),

@@ -235,7 +235,12 @@ mod tests {
     use super::*;
     use crate::scale::{RootLocation, SignalSpan};
 
-    fn input<'a>(scale: &'a Scale, bands: &'a BandLimits, source: Source, text: &'a str) -> ConvertInput<'a> {
+    fn input<'a>(
+        scale: &'a Scale,
+        bands: &'a BandLimits,
+        source: Source,
+        text: &'a str,
+    ) -> ConvertInput<'a> {
         ConvertInput {
             scale,
             bands,
@@ -265,7 +270,10 @@ mod tests {
         // T. Kuphaldt, Lessons in Industrial Instrumentation §13.2: 34.7 % → 9.552 mA.
         let s = Scale::linear(0.0, 100.0, "%").unwrap();
         let b = BandLimits::default();
-        assert_eq!(view(&input(&s, &b, Source::Percent, "34,7 %")).unwrap().ma, "9.552");
+        assert_eq!(
+            view(&input(&s, &b, Source::Percent, "34,7 %")).unwrap().ma,
+            "9.552"
+        );
         // 250 Ω sense resistor: 1–5 V over 4–20 mA (common practice).
         let v = view(&input(&s, &b, Source::Volts, "5")).unwrap();
         assert_eq!(v.ma, "20.000");
@@ -279,15 +287,26 @@ mod tests {
         let v = view(&input(&s, &b, Source::Ma, "3.5")).unwrap();
         assert_eq!(v.tone, Tone::Bad);
         assert_eq!(v.status_title, "Failure signal, low");
-        assert_eq!(view(&input(&s, &b, Source::Ma, "0")).unwrap().tone, Tone::Dead);
+        assert_eq!(
+            view(&input(&s, &b, Source::Ma, "0")).unwrap().tone,
+            Tone::Dead
+        );
     }
 
     #[test]
     fn bad_text_names_the_field() {
         let s = Scale::linear(0.0, 4.5, "m").unwrap();
         let b = BandLimits::default();
-        assert_eq!(view(&input(&s, &b, Source::Ma, "twelve")).unwrap_err().field, "mA");
-        assert_eq!(view(&input(&s, &b, Source::Value, "")).unwrap_err().field, "value");
+        assert_eq!(
+            view(&input(&s, &b, Source::Ma, "twelve"))
+                .unwrap_err()
+                .field,
+            "mA"
+        );
+        assert_eq!(
+            view(&input(&s, &b, Source::Value, "")).unwrap_err().field,
+            "value"
+        );
         let mut i = input(&s, &b, Source::Volts, "3");
         i.ohms_text = "0";
         assert_eq!(view(&i).unwrap_err().field, "ohms");

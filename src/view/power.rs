@@ -116,7 +116,8 @@ pub struct PowerView {
 /// Work out the view. Errors only for invalid input, never for "not enough volts".
 pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
     let b = config.budget()?;
-    let need = |p: &OperatingPoint| config.tx_min_volts + p.parts.iter().map(|x| x.volts).sum::<f64>();
+    let need =
+        |p: &OperatingPoint| config.tx_min_volts + p.parts.iter().map(|x| x.volts).sum::<f64>();
     let total = b
         .lowest_supply_volts
         .max(need(&b.at_full_scale))
@@ -135,7 +136,7 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
     for (p_full, p_fault) in b.at_full_scale.parts.iter().zip(&b.at_fault.parts) {
         legend.push(LegendLine {
             kind: role_kind(p_full.role),
-            name: p_full.name.clone(),
+            name: capitalised(&p_full.name),
             full: display::volts(p_full.volts),
             fault: display::volts(p_fault.volts),
         });
@@ -148,7 +149,11 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
         }
     };
     legend.push(LegendLine {
-        kind: if b.ok { SliceKind::Spare } else { SliceKind::Shortfall },
+        kind: if b.ok {
+            SliceKind::Spare
+        } else {
+            SliceKind::Shortfall
+        },
         name: "Spare (− short)".to_string(),
         full: spare_line(&b.at_full_scale),
         fault: spare_line(&b.at_fault),
@@ -321,7 +326,11 @@ mod tests {
         assert_eq!(last.kind, SliceKind::Shortfall);
         assert!((last.start - v.supply_pos).abs() < 1e-12);
         assert!((last.start + last.width - 1.0).abs() < 1e-9);
-        assert!(v.figures[0].value.starts_with('−'));
+        // 16 V is enough at 20 mA (15.62 V needed) but not at 22 mA (16.14 V).
+        assert_eq!(v.figures[0].tone, Tone::Good);
+        assert!(v.figures[1].value.starts_with('−'), "{:?}", v.figures[1]);
+        assert_eq!(v.figures[1].tone, Tone::Bad);
+        assert!(v.verdict_title.contains("not 22.0 mA"), "{}", v.verdict_title);
         assert!(v.hart.is_some());
     }
 
