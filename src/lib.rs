@@ -5,7 +5,12 @@
 //!
 //! - [`number`] — reading numbers as typed (`12,5`, `250 ohm`);
 //! - [`units`] — engineering units and NIST SP 811 factors;
-//! - [`error`] — the typed error every computation returns.
+//! - [`error`] — the typed error every computation returns;
+//! - [`scale`], [`signal`], [`budget`], [`wire`], [`resistor`] — the loop computations;
+//! - [`tag`] — one loop in the register; [`display`] — rounding for people;
+//! - [`cli`] — the command-line front (prints; not part of the pure core).
+
+#![warn(missing_docs)]
 
 pub mod error;
 pub mod number;

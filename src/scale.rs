@@ -146,7 +146,9 @@ impl CharTable {
         }
         Ok(CharTable {
             points,
-            output_unit: output_unit.trim().to_string(),
+            output_unit: crate::units::EngUnit::parse(output_unit)
+                .symbol()
+                .to_string(),
         })
     }
 
@@ -283,7 +285,8 @@ impl Scale {
         Ok(Scale {
             lrv,
             urv,
-            unit: unit.trim().to_string(),
+            // A known unit is stored by its symbol (m3/h → m³/h); free text as typed.
+            unit: crate::units::EngUnit::parse(unit).symbol().to_string(),
             transfer,
             signal,
         })

@@ -243,8 +243,10 @@ mod tests {
 
     #[test]
     fn limits_out_of_order_are_refused() {
-        let mut l = BandLimits::default();
-        l.measure_low_ma = 3.5;
+        let l = BandLimits {
+            measure_low_ma: 3.5,
+            ..Default::default()
+        };
         let e = l.validate(&SignalSpan::default()).unwrap_err();
         assert_eq!(e.field, "measure_low_ma");
         assert!(BandLimits::default()

@@ -228,8 +228,8 @@ pub static UNITS: &[Unit] = &[
     u("mA", Current, 1.0e-3, &["milliamp"]),
     u("V", Voltage, 1.0, &["volt", "volts", "vdc"]),
     u("mV", Voltage, 1.0e-3, &["millivolt"]),
-    u("Ω", Resistance, 1.0, &["ohm", "ohms", "r"]),
-    u("kΩ", Resistance, 1.0e3, &["kohm", "kohms", "k"]),
+    u("Ω", Resistance, 1.0, &["ohm", "ohms"]),
+    u("kΩ", Resistance, 1.0e3, &["kohm", "kohms"]),
     // Temperature — offsets so that si = value × factor + offset gives kelvin.
     Unit {
         symbol: "°C",

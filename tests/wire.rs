@@ -6,7 +6,8 @@ use loopside::wire::{loop_ohms, Conductor};
 use proptest::prelude::*;
 use util::close;
 
-const FT_PER_KM: f64 = 1000.0 / 0.3048;
+/// 1000 ft in km is 0.3048, so Ω/1000 ft = Ω/km × 0.3048.
+const KFT_PER_KM: f64 = 1.0 / 0.3048;
 
 #[test]
 fn awg_resistance_matches_astm_b258_derived_tables_at_20c() {
@@ -24,7 +25,7 @@ fn awg_resistance_matches_astm_b258_derived_tables_at_20c() {
     for (gauge, per_kft, half_digit) in table {
         let per_km = Conductor::awg(gauge).unwrap().ohms_per_km(20.0).unwrap();
         close(
-            per_km / FT_PER_KM,
+            per_km / KFT_PER_KM,
             per_kft,
             half_digit + 1e-9,
             &format!("AWG {gauge}"),
@@ -33,6 +34,7 @@ fn awg_resistance_matches_astm_b258_derived_tables_at_20c() {
 }
 
 #[test]
+#[allow(clippy::approx_constant)] // 3.14 is NEC's AWG 14 stranded figure, not π.
 fn awg_resistance_at_75c_against_nec_chapter_9_table_8() {
     // NEC Chapter 9, Table 8, uncoated copper at 75 °C, Ω/1000 ft (solid / stranded).
     // Our solid-conductor model with α = 0.00393 (IEC 60028) should sit within 0.5 % of
@@ -44,7 +46,7 @@ fn awg_resistance_at_75c_against_nec_chapter_9_table_8() {
         (12, 1.93, 1.98),
     ];
     for (gauge, solid, stranded) in table {
-        let ours = Conductor::awg(gauge).unwrap().ohms_per_km(75.0).unwrap() / FT_PER_KM;
+        let ours = Conductor::awg(gauge).unwrap().ohms_per_km(75.0).unwrap() / KFT_PER_KM;
         assert!(
             (ours - solid).abs() / solid < 0.005,
             "AWG {gauge}: {ours} vs {solid}"
