@@ -8,7 +8,11 @@ fn main() {
     {
         // Our own widgets draw everything the screens show; the std-widgets style only
         // matters for ScrollView, ListView and AboutSlint.
-        let config = slint_build::CompilerConfiguration::new().with_style("fluent".into());
+        // Debug info names elements for the UI tests (`ElementHandle` in
+        // i-slint-backend-testing); it costs a few strings per element.
+        let config = slint_build::CompilerConfiguration::new()
+            .with_style("fluent".into())
+            .with_debug_info(true);
         if let Err(e) = slint_build::compile_with_config("ui/index.slint", config) {
             // A build script reports by panicking; the message is the Slint diagnostic.
             panic!("ui/index.slint did not compile: {e}");

@@ -330,7 +330,11 @@ mod tests {
         assert_eq!(v.figures[0].tone, Tone::Good);
         assert!(v.figures[1].value.starts_with('−'), "{:?}", v.figures[1]);
         assert_eq!(v.figures[1].tone, Tone::Bad);
-        assert!(v.verdict_title.contains("not 22.0 mA"), "{}", v.verdict_title);
+        assert!(
+            v.verdict_title.contains("not 22.0 mA"),
+            "{}",
+            v.verdict_title
+        );
         assert!(v.hart.is_some());
     }
 
