@@ -52,8 +52,10 @@ impl AppState {
     /// A state with the demo plant loaded (first start, screenshots, tests).
     pub fn demo() -> AppState {
         let tags = sample::tags().unwrap_or_default();
-        let mut ui = UiState::default();
-        ui.open_tag = tags.first().map(|t| t.number.clone());
+        let ui = UiState {
+            open_tag: tags.first().map(|t| t.number.clone()),
+            ..UiState::default()
+        };
         AppState {
             tags,
             log: sample::log(),
