@@ -8,7 +8,11 @@
 //! - [`error`] — the typed error every computation returns;
 //! - [`scale`], [`signal`], [`budget`], [`wire`], [`resistor`] — the loop computations;
 //! - [`tag`] — one loop in the register; [`display`] — rounding for people;
-//! - [`cli`] — the command-line front (prints; not part of the pure core).
+//! - [`cli`] — the command-line front (prints; not part of the pure core);
+//! - [`rtd`], [`thermocouple`] and [`level`] — what a temperature or DP level transmitter
+//!   should see for a given temperature or level;
+//! - [`view`] — what each screen shows, worked out and formatted (no UI toolkit); the
+//!   Slint app itself is `app` (feature `ui`), Android's entry `android`.
 
 #![warn(missing_docs)]
 
@@ -20,10 +24,14 @@ pub use error::{FieldError, Result};
 pub mod budget;
 pub mod cli;
 pub mod display;
+pub mod level;
 pub mod resistor;
+pub mod rtd;
 pub mod scale;
+pub mod sensor;
 pub mod signal;
 pub mod tag;
+pub mod thermocouple;
 pub mod view;
 pub mod wire;
 

@@ -48,6 +48,10 @@ pub struct Tag {
     /// Archived tags stay in the register and their log, hidden from the working list.
     #[serde(default)]
     pub archived: bool,
+    /// The sensor behind the transmitter, when known: lets a loop check take applied
+    /// ohms, millivolts or pressure and compute the current to expect.
+    #[serde(default)]
+    pub sensor: Option<crate::sensor::Sensor>,
 }
 
 fn default_tolerance() -> f64 {
@@ -68,6 +72,7 @@ impl Tag {
             tolerance_percent: DEFAULT_TOLERANCE_PERCENT,
             notes: String::new(),
             archived: false,
+            sensor: None,
         };
         tag.validate()?;
         Ok(tag)

@@ -8,6 +8,7 @@
 //! written) exit with 1.
 
 mod calc;
+mod sensors;
 
 use crate::error::FieldError;
 use clap::{Parser, Subcommand};
@@ -42,6 +43,12 @@ pub enum Command {
     Status(calc::StatusArgs),
     /// Volts, power and reading error of a sense resistor.
     Resistor(calc::ResistorArgs),
+    /// Platinum RTD (IEC 60751): resistance ↔ temperature, class tolerance, lead error.
+    Rtd(sensors::RtdArgs),
+    /// Thermocouple (NIST ITS-90): EMF ↔ temperature with cold-junction compensation.
+    Tc(sensors::TcArgs),
+    /// DP level transmitter ranging: LRV, URV, span, zero elevation or suppression.
+    Level(sensors::LevelArgs),
 }
 
 /// An error a subcommand reports: bad input (exit 2) or something else (exit 1).
@@ -77,6 +84,9 @@ pub fn run_command(command: Command, out: &mut dyn Write) -> CliResult {
         Command::Units(args) => calc::units(args, out),
         Command::Status(args) => calc::status(args, out),
         Command::Resistor(args) => calc::resistor(args, out),
+        Command::Rtd(args) => sensors::rtd(args, out),
+        Command::Tc(args) => sensors::tc(args, out),
+        Command::Level(args) => sensors::level(args, out),
     }
 }
 
