@@ -253,3 +253,47 @@ pub fn map_row(tag: &Tag, state: &AppState) -> super::TagRow {
         last: last.into(),
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn form(number: &str, lrv: &str) -> super::super::TagForm {
+        let mut f = empty_form();
+        f.number = number.into();
+        f.lrv = lrv.into();
+        f.urv = "4,5".into();
+        f.unit = "m".into();
+        f
+    }
+
+    #[test]
+    fn a_form_becomes_a_tag_or_names_the_bad_field() {
+        let tag = tag_from_form(&form(" LT-102 ", "0"), None).unwrap();
+        assert_eq!(tag.number, "LT-102");
+        assert_eq!(tag.scale.urv, 4.5);
+        assert_eq!(tag.loop_config.unwrap().supply_volts, 24.0);
+        assert_eq!(
+            tag_from_form(&form("LT-102", "zero"), None)
+                .unwrap_err()
+                .field,
+            "LRV"
+        );
+        assert_eq!(
+            tag_from_form(&form("", "0"), None).unwrap_err().field,
+            "tag"
+        );
+        let mut f = form("LT-102", "0");
+        f.tolerance = "0".into();
+        assert_eq!(tag_from_form(&f, None).unwrap_err().field, "tolerance");
+    }
+
+    #[test]
+    fn editing_keeps_what_the_form_does_not_show() {
+        let tags = super::super::sample::tags().unwrap();
+        let ft = &tags[2];
+        let edited = tag_from_form(&form_of(ft), Some(ft)).unwrap();
+        assert_eq!(edited.scale.transfer, ft.scale.transfer);
+        assert_eq!(edited.loop_config, ft.loop_config);
+    }
+}
