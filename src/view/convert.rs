@@ -6,7 +6,7 @@
 //! typed, so the cursor never jumps.
 
 use crate::display;
-use crate::error::{FieldError, Result};
+use crate::error::Result;
 use crate::number::{parse_in, parse_number};
 use crate::scale::{Reading, Scale, Transfer};
 use crate::signal::{classify, BandLimits, SignalStatus};
@@ -223,11 +223,6 @@ fn notes(scale: &Scale, reading: &Reading) -> Vec<String> {
         ));
     }
     out
-}
-
-/// A field error in the form the screen shows it: which field, and the whole message.
-pub fn error_parts(e: &FieldError) -> (String, String) {
-    (e.field.clone(), e.to_string())
 }
 
 #[cfg(test)]
