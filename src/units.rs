@@ -263,9 +263,17 @@ pub fn lookup(text: &str) -> Option<&'static Unit> {
     if wanted.is_empty() {
         return None;
     }
-    UNITS.iter().find(|unit| {
-        normalise(unit.symbol) == wanted || unit.aliases.iter().any(|a| normalise(a) == wanted)
-    })
+    // Exact spelling first, so that `K` (kelvin) is not taken for the `k` alias of kΩ.
+    let exact = text.trim();
+    UNITS
+        .iter()
+        .find(|unit| unit.symbol == exact || unit.aliases.contains(&exact))
+        .or_else(|| {
+            UNITS.iter().find(|unit| {
+                normalise(unit.symbol) == wanted
+                    || unit.aliases.iter().any(|a| normalise(a) == wanted)
+            })
+        })
 }
 
 /// A tag's engineering unit: either one loopside can convert, or free text kept as typed.

@@ -245,15 +245,26 @@ fn value_span(scale: &Scale) -> f64 {
     loopside budget --supply 24 --supply-tolerance 5 --min-volts 12 --load barrier=340 --drop indicator=2.5 --json\n\
     Name an element with NAME=VALUE so the verdict can say which one limits.")]
 pub struct BudgetArgs {
+    #[command(flatten)]
+    pub(crate) loop_args: LoopArgs,
+    /// Print one JSON object.
+    #[arg(long)]
+    json: bool,
+}
+
+/// A loop's power configuration as given on the command line (shared by `budget`,
+/// `tag add` and `tag edit`).
+#[derive(Debug, Clone, Args)]
+pub(crate) struct LoopArgs {
     /// Nominal supply, V.
     #[arg(long, allow_hyphen_values = true, value_name = "V")]
-    supply: String,
+    supply: Option<String>,
     /// How far the supply may sag below nominal, %.
     #[arg(long, allow_hyphen_values = true, value_name = "PCT")]
     supply_tolerance: Option<String>,
     /// Transmitter minimum terminal voltage (lift-off), V.
     #[arg(long, allow_hyphen_values = true, value_name = "V")]
-    min_volts: String,
+    min_volts: Option<String>,
     /// A resistive element in series, Ω (repeat; NAME=OHMS to name it).
     #[arg(long, allow_hyphen_values = true, value_name = "OHMS")]
     load: Vec<String>,
@@ -283,9 +294,6 @@ pub struct BudgetArgs {
     /// Upper end of the HART resistance window, Ω (default 1100).
     #[arg(long, allow_hyphen_values = true, value_name = "OHMS")]
     hart_max_ohms: Option<String>,
-    /// Print one JSON object.
-    #[arg(long)]
-    json: bool,
 }
 
 /// Split `NAME=VALUE` (or just `VALUE`) into a name and the number text.
@@ -310,10 +318,35 @@ pub(super) fn conductor_from(
     }
 }
 
-impl BudgetArgs {
-    fn loop_config(&self) -> Result<LoopConfig, FieldError> {
-        let supply = parse_in("supply", &self.supply, "V")?;
-        let min_volts = parse_in("min-volts", &self.min_volts, "V")?;
+impl LoopArgs {
+    /// True when no loop option was given at all.
+    pub(crate) fn is_empty(&self) -> bool {
+        self.supply.is_none()
+            && self.supply_tolerance.is_none()
+            && self.min_volts.is_none()
+            && self.load.is_empty()
+            && self.drops.is_empty()
+            && self.cable_m.is_none()
+            && self.awg.is_none()
+            && self.mm2.is_none()
+            && self.temp_c.is_none()
+            && self.fault_ma.is_none()
+            && self.hart_max_ohms.is_none()
+    }
+
+    /// Build the loop from the flags; `--supply` and `--min-volts` are required.
+    pub(crate) fn loop_config(&self) -> Result<LoopConfig, FieldError> {
+        let supply = self.supply.as_deref().ok_or_else(|| {
+            FieldError::new("supply", "give the nominal loop supply with --supply V")
+        })?;
+        let min_volts = self.min_volts.as_deref().ok_or_else(|| {
+            FieldError::new(
+                "min-volts",
+                "give the transmitter minimum terminal voltage with --min-volts V",
+            )
+        })?;
+        let supply = parse_in("supply", supply, "V")?;
+        let min_volts = parse_in("min-volts", min_volts, "V")?;
         let mut config = LoopConfig::new(supply, min_volts);
         if let Some(t) = &self.supply_tolerance {
             config.supply_tolerance_percent = parse_in("supply-tolerance", t, "%")?;
@@ -382,7 +415,7 @@ impl BudgetArgs {
 }
 
 pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
-    let config = args.loop_config()?;
+    let config = args.loop_args.loop_config()?;
     let b = config.budget()?;
     if args.json {
         let obj = json!({

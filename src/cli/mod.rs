@@ -9,6 +9,7 @@
 
 mod calc;
 mod sensors;
+mod store;
 
 use crate::error::FieldError;
 use clap::{Parser, Subcommand};
@@ -29,6 +30,8 @@ pub struct Cli {
 }
 
 /// The subcommands.
+// Parsed once per run; boxing the larger argument structs would buy nothing.
+#[allow(clippy::large_enum_variant)]
 #[derive(Debug, Subcommand)]
 pub enum Command {
     /// Convert a reading between mA, % of span, engineering value and volts.
@@ -43,6 +46,16 @@ pub enum Command {
     Status(calc::StatusArgs),
     /// Volts, power and reading error of a sense resistor.
     Resistor(calc::ResistorArgs),
+    /// Keep the tag register: add, edit, list, show, rename, archive tags.
+    Tag(store::TagArgs),
+    /// Write, list and search the field log; close follow-ups.
+    Note(store::NoteArgs),
+    /// Write a handoff report (Markdown, CSV or a JSON bundle).
+    Export(store::ExportArgs),
+    /// Merge a JSON bundle from another device into this store.
+    Import(store::ImportArgs),
+    /// Fill an empty store with the demo plant (Brindlemoor Water Reclamation Works).
+    Demo(store::DemoArgs),
     /// Platinum RTD (IEC 60751): resistance ↔ temperature, class tolerance, lead error.
     Rtd(sensors::RtdArgs),
     /// Thermocouple (NIST ITS-90): EMF ↔ temperature with cold-junction compensation.
@@ -84,6 +97,11 @@ pub fn run_command(command: Command, out: &mut dyn Write) -> CliResult {
         Command::Units(args) => calc::units(args, out),
         Command::Status(args) => calc::status(args, out),
         Command::Resistor(args) => calc::resistor(args, out),
+        Command::Tag(args) => store::tag(args, out),
+        Command::Note(args) => store::note(args, out),
+        Command::Export(args) => store::export(args, out),
+        Command::Import(args) => store::import(args, out),
+        Command::Demo(args) => store::demo(args, out),
         Command::Rtd(args) => sensors::rtd(args, out),
         Command::Tc(args) => sensors::tc(args, out),
         Command::Level(args) => sensors::level(args, out),

@@ -56,3 +56,90 @@ pub fn close(actual: f64, expected: f64, tol: f64, what: &str) {
         "{what}: got {actual}, expected {expected} ± {tol}"
     );
 }
+
+/// A fresh empty folder under the system temp folder, removed when dropped.
+pub struct TempDir(pub std::path::PathBuf);
+
+impl TempDir {
+    /// A new folder whose name starts with `what`.
+    pub fn new(what: &str) -> TempDir {
+        use std::sync::atomic::{AtomicU64, Ordering};
+        static N: AtomicU64 = AtomicU64::new(0);
+        let nanos = std::time::SystemTime::now()
+            .duration_since(std::time::UNIX_EPOCH)
+            .map(|d| d.as_nanos())
+            .unwrap_or(0);
+        let p = std::env::temp_dir().join(format!(
+            "loopside-test-{what}-{}-{}-{nanos}",
+            std::process::id(),
+            N.fetch_add(1, Ordering::Relaxed)
+        ));
+        std::fs::create_dir_all(&p).expect("temp folder");
+        TempDir(p)
+    }
+
+    /// The folder.
+    pub fn path(&self) -> &std::path::Path {
+        &self.0
+    }
+
+    /// The folder as a string, for command-line arguments.
+    pub fn arg(&self) -> String {
+        self.0.to_string_lossy().into_owned()
+    }
+}
+
+impl Drop for TempDir {
+    fn drop(&mut self) {
+        let _ = std::fs::remove_dir_all(&self.0);
+    }
+}
+
+/// Every file name (recursively, relative) under `dir`, sorted.
+pub fn files_under(dir: &std::path::Path) -> Vec<String> {
+    fn walk(base: &std::path::Path, dir: &std::path::Path, out: &mut Vec<String>) {
+        if let Ok(rd) = std::fs::read_dir(dir) {
+            for e in rd.flatten() {
+                let p = e.path();
+                if p.is_dir() {
+                    walk(base, &p, out);
+                } else if let Ok(rel) = p.strip_prefix(base) {
+                    out.push(rel.to_string_lossy().into_owned());
+                }
+            }
+        }
+    }
+    let mut v = Vec::new();
+    walk(dir, dir, &mut v);
+    v.sort();
+    v
+}
+
+/// A small deterministic random number source for tests (xorshift64*).
+pub struct Rng(pub u64);
+
+impl Rng {
+    /// Seeded from the clock, printed so a failure can be replayed.
+    pub fn from_clock(what: &str) -> Rng {
+        let seed = std::time::SystemTime::now()
+            .duration_since(std::time::UNIX_EPOCH)
+            .map(|d| d.as_nanos() as u64)
+            .unwrap_or(1)
+            | 1;
+        eprintln!("{what}: seed {seed}");
+        Rng(seed)
+    }
+
+    /// The next 64 random bits.
+    pub fn next(&mut self) -> u64 {
+        self.0 ^= self.0 >> 12;
+        self.0 ^= self.0 << 25;
+        self.0 ^= self.0 >> 27;
+        self.0.wrapping_mul(0x2545_f491_4f6c_dd1d)
+    }
+
+    /// A number in `0..n`.
+    pub fn below(&mut self, n: u64) -> u64 {
+        self.next() % n.max(1)
+    }
+}

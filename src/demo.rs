@@ -1,0 +1,340 @@
+//! The demo plant: Brindlemoor Water Reclamation Works, an invented municipal plant.
+//!
+//! Seven tags with the ranges, transfers and loops of the product brief, and a few days
+//! of plausible log entries (an open follow-up, a loop check that failed as found and
+//! passed as left, a fault-finding session that found a loose wire, ordinary notes).
+//! People appear by initials only. [`fill`] puts it all into an empty store and refuses
+//! a store that already holds anything.
+//!
+//! Where the brief gives no figure, the plant standard assumed here is a 24 V supply and
+//! a 10.5 V transmitter minimum; those are marked in each tag's notes.
+
+use crate::budget::{Cable, LoopConfig, SeriesElement};
+use crate::error::{FieldError, Result};
+use crate::journal::{Entry, Kind, TagId};
+use crate::scale::{CharTable, RootLocation, Scale, SignalSpan, TablePoint, Transfer};
+use crate::store::{Store, StoreError, StoreResult};
+use crate::tag::Tag;
+use crate::wire::Conductor;
+use chrono::{DateTime, Duration, FixedOffset, NaiveTime, TimeZone};
+use serde_json::json;
+
+/// Name of the demo plant.
+pub const PLANT: &str = "Brindlemoor Water Reclamation Works";
+
+/// LT-605 tank: inside diameter, m.
+pub const TANK_DIAMETER_M: f64 = 2.0;
+/// LT-605 tank: volume when full, m³.
+pub const TANK_FULL_M3: f64 = 12.0;
+
+/// Volume of liquid in a horizontal cylinder of diameter `d` and full volume `full` at
+/// level `h` (from the bottom): length × circular-segment area,
+/// A = r²·acos((r − h)/r) − (r − h)·√(2rh − h²).
+pub fn horizontal_cylinder_volume(h: f64, d: f64, full: f64) -> f64 {
+    let r = d / 2.0;
+    let length = full / (std::f64::consts::PI * r * r);
+    let h = h.clamp(0.0, d);
+    let area = r * r * ((r - h) / r).clamp(-1.0, 1.0).acos()
+        - (r - h) * (2.0 * r * h - h * h).max(0.0).sqrt();
+    length * area
+}
+
+/// The LT-605 level → volume table: 21 points, every 0.1 m from empty to full.
+pub fn tank_table() -> Result<CharTable> {
+    let points = (0..=20)
+        .map(|i| {
+            let h = f64::from(i) * TANK_DIAMETER_M / 20.0;
+            TablePoint {
+                input: h,
+                output: horizontal_cylinder_volume(h, TANK_DIAMETER_M, TANK_FULL_M3),
+            }
+        })
+        .collect();
+    CharTable::new(points, "m³")
+}
+
+/// A loop on the plant standard supply, with the brief's series elements. Tags that get
+/// one also get [`ASSUMED`] in their notes.
+fn plant_loop(elements: Vec<SeriesElement>) -> LoopConfig {
+    let mut l = LoopConfig::new(24.0, 10.5);
+    l.elements = elements;
+    l
+}
+
+const ASSUMED: &str = "Supply 24 V and transmitter minimum 10.5 V are the plant standard.";
+
+fn tag(number: &str, service: &str, area: &str, scale: Scale) -> Result<Tag> {
+    let mut t = Tag::new(number, scale)?;
+    t.service = service.to_string();
+    t.area = area.to_string();
+    Ok(t)
+}
+
+/// The seven demo tags, as in the product brief.
+pub fn tags() -> Result<Vec<Tag>> {
+    let mut lt101 = tag(
+        "LT-101",
+        "Inlet wet well level",
+        "Inlet works, JB-01",
+        Scale::linear(0.0, 4.5, "m")?,
+    )?;
+    let mut l = plant_loop(vec![SeriesElement::ohms("PLC input", 250.0)]);
+    l.cable = Some(Cable {
+        one_way_m: 180.0,
+        conductor: Conductor::mm2(1.0)?,
+        temp_c: 20.0,
+    });
+    lt101.loop_config = Some(l);
+    lt101.notes = "Transmitter minimum 10.5 V from the datasheet; 24 V loop supply.".to_string();
+
+    let mut pt204 = tag(
+        "PT-204",
+        "Raw pump 2 discharge pressure",
+        "Raw pump house",
+        Scale::linear(0.0, 10.0, "bar")?,
+    )?;
+    pt204.hart = true;
+    pt204.notes = ASSUMED.to_string();
+    pt204.loop_config = Some(plant_loop(vec![SeriesElement::ohms(
+        "HART resistor",
+        250.0,
+    )]));
+
+    let mut ft310 = tag(
+        "FT-310",
+        "Aeration air header flow",
+        "Blower hall",
+        Scale::new(
+            0.0,
+            3000.0,
+            "m³/h",
+            Transfer::SquareRoot {
+                cutoff_percent: 1.0,
+                root_in: RootLocation::Receiver,
+            },
+            SignalSpan::default(),
+        )?,
+    )?;
+    ft310.notes = format!("DP transmitter 0–2500 Pa; square root taken in the PLC. {ASSUMED}");
+    ft310.loop_config = Some(plant_loop(vec![SeriesElement::ohms("PLC input", 250.0)]));
+
+    let mut tt412 = tag(
+        "TT-412",
+        "Digester sludge temperature",
+        "Digester 1, hazardous area",
+        Scale::linear(-20.0, 80.0, "°C")?,
+    )?;
+    tt412.notes = ASSUMED.to_string();
+    tt412.loop_config = Some(plant_loop(vec![SeriesElement::ohms("IS barrier", 340.0)]));
+
+    let mut at520 = tag(
+        "AT-520",
+        "Final effluent pH",
+        "Outfall kiosk",
+        Scale::linear(2.0, 12.0, "pH")?,
+    )?;
+    at520.notes = ASSUMED.to_string();
+    at520.loop_config = Some(plant_loop(vec![SeriesElement::drop(
+        "field indicator",
+        2.5,
+    )]));
+
+    let lt605 = tag(
+        "LT-605",
+        "Ferric dosing tank level (horizontal cylinder)",
+        "Chemical dosing bund",
+        Scale::new(
+            0.0,
+            TANK_DIAMETER_M,
+            "m",
+            Transfer::Table(tank_table()?),
+            SignalSpan::default(),
+        )?,
+    )?;
+
+    let pdt707 = tag(
+        "PDT-707",
+        "Sand filter 3 differential pressure",
+        "Filter gallery",
+        Scale::linear(250.0, 0.0, "mbar")?,
+    )?;
+
+    Ok(vec![lt101, pt204, ft310, tt412, at520, lt605, pdt707])
+}
+
+/// What [`fill`] added.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct DemoSummary {
+    /// Tags added.
+    pub tags: usize,
+    /// Entries added.
+    pub entries: usize,
+}
+
+/// Fill an empty store with the demo plant and log entries from the four days up to
+/// `now`. A store that holds anything is refused untouched.
+pub fn fill(store: &mut dyn Store, now: DateTime<FixedOffset>) -> StoreResult<DemoSummary> {
+    if !store.is_empty() {
+        return Err(StoreError::Input(FieldError::new(
+            "data-dir",
+            format!(
+                "the store already holds {} tag(s) and {} entr(ies); the demo only fills an empty store",
+                store.tags().len(),
+                store.entries().len()
+            ),
+        )));
+    }
+    let mut ids = Vec::new();
+    for t in tags()? {
+        ids.push(store.add_tag(t)?);
+    }
+    let entries = entries(&ids, now)?;
+    let n = entries.len();
+    for e in entries {
+        store.append(e)?;
+    }
+    Ok(DemoSummary {
+        tags: ids.len(),
+        entries: n,
+    })
+}
+
+/// The demo log for tag ids in the order of [`tags`], ending just before `now`.
+fn entries(ids: &[TagId], now: DateTime<FixedOffset>) -> Result<Vec<Entry>> {
+    let id = |i: usize| {
+        ids.get(i)
+            .cloned()
+            .ok_or_else(|| FieldError::new("demo", "tag list is shorter than expected"))
+    };
+    let offset = *now.offset();
+    let at = |days_ago: i64, h: u32, m: u32| -> Result<DateTime<FixedOffset>> {
+        let date = now.date_naive() - Duration::days(days_ago);
+        let time = NaiveTime::from_hms_opt(h, m, 0)
+            .ok_or_else(|| FieldError::new("demo", "bad time of day"))?;
+        offset
+            .from_local_datetime(&date.and_time(time))
+            .single()
+            .ok_or_else(|| FieldError::new("demo", "bad local time"))
+    };
+    let (lt101, pt204, ft310, tt412, at520, lt605, pdt707) =
+        (id(0)?, id(1)?, id(2)?, id(3)?, id(4)?, id(5)?, id(6)?);
+    let mut v = Vec::new();
+    v.push(Entry::new(
+        &lt101,
+        at(3, 7, 40)?,
+        "AB",
+        Kind::Note,
+        "Start-of-shift walk-down: wet well 1.80 m on the PLC, staff gauge agrees.",
+    )?);
+    let mut found = Entry::new(
+        &pt204,
+        at(3, 9, 15)?,
+        "AB",
+        Kind::LoopCheck,
+        "Five-point check as found: worst error +0.62 % of span at 50 %, outside ±0.5 %. Fail as found.",
+    )?;
+    found.payload = Some(json!({
+        "stage": "as-found",
+        "tolerance_percent_of_span": 0.5,
+        "points": [
+            {"percent": 0, "expected_ma": 4.0, "measured_ma": 4.05},
+            {"percent": 25, "expected_ma": 8.0, "measured_ma": 8.07},
+            {"percent": 50, "expected_ma": 12.0, "measured_ma": 12.099},
+            {"percent": 75, "expected_ma": 16.0, "measured_ma": 16.08},
+            {"percent": 100, "expected_ma": 20.0, "measured_ma": 20.06}
+        ],
+        "verdict": "fail"
+    }));
+    let mut left = Entry::new(
+        &pt204,
+        at(3, 10, 5)?,
+        "AB",
+        Kind::LoopCheck,
+        "Zero and span trimmed over HART. As left worst error 0.12 % of span. Pass as left.",
+    )?;
+    left.refers_to = Some(found.id.clone());
+    left.payload = Some(json!({
+        "stage": "as-left",
+        "tolerance_percent_of_span": 0.5,
+        "points": [
+            {"percent": 0, "expected_ma": 4.0, "measured_ma": 4.01},
+            {"percent": 25, "expected_ma": 8.0, "measured_ma": 8.012},
+            {"percent": 50, "expected_ma": 12.0, "measured_ma": 12.019},
+            {"percent": 75, "expected_ma": 16.0, "measured_ma": 16.01},
+            {"percent": 100, "expected_ma": 20.0, "measured_ma": 20.008}
+        ],
+        "verdict": "pass"
+    }));
+    v.push(found);
+    v.push(left);
+    let mut ff = Entry::new(
+        &lt101,
+        at(2, 13, 30)?,
+        "CD",
+        Kind::FaultFinding,
+        "Operators saw the level drop to 0 m at random. 3.2 mA at the marshalling terminals (NE 43 failure low). \
+         Positive wire loose in the transmitter head terminal; re-terminated and tightened. \
+         Now 9.8 mA steady = 1.63 m, staff gauge agrees.",
+    )?;
+    ff.payload = Some(json!({
+        "symptom_ma": 3.2,
+        "after_ma": 9.8,
+        "after_value": {"value": 1.63125, "unit": "m"},
+        "cause": "loose wire at transmitter terminal"
+    }));
+    v.push(ff);
+    v.push(Entry::new(
+        &ft310,
+        at(2, 15, 0)?,
+        "CD",
+        Kind::FollowUp,
+        "Flow reads about 2 % high at low air demand. Check the DP transmitter zero with the impulse lines equalised at the next blower stop.",
+    )?);
+    let buffers = Entry::new(
+        &at520,
+        at(1, 8, 20)?,
+        "AB",
+        Kind::FollowUp,
+        "pH 4 and pH 7 buffer bottles expire this month; order replacements before the next calibration.",
+    )?;
+    let temp = Entry::new(
+        &tt412,
+        at(1, 10, 10)?,
+        "EF",
+        Kind::Note,
+        "PLC shows 36.8 °C; reference probe in the test thermowell reads 36.6 °C. No action.",
+    )?;
+    let done = Entry::closing(
+        &buffers,
+        at(1, 11, 0)?,
+        "EF",
+        "Buffers received and stored in the lab fridge.",
+    )?;
+    v.push(buffers);
+    v.push(temp.clone());
+    v.push(done);
+    v.push(Entry::new(
+        &lt605,
+        at(1, 14, 45)?,
+        "EF",
+        Kind::Finding,
+        "Tank at 1.00 m shows 6.00 m³, half full as the table for the horizontal tank says. Sight glass agrees.",
+    )?);
+    let mut fix = Entry::new(
+        &tt412,
+        now - Duration::hours(3),
+        "EF",
+        Kind::Note,
+        "Correction: the reference probe read 36.4 °C, not 36.6 °C. Still within tolerance.",
+    )?;
+    fix.refers_to = Some(temp.id.clone());
+    v.push(fix);
+    v.push(Entry::new(
+        &pdt707,
+        now - Duration::hours(2),
+        "CD",
+        Kind::Note,
+        "Filter 3 backwashed; differential pressure fell from 180 to 40 mbar (reversed output: 40 mbar is 17.44 mA).",
+    )?);
+    Ok(v)
+}

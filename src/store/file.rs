@@ -1,0 +1,383 @@
+//! The file store: one append-only journal file in a data folder, plus a lock file.
+//!
+//! Layout of the data folder (handed in by the caller):
+//!
+//! - `loopside.journal` — header line, then one line per saved record (see
+//!   [`super::record`]). Appends write the new lines and sync the file before returning.
+//! - `loopside.lock` — held with an exclusive lock while a store is open, so a second
+//!   process gets a clear "in use" error instead of interleaving writes.
+//! - `loopside.journal.torn-…`, `…damaged-…`, `…v0-backup-…` — copies set aside by
+//!   recovery or migration; never deleted by loopside.
+//!
+//! Tag numbers never become file names; every file name here is fixed.
+//!
+//! On open the journal is read once. A torn last record (power cut mid-append) is cut
+//! off into a `torn` file and reported; every complete record before it is kept. Damage
+//! elsewhere (unreadable lines, a foreign file) makes a `damaged` copy of the whole file
+//! first, then the file is rewritten with the readable records only, and the count of
+//! what could not be read is reported.
+
+use super::record::{
+    decode_line, encode_line, sync_folder, verified_json, write_aside, write_atomically, Header,
+    Record, SCHEMA_VERSION,
+};
+use super::{Register, Store, StoreError, StoreResult};
+use std::fs::{self, File, OpenOptions, TryLockError};
+use std::io::{self, Write};
+use std::path::{Path, PathBuf};
+
+/// Name of the journal file in the data folder.
+pub const JOURNAL_FILE: &str = "loopside.journal";
+/// Name of the lock file in the data folder.
+pub const LOCK_FILE: &str = "loopside.lock";
+
+/// What happened to a file on open that the technician should know about.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub enum RecoveryKind {
+    /// The last record was incomplete (power cut or crash while saving) and was cut off.
+    TornTail,
+    /// Some records could not be read; the file was copied aside and rewritten without
+    /// them.
+    Damaged,
+    /// The file had an older schema and was migrated; the old file was kept as a backup.
+    Migrated,
+}
+
+/// One recovery action taken when the store was opened.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Recovery {
+    /// What was done.
+    pub kind: RecoveryKind,
+    /// Where the set-aside bytes or the backup are.
+    pub aside: PathBuf,
+    /// Records kept.
+    pub records_kept: usize,
+    /// Records (or record-sized pieces) that could not be read.
+    pub records_lost: usize,
+    /// The message for the technician, one line.
+    pub message: String,
+}
+
+/// A store in a data folder. Holds the folder's lock until dropped.
+#[derive(Debug)]
+pub struct FileStore {
+    folder: PathBuf,
+    journal_path: PathBuf,
+    journal: File,
+    len: u64,
+    register: Register,
+    recoveries: Vec<Recovery>,
+    _lock: File,
+}
+
+fn io_err<'a>(action: &'static str, path: &'a Path) -> impl FnOnce(io::Error) -> StoreError + 'a {
+    move |source| StoreError::Io {
+        action,
+        path: path.to_path_buf(),
+        source,
+    }
+}
+
+/// Result of reading the journal bytes.
+struct Scan {
+    header: Option<Header>,
+    records: Vec<Record>,
+    /// Byte ranges of the good lines (with their newline) after the header.
+    good: Vec<(usize, usize)>,
+    /// Lines that could not be read, excluding a trailing torn region.
+    bad_inside: usize,
+    /// Unreadable lines at the very end (the torn region), and where it starts.
+    bad_tail: usize,
+    tail_start: usize,
+    /// True when the last good record lacked its newline.
+    missing_newline: bool,
+}
+
+fn scan(bytes: &[u8]) -> Scan {
+    let mut s = Scan {
+        header: None,
+        records: Vec::new(),
+        good: Vec::new(),
+        bad_inside: 0,
+        bad_tail: 0,
+        tail_start: bytes.len(),
+        missing_newline: false,
+    };
+    let mut pos = 0;
+    let mut first = true;
+    // Bad lines seen since the last good one; they become "inside" damage if a good line
+    // follows, or the torn tail if none does.
+    let mut pending_bad = 0;
+    let mut pending_start = None;
+    while pos < bytes.len() {
+        let end = bytes[pos..]
+            .iter()
+            .position(|&b| b == b'\n')
+            .map(|i| pos + i);
+        let (line, next, has_newline) = match end {
+            Some(e) => (&bytes[pos..e], e + 1, true),
+            None => (&bytes[pos..], bytes.len(), false),
+        };
+        let ok = if first {
+            first = false;
+            match decode_line::<Header>(line) {
+                Some(h) if h.loopside == "journal" => {
+                    s.header = Some(h);
+                    true
+                }
+                _ => {
+                    // Not a header: maybe a record (header line lost), else damage.
+                    match decode_line::<Record>(line) {
+                        Some(r) => {
+                            s.records.push(r);
+                            s.good.push((pos, next));
+                            true
+                        }
+                        None => false,
+                    }
+                }
+            }
+        } else {
+            match verified_json(line).and_then(|j| serde_json::from_slice::<Record>(j).ok()) {
+                Some(r) => {
+                    s.records.push(r);
+                    s.good.push((pos, next));
+                    true
+                }
+                None => false,
+            }
+        };
+        if ok {
+            s.bad_inside += pending_bad;
+            pending_bad = 0;
+            pending_start = None;
+            s.missing_newline = !has_newline;
+        } else if !line.is_empty() || !has_newline {
+            pending_bad += 1;
+            pending_start.get_or_insert(pos);
+        }
+        pos = next;
+    }
+    s.bad_tail = pending_bad;
+    if let Some(start) = pending_start {
+        s.tail_start = start;
+    }
+    s
+}
+
+impl FileStore {
+    /// Open (or create) the store in `folder`, taking its lock. Recovery actions taken on
+    /// the way are listed by [`FileStore::recoveries`]; none of them loses a readable
+    /// record. Fails with [`StoreError::InUse`] when another process has it open.
+    pub fn open(folder: &Path) -> StoreResult<FileStore> {
+        let folder = folder.to_path_buf();
+        if !folder.is_dir() {
+            fs::create_dir_all(&folder).map_err(io_err("create the data folder", &folder))?;
+            if let Some(parent) = folder.parent().filter(|p| !p.as_os_str().is_empty()) {
+                sync_folder(parent).map_err(io_err("sync", parent))?;
+            }
+        }
+        let lock_path = folder.join(LOCK_FILE);
+        let lock = OpenOptions::new()
+            .read(true)
+            .write(true)
+            .create(true)
+            .truncate(false)
+            .open(&lock_path)
+            .map_err(io_err("open", &lock_path))?;
+        match lock.try_lock() {
+            Ok(()) => {}
+            Err(TryLockError::WouldBlock) => return Err(StoreError::InUse { folder }),
+            Err(TryLockError::Error(e)) => return Err(io_err("lock", &lock_path)(e)),
+        }
+        let journal_path = folder.join(JOURNAL_FILE);
+        let mut recoveries = Vec::new();
+        let existing = match fs::read(&journal_path) {
+            Ok(b) => Some(b),
+            Err(e) if e.kind() == io::ErrorKind::NotFound => None,
+            Err(e) => return Err(io_err("read", &journal_path)(e)),
+        };
+        let mut register = Register::default();
+        match existing {
+            None => {
+                let mut buf = Vec::new();
+                encode_line(&Header::current(), &mut buf).map_err(io_err("encode", &folder))?;
+                write_atomically(&journal_path, &buf).map_err(io_err("create", &journal_path))?;
+            }
+            Some(bytes) if bytes.is_empty() => {
+                // Created but the header never reached the disk: nothing to lose.
+                let mut buf = Vec::new();
+                encode_line(&Header::current(), &mut buf).map_err(io_err("encode", &folder))?;
+                write_atomically(&journal_path, &buf).map_err(io_err("create", &journal_path))?;
+            }
+            Some(bytes) => {
+                let s = scan(&bytes);
+                if let Some(h) = &s.header {
+                    if h.schema > SCHEMA_VERSION {
+                        return Err(StoreError::NewerSchema {
+                            path: journal_path,
+                            found: h.schema,
+                            known: SCHEMA_VERSION,
+                        });
+                    }
+                }
+                let kept = s.records.len();
+                let header_ok = s.header.is_some();
+                if s.bad_inside > 0 || !header_ok {
+                    let lost = s.bad_inside + s.bad_tail;
+                    let aside = write_aside(&journal_path, "damaged", &bytes)
+                        .map_err(io_err("copy aside", &journal_path))?;
+                    rewrite(&journal_path, &bytes, &s.good)?;
+                    let message = if kept == 0 && !header_ok {
+                        format!(
+                            "{} was not a loopside store or could not be read at all ({} bytes); it was moved to {} and an empty store started",
+                            journal_path.display(),
+                            bytes.len(),
+                            aside.display()
+                        )
+                    } else {
+                        format!(
+                            "{} was damaged: {lost} record(s) could not be read and {kept} were kept; the damaged file was copied to {}",
+                            journal_path.display(),
+                            aside.display()
+                        )
+                    };
+                    recoveries.push(Recovery {
+                        kind: RecoveryKind::Damaged,
+                        aside,
+                        records_kept: kept,
+                        records_lost: lost,
+                        message,
+                    });
+                } else if s.bad_tail > 0 {
+                    let aside = write_aside(&journal_path, "torn", &bytes[s.tail_start..])
+                        .map_err(io_err("copy aside", &journal_path))?;
+                    cut(&journal_path, s.tail_start as u64)?;
+                    recoveries.push(Recovery {
+                        kind: RecoveryKind::TornTail,
+                        aside: aside.clone(),
+                        records_kept: kept,
+                        records_lost: s.bad_tail,
+                        message: format!(
+                            "the last record in {} was incomplete (saving was interrupted) and was cut off into {}; all {kept} complete records were kept",
+                            journal_path.display(),
+                            aside.display()
+                        ),
+                    });
+                } else if s.missing_newline {
+                    // A whole record whose newline never reached the disk: finish it.
+                    let mut f = OpenOptions::new()
+                        .append(true)
+                        .open(&journal_path)
+                        .map_err(io_err("open", &journal_path))?;
+                    f.write_all(b"\n")
+                        .and_then(|()| f.sync_data())
+                        .map_err(io_err("write", &journal_path))?;
+                } else if s.header.as_ref().is_some_and(|h| h.schema < SCHEMA_VERSION) {
+                    let old = s.header.as_ref().map_or(0, |h| h.schema);
+                    let aside = write_aside(&journal_path, &format!("v{old}-backup"), &bytes)
+                        .map_err(io_err("back up", &journal_path))?;
+                    rewrite(&journal_path, &bytes, &s.good)?;
+                    recoveries.push(Recovery {
+                        kind: RecoveryKind::Migrated,
+                        aside: aside.clone(),
+                        records_kept: kept,
+                        records_lost: 0,
+                        message: format!(
+                            "{} was upgraded from schema {old} to {SCHEMA_VERSION}; the old file was kept as {}",
+                            journal_path.display(),
+                            aside.display()
+                        ),
+                    });
+                }
+                for r in s.records {
+                    register.apply(r);
+                }
+            }
+        }
+        let journal = OpenOptions::new()
+            .append(true)
+            .open(&journal_path)
+            .map_err(io_err("open", &journal_path))?;
+        let len = journal
+            .metadata()
+            .map_err(io_err("read", &journal_path))?
+            .len();
+        Ok(FileStore {
+            folder,
+            journal_path,
+            journal,
+            len,
+            register,
+            recoveries,
+            _lock: lock,
+        })
+    }
+
+    /// Recovery actions taken when the store was opened (empty for a healthy store).
+    pub fn recoveries(&self) -> &[Recovery] {
+        &self.recoveries
+    }
+
+    /// The data folder.
+    pub fn folder(&self) -> &Path {
+        &self.folder
+    }
+
+    /// The journal file.
+    pub fn journal_path(&self) -> &Path {
+        &self.journal_path
+    }
+}
+
+/// Rewrite the journal with a current header and the good lines, byte for byte.
+fn rewrite(path: &Path, bytes: &[u8], good: &[(usize, usize)]) -> StoreResult<()> {
+    let mut out = Vec::with_capacity(bytes.len());
+    encode_line(&Header::current(), &mut out).map_err(io_err("encode", path))?;
+    for &(a, b) in good {
+        out.extend_from_slice(&bytes[a..b]);
+        if out.last() != Some(&b'\n') {
+            out.push(b'\n');
+        }
+    }
+    write_atomically(path, &out).map_err(io_err("rewrite", path))
+}
+
+/// Cut the journal to `len` bytes and sync.
+fn cut(path: &Path, len: u64) -> StoreResult<()> {
+    let f = OpenOptions::new()
+        .write(true)
+        .open(path)
+        .map_err(io_err("open", path))?;
+    f.set_len(len)
+        .and_then(|()| f.sync_all())
+        .map_err(io_err("cut", path))
+}
+
+impl Store for FileStore {
+    fn register(&self) -> &Register {
+        &self.register
+    }
+
+    fn persist(&mut self, records: Vec<Record>) -> StoreResult<()> {
+        let mut buf = Vec::new();
+        for r in &records {
+            encode_line(r, &mut buf).map_err(io_err("encode", &self.journal_path))?;
+        }
+        let written = self
+            .journal
+            .write_all(&buf)
+            .and_then(|()| self.journal.sync_data());
+        if let Err(e) = written {
+            // Take back a partial write so the next append does not follow a broken line.
+            let _ = self.journal.set_len(self.len);
+            let _ = self.journal.sync_data();
+            return Err(io_err("write", &self.journal_path)(e));
+        }
+        self.len += buf.len() as u64;
+        for r in records {
+            self.register.apply(r);
+        }
+        Ok(())
+    }
+}

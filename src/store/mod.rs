@@ -1,0 +1,482 @@
+//! Where tags and the field log are kept: the only part of the core that does I/O.
+//!
+//! [`Store`] is the contract the command line, the app and the tests use. Two stores
+//! implement it: [`MemoryStore`] (tests, previews) and [`FileStore`] (a data folder handed
+//! in by the caller — the core never looks a folder up itself). Both keep the whole
+//! register in memory; they differ only in how [`Store::persist`] saves records.
+//!
+//! Everything is append-only: adding, editing, renaming, archiving a tag and writing an
+//! entry each save one new record; the last record for a tag id is its current
+//! definition. A rename changes the tag number, not its [`TagId`], so the log follows.
+//! Nothing is ever deleted; archived tags are hidden from the working list only.
+
+mod file;
+pub mod record;
+
+pub use file::{FileStore, Recovery, RecoveryKind, JOURNAL_FILE, LOCK_FILE};
+
+use crate::error::FieldError;
+use crate::journal::{self, Entry, EntryId, Query, TagId};
+use crate::report::Bundle;
+use crate::tag::{clean_number, Tag};
+use chrono::Utc;
+use record::Record;
+use serde::{Deserialize, Serialize};
+use std::cell::OnceCell;
+use std::collections::HashMap;
+use std::path::PathBuf;
+
+/// A tag as the register keeps it: its stable id and its current definition.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct TagRecord {
+    /// Stable identity; log entries point here, so renames keep the history.
+    pub id: TagId,
+    /// The tag's definition (number, range, loop …).
+    pub tag: Tag,
+}
+
+/// Why a store operation failed.
+#[derive(Debug, thiserror::Error)]
+pub enum StoreError {
+    /// The request itself was wrong (unknown tag, duplicate number, empty text …).
+    #[error("{0}")]
+    Input(#[from] FieldError),
+    /// Another loopside holds the data folder open for writing.
+    #[error("the data folder {} is in use by another loopside; close it and try again", folder.display())]
+    InUse {
+        /// The data folder.
+        folder: PathBuf,
+    },
+    /// The store was written by a newer loopside; it is left untouched.
+    #[error("{} was written by a newer loopside (schema {found}; this one reads up to {known}); it was not changed — update loopside", path.display())]
+    NewerSchema {
+        /// The file.
+        path: PathBuf,
+        /// Version found in the file.
+        found: u32,
+        /// Highest version this build reads.
+        known: u32,
+    },
+    /// Reading or writing a file failed; nothing was acknowledged.
+    #[error("cannot {action} {}: {source}", path.display())]
+    Io {
+        /// What was being done ("write", "open" …).
+        action: &'static str,
+        /// The file or folder.
+        path: PathBuf,
+        /// The operating system's error.
+        source: std::io::Error,
+    },
+}
+
+/// A store operation's result.
+pub type StoreResult<T> = std::result::Result<T, StoreError>;
+
+/// The in-memory register both stores share: tags, entries and their indexes.
+#[derive(Debug, Default)]
+pub struct Register {
+    tags: Vec<TagRecord>,
+    tag_pos: HashMap<TagId, usize>,
+    entries: Vec<Entry>,
+    entry_pos: OnceCell<HashMap<EntryId, usize>>,
+}
+
+impl Register {
+    /// Apply one saved record.
+    pub fn apply(&mut self, record: Record) {
+        match record {
+            Record::Tag(t) => match self.tag_pos.get(&t.id) {
+                Some(&i) => self.tags[i] = t,
+                None => {
+                    self.tag_pos.insert(t.id.clone(), self.tags.len());
+                    self.tags.push(t);
+                }
+            },
+            Record::Entry(e) => {
+                if let Some(index) = self.entry_pos.get_mut() {
+                    if index.contains_key(&e.id) {
+                        return;
+                    }
+                    index.insert(e.id.clone(), self.entries.len());
+                }
+                self.entries.push(e);
+            }
+        }
+    }
+
+    fn entry_index(&self) -> &HashMap<EntryId, usize> {
+        // Built on first use so that opening a large store does not pay for it.
+        self.entry_pos.get_or_init(|| {
+            let mut m = HashMap::with_capacity(self.entries.len());
+            for (i, e) in self.entries.iter().enumerate() {
+                m.entry(e.id.clone()).or_insert(i);
+            }
+            m
+        })
+    }
+}
+
+/// What an import did.
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
+pub struct ImportReport {
+    /// Tags that were new here and were added.
+    pub tags_added: usize,
+    /// Entries that were new here and were added.
+    pub entries_added: usize,
+    /// Entries already here (same id), left as they are.
+    pub entries_already_here: usize,
+    /// Tags whose definition here differs from the bundle's; the one here was kept.
+    pub conflicts: Vec<TagConflict>,
+}
+
+/// A tag defined differently here and in an imported bundle.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct TagConflict {
+    /// Tag number here.
+    pub number: String,
+    /// What differs, in words.
+    pub detail: String,
+}
+
+/// Storage for the tag register and the field log.
+///
+/// Implementors provide the register and [`Store::persist`]; everything else is shared.
+/// A method that returns `Ok` has saved durably (for the file store: written and synced).
+pub trait Store {
+    /// The register as it stands.
+    fn register(&self) -> &Register;
+
+    /// Save `records` durably, in order, then apply them to the register. Either all are
+    /// acknowledged or an error is returned.
+    fn persist(&mut self, records: Vec<Record>) -> StoreResult<()>;
+
+    /// Every tag, archived ones included, in the order they were first added.
+    fn tags(&self) -> &[TagRecord] {
+        &self.register().tags
+    }
+
+    /// Every entry in the order it was saved.
+    fn entries(&self) -> &[Entry] {
+        &self.register().entries
+    }
+
+    /// True when the store holds no tags and no entries.
+    fn is_empty(&self) -> bool {
+        self.tags().is_empty() && self.entries().is_empty()
+    }
+
+    /// The tag with this number: exact match first, then a unique case-insensitive one.
+    fn tag(&self, number: &str) -> Option<&TagRecord> {
+        let n = number.trim();
+        if let Some(t) = self.tags().iter().find(|t| t.tag.number == n) {
+            return Some(t);
+        }
+        let lower = n.to_lowercase();
+        let mut matches = self
+            .tags()
+            .iter()
+            .filter(|t| t.tag.number.to_lowercase() == lower);
+        match (matches.next(), matches.next()) {
+            (Some(t), None) => Some(t),
+            _ => None,
+        }
+    }
+
+    /// The tag with this number, or an input error naming `field`.
+    fn require_tag(&self, number: &str) -> StoreResult<&TagRecord> {
+        self.tag(number).ok_or_else(|| {
+            StoreError::Input(FieldError::new(
+                "tag",
+                format!(
+                    "no tag '{}' in the register; add it first with `loopside tag add`",
+                    number.trim()
+                ),
+            ))
+        })
+    }
+
+    /// The tag with this id.
+    fn tag_by_id(&self, id: &TagId) -> Option<&TagRecord> {
+        let r = self.register();
+        r.tag_pos.get(id).map(|&i| &r.tags[i])
+    }
+
+    /// The current number of the tag with this id (or the id itself if unknown).
+    fn tag_number(&self, id: &TagId) -> String {
+        self.tag_by_id(id)
+            .map(|t| t.tag.number.clone())
+            .unwrap_or_else(|| format!("(unknown tag {id})"))
+    }
+
+    /// The entry with this id.
+    fn entry(&self, id: &EntryId) -> Option<&Entry> {
+        let r = self.register();
+        r.entry_index().get(id).map(|&i| &r.entries[i])
+    }
+
+    /// The entry whose id is `text` or starts with it (at least 6 characters, unique).
+    fn find_entry(&self, text: &str) -> StoreResult<&Entry> {
+        let t = text.trim();
+        if let Some(e) = self.entry(&EntryId(t.to_string())) {
+            return Ok(e);
+        }
+        let not_found = |why: &str| StoreError::Input(FieldError::new("id", why.to_string()));
+        if t.chars().count() < 6 {
+            return Err(not_found(&format!(
+                "no entry '{t}'; give the whole id or at least its first 6 characters"
+            )));
+        }
+        let mut found = self.entries().iter().filter(|e| e.id.0.starts_with(t));
+        match (found.next(), found.next()) {
+            (Some(e), None) => Ok(e),
+            (None, _) => Err(not_found(&format!("no entry '{t}' in the log"))),
+            _ => Err(not_found(&format!(
+                "'{t}' matches more than one entry; give more of the id"
+            ))),
+        }
+    }
+
+    /// Add a new tag; its number must not be in use (archived tags included).
+    fn add_tag(&mut self, tag: Tag) -> StoreResult<TagId> {
+        tag.validate()?;
+        if let Some(other) = self.tags().iter().find(|t| t.tag.number == tag.number) {
+            return Err(FieldError::new(
+                "tag",
+                format!(
+                    "'{}' is already in the register{}",
+                    other.tag.number,
+                    if other.tag.archived {
+                        " (archived)"
+                    } else {
+                        ""
+                    }
+                ),
+            )
+            .into());
+        }
+        let id = TagId::generate(Utc::now());
+        self.persist(vec![Record::Tag(TagRecord {
+            id: id.clone(),
+            tag,
+        })])?;
+        Ok(id)
+    }
+
+    /// Save a changed definition for tag `id` (edit, rename, archive). A new number must
+    /// not be in use by another tag.
+    fn update_tag(&mut self, id: &TagId, tag: Tag) -> StoreResult<()> {
+        tag.validate()?;
+        let Some(current) = self.tag_by_id(id) else {
+            return Err(FieldError::new("tag", format!("no tag with id {id}")).into());
+        };
+        if current.tag == tag {
+            return Ok(());
+        }
+        if let Some(other) = self
+            .tags()
+            .iter()
+            .find(|t| t.tag.number == tag.number && &t.id != id)
+        {
+            return Err(FieldError::new(
+                "new number",
+                format!("'{}' is already in the register", other.tag.number),
+            )
+            .into());
+        }
+        self.persist(vec![Record::Tag(TagRecord {
+            id: id.clone(),
+            tag,
+        })])
+    }
+
+    /// Give a tag a new number; its log entries follow (they refer to its id).
+    fn rename_tag(&mut self, number: &str, new_number: &str) -> StoreResult<()> {
+        let new_number = clean_number(new_number).map_err(|e| e.renamed("new number"))?;
+        let record = self.require_tag(number)?.clone();
+        let mut tag = record.tag;
+        tag.number = new_number;
+        self.update_tag(&record.id, tag)
+    }
+
+    /// Archive (or restore) a tag: it leaves the working list, keeps its log.
+    fn set_archived(&mut self, number: &str, archived: bool) -> StoreResult<()> {
+        let record = self.require_tag(number)?.clone();
+        let mut tag = record.tag;
+        tag.archived = archived;
+        self.update_tag(&record.id, tag)
+    }
+
+    /// Save one entry; returns its id once it is durable. The tag must exist, the id must
+    /// be new, and a `refers_to` must name an entry in the log.
+    fn append(&mut self, entry: Entry) -> StoreResult<EntryId> {
+        self.check_entry(&entry)?;
+        let id = entry.id.clone();
+        self.persist(vec![Record::Entry(entry)])?;
+        Ok(id)
+    }
+
+    /// Check an entry against the register before saving it.
+    fn check_entry(&self, entry: &Entry) -> StoreResult<()> {
+        entry.validate()?;
+        if self.tag_by_id(&entry.tag).is_none() {
+            return Err(FieldError::new("tag", format!("no tag with id {}", entry.tag)).into());
+        }
+        if self.entry(&entry.id).is_some() {
+            return Err(
+                FieldError::new("id", format!("{} is already in the log", entry.id)).into(),
+            );
+        }
+        if let Some(r) = &entry.refers_to {
+            if self.entry(r).is_none() {
+                return Err(
+                    FieldError::new("refers_to", format!("no entry {r} in the log")).into(),
+                );
+            }
+        }
+        Ok(())
+    }
+
+    /// Entries matching `query`, in log order.
+    fn search(&self, query: &Query) -> Vec<&Entry> {
+        journal::search(self.entries(), query)
+    }
+
+    /// Merge a bundle from another device. Entries are matched by id: ones already here
+    /// are skipped, so importing the same bundle twice adds nothing. A bundle tag that
+    /// matches a tag here (same id, or same number) is used as that tag; if its
+    /// definition differs, the one here is kept and the difference is reported.
+    fn import(&mut self, bundle: &Bundle) -> StoreResult<ImportReport> {
+        let mut report = ImportReport::default();
+        let mut records = Vec::new();
+        let mut map: HashMap<TagId, TagId> = HashMap::new();
+        for incoming in &bundle.tags {
+            incoming.tag.validate().map_err(|e| {
+                FieldError::new(
+                    "bundle",
+                    format!("tag '{}' is not valid: {e}", incoming.tag.number),
+                )
+            })?;
+            let here = self
+                .tag_by_id(&incoming.id)
+                .or_else(|| {
+                    self.tags()
+                        .iter()
+                        .find(|t| t.tag.number == incoming.tag.number)
+                })
+                .cloned();
+            match here {
+                Some(here) => {
+                    if here.tag != incoming.tag {
+                        report.conflicts.push(TagConflict {
+                            number: here.tag.number.clone(),
+                            detail: describe_difference(&here.tag, &incoming.tag),
+                        });
+                    }
+                    map.insert(incoming.id.clone(), here.id.clone());
+                }
+                None => {
+                    map.insert(incoming.id.clone(), incoming.id.clone());
+                    records.push(Record::Tag(incoming.clone()));
+                    report.tags_added += 1;
+                }
+            }
+        }
+        let mut seen = std::collections::HashSet::new();
+        for e in &bundle.entries {
+            if self.entry(&e.id).is_some() || !seen.insert(e.id.clone()) {
+                report.entries_already_here += 1;
+                continue;
+            }
+            let mut e = e.clone();
+            match map.get(&e.tag) {
+                Some(local) => e.tag = local.clone(),
+                None if self.tag_by_id(&e.tag).is_some() => {}
+                None => {
+                    return Err(FieldError::new(
+                        "bundle",
+                        format!("entry {} refers to a tag the bundle does not define", e.id),
+                    )
+                    .into())
+                }
+            }
+            e.validate()
+                .map_err(|err| FieldError::new("bundle", format!("entry {}: {err}", e.id)))?;
+            records.push(Record::Entry(e));
+            report.entries_added += 1;
+        }
+        if !records.is_empty() {
+            self.persist(records)?;
+        }
+        Ok(report)
+    }
+}
+
+/// The fields that differ between two definitions of a tag, in words.
+fn describe_difference(here: &Tag, there: &Tag) -> String {
+    let mut parts = Vec::new();
+    if here.number != there.number {
+        parts.push(format!("number '{}' vs '{}'", here.number, there.number));
+    }
+    if here.service != there.service {
+        parts.push(format!("service '{}' vs '{}'", here.service, there.service));
+    }
+    if here.area != there.area {
+        parts.push("area".to_string());
+    }
+    if here.scale != there.scale {
+        parts.push(format!(
+            "range {}..{} {} vs {}..{} {}",
+            here.scale.lrv,
+            here.scale.urv,
+            here.scale.unit,
+            there.scale.lrv,
+            there.scale.urv,
+            there.scale.unit
+        ));
+    }
+    if here.loop_config != there.loop_config {
+        parts.push("loop".to_string());
+    }
+    if here.hart != there.hart {
+        parts.push("HART".to_string());
+    }
+    if here.tolerance_percent != there.tolerance_percent {
+        parts.push("tolerance".to_string());
+    }
+    if here.bands != there.bands {
+        parts.push("signal bands".to_string());
+    }
+    if here.notes != there.notes {
+        parts.push("notes".to_string());
+    }
+    if here.archived != there.archived {
+        parts.push("archived".to_string());
+    }
+    format!("differs in {}; kept the definition here", parts.join(", "))
+}
+
+/// A store that lives only in memory: for tests, previews and the UI's first draft.
+#[derive(Debug, Default)]
+pub struct MemoryStore {
+    register: Register,
+}
+
+impl MemoryStore {
+    /// An empty store.
+    pub fn new() -> MemoryStore {
+        MemoryStore::default()
+    }
+}
+
+impl Store for MemoryStore {
+    fn register(&self) -> &Register {
+        &self.register
+    }
+
+    fn persist(&mut self, records: Vec<Record>) -> StoreResult<()> {
+        for r in records {
+            self.register.apply(r);
+        }
+        Ok(())
+    }
+}

@@ -1,0 +1,368 @@
+//! The register and log subcommands, run as a technician would run them.
+
+mod util;
+
+use util::{loopside, loopside_json, loopside_refuses, TempDir};
+
+fn d(dir: &TempDir) -> [String; 2] {
+    ["--data-dir".to_string(), dir.arg()]
+}
+
+fn run(dir: &TempDir, args: &[&str]) -> String {
+    let mut all: Vec<String> = args.iter().map(|s| s.to_string()).collect();
+    all.extend(d(dir));
+    let refs: Vec<&str> = all.iter().map(String::as_str).collect();
+    let out = loopside(&refs);
+    assert!(
+        out.status.success(),
+        "loopside {args:?} failed: {}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    String::from_utf8(out.stdout).unwrap()
+}
+
+fn json(dir: &TempDir, args: &[&str]) -> serde_json::Value {
+    let mut all: Vec<String> = args.iter().map(|s| s.to_string()).collect();
+    all.extend(d(dir));
+    let refs: Vec<&str> = all.iter().map(String::as_str).collect();
+    loopside_json(&refs)
+}
+
+fn refuses(dir: &TempDir, args: &[&str]) -> String {
+    let mut all: Vec<String> = args.iter().map(|s| s.to_string()).collect();
+    all.extend(d(dir));
+    let refs: Vec<&str> = all.iter().map(String::as_str).collect();
+    loopside_refuses(&refs)
+}
+
+#[test]
+fn demo_fills_an_empty_store_once() {
+    let dir = TempDir::new("cli-demo");
+    let out = run(&dir, &["demo"]);
+    assert!(out.contains("Brindlemoor Water Reclamation Works"));
+    let tags = json(&dir, &["tag", "list", "--json"]);
+    assert_eq!(tags.as_array().unwrap().len(), 7);
+    let before = json(&dir, &["note", "list", "--json"]);
+    let e = refuses(&dir, &["demo"]);
+    assert!(
+        e.contains("data-dir") && e.contains("only fills an empty store"),
+        "{e}"
+    );
+    assert_eq!(json(&dir, &["note", "list", "--json"]), before, "untouched");
+}
+
+#[test]
+fn add_a_tag_write_notes_and_find_them() {
+    let dir = TempDir::new("cli-notes");
+    run(
+        &dir,
+        &[
+            "tag",
+            "add",
+            "LT-101",
+            "--range",
+            "0..4,5",
+            "--unit",
+            "m",
+            "--service",
+            "Inlet wet well level",
+            "--supply",
+            "24",
+            "--min-volts",
+            "10,5",
+            "--load",
+            "PLC input=250",
+            "--mm2",
+            "1.0",
+            "--cable-m",
+            "180",
+        ],
+    );
+    let t = json(&dir, &["tag", "show", "LT-101", "--json"]);
+    assert_eq!(t["tag"]["scale"]["urv"], 4.5);
+    assert_eq!(t["tag"]["loop_config"]["supply_volts"], 24.0);
+    assert_eq!(t["tag"]["loop_config"]["cable"]["one_way_m"], 180.0);
+
+    let id = run(
+        &dir,
+        &[
+            "note",
+            "add",
+            "LT-101",
+            "3.2 mA at terminals; loose wire re-made",
+            "--kind",
+            "fault-finding",
+            "--author",
+            "CD",
+            "--payload",
+            "{\"measured_ma\": 3.2}",
+        ],
+    );
+    let id = id.trim();
+    assert_eq!(id.len(), 29, "one id on stdout: {id}");
+    let follow = run(
+        &dir,
+        &[
+            "note",
+            "add",
+            "LT-101",
+            "Check gland at next shutdown",
+            "--kind",
+            "follow-up",
+            "--author",
+            "AB",
+        ],
+    );
+
+    let list = json(&dir, &["note", "list", "--json"]);
+    let arr = list.as_array().unwrap();
+    assert_eq!(arr.len(), 2);
+    for key in ["id", "tag", "time", "kind", "text"] {
+        assert!(arr[0].get(key).is_some(), "note list --json has {key}");
+    }
+    assert_eq!(arr[0]["id"], id);
+    assert_eq!(arr[0]["tag"], "LT-101");
+    assert_eq!(arr[0]["kind"], "fault-finding");
+    assert_eq!(arr[0]["payload"]["measured_ma"], 3.2);
+
+    let found = json(&dir, &["note", "list", "--search", "LOOSE WIRE", "--json"]);
+    assert_eq!(found.as_array().unwrap().len(), 1);
+    let open = json(&dir, &["note", "list", "--open", "--json"]);
+    assert_eq!(open.as_array().unwrap().len(), 1);
+
+    // Close the follow-up by a short prefix of its id: a new entry, the old one kept.
+    run(
+        &dir,
+        &["note", "done", &follow.trim()[..12], "--author", "EF"],
+    );
+    assert!(json(&dir, &["note", "list", "--open", "--json"])
+        .as_array()
+        .unwrap()
+        .is_empty());
+    assert_eq!(
+        json(&dir, &["note", "list", "--json"])
+            .as_array()
+            .unwrap()
+            .len(),
+        3
+    );
+    let e = refuses(&dir, &["note", "done", follow.trim()]);
+    assert!(
+        e.contains("already done") || e.contains("not an open follow-up"),
+        "{e}"
+    );
+
+    // Dates: today is included by --until today; nothing since tomorrow.
+    let today = chrono::Local::now().format("%Y-%m-%d").to_string();
+    let tomorrow = (chrono::Local::now() + chrono::Duration::days(1))
+        .format("%Y-%m-%d")
+        .to_string();
+    assert_eq!(
+        json(&dir, &["note", "list", "--until", &today, "--json"])
+            .as_array()
+            .unwrap()
+            .len(),
+        3
+    );
+    assert!(
+        json(&dir, &["note", "list", "--since", &tomorrow, "--json"])
+            .as_array()
+            .unwrap()
+            .is_empty()
+    );
+}
+
+#[test]
+fn rename_and_archive_keep_the_log() {
+    let dir = TempDir::new("cli-rename");
+    run(&dir, &["demo"]);
+    run(&dir, &["tag", "rename", "PT-204", "PT-204A"]);
+    let notes = json(&dir, &["note", "list", "PT-204A", "--json"]);
+    assert_eq!(
+        notes.as_array().unwrap().len(),
+        2,
+        "the log followed the rename"
+    );
+    run(&dir, &["tag", "archive", "PT-204A"]);
+    let list = json(&dir, &["tag", "list", "--json"]);
+    assert_eq!(
+        list.as_array().unwrap().len(),
+        6,
+        "archived tags leave the working list"
+    );
+    let all = json(&dir, &["tag", "list", "--all", "--json"]);
+    assert_eq!(all.as_array().unwrap().len(), 7, "but are never deleted");
+    run(
+        &dir,
+        &[
+            "tag",
+            "edit",
+            "LT-101",
+            "--tolerance",
+            "0,25",
+            "--area",
+            "JB-02",
+        ],
+    );
+    let t = json(&dir, &["tag", "show", "LT-101", "--json"]);
+    assert_eq!(t["tag"]["tolerance_percent"], 0.25);
+    assert_eq!(t["tag"]["area"], "JB-02");
+    assert_eq!(
+        t["tag"]["loop_config"]["supply_volts"], 24.0,
+        "loop kept when not given"
+    );
+}
+
+#[test]
+fn export_and_import_between_devices() {
+    let a = TempDir::new("cli-device-a");
+    let b = TempDir::new("cli-device-b");
+    run(&a, &["demo"]);
+    let bundle = a.path().join("handoff.json");
+    let msg = run(
+        &a,
+        &[
+            "export",
+            "--format",
+            "json",
+            "--out",
+            bundle.to_str().unwrap(),
+        ],
+    );
+    assert!(msg.contains("wrote 11 entries on 7 tags"), "{msg}");
+    let r1 = json(&b, &["import", bundle.to_str().unwrap(), "--json"]);
+    assert_eq!(r1["entries_added"], 11);
+    let r2 = json(&b, &["import", bundle.to_str().unwrap(), "--json"]);
+    assert_eq!(r2["entries_added"], 0);
+    assert_eq!(r2["tags_added"], 0);
+    assert_eq!(
+        json(&a, &["note", "list", "--json"]),
+        json(&b, &["note", "list", "--json"])
+    );
+    let md = run(&a, &["export", "--format", "md", "--tag", "LT-101"]);
+    assert!(md.contains("## LT-101 — Inlet wet well level"));
+    assert!(!md.contains("PT-204"));
+    let csv = run(&a, &["export", "--format", "csv"]);
+    assert_eq!(csv.lines().count(), 1 + 11, "header and one line per entry");
+}
+
+#[test]
+fn bad_input_names_the_field() {
+    let dir = TempDir::new("cli-bad");
+    run(&dir, &["demo"]);
+    assert!(refuses(&dir, &["note", "add", "XX-999", "text"]).contains("tag:"));
+    assert!(refuses(&dir, &["note", "add", "LT-101", "text", "--kind", "memo"]).contains("kind:"));
+    assert!(refuses(&dir, &["note", "add", "LT-101", "   "]).contains("text:"));
+    assert!(refuses(
+        &dir,
+        &["note", "add", "LT-101", "x", "--author", "Anna Brown"]
+    )
+    .contains("author:"));
+    assert!(
+        refuses(&dir, &["note", "add", "LT-101", "x", "--payload", "{oops"]).contains("payload:")
+    );
+    assert!(refuses(&dir, &["note", "list", "--since", "30/11/2026"]).contains("since:"));
+    assert!(refuses(&dir, &["note", "done", "abc"]).contains("id:"));
+    assert!(refuses(
+        &dir,
+        &["tag", "add", "LT-101", "--range", "0..1", "--unit", "m"]
+    )
+    .contains("already"));
+    assert!(refuses(
+        &dir,
+        &["tag", "add", "X-1", "--range", "1..1", "--unit", "m"]
+    )
+    .contains("range:"));
+    assert!(refuses(
+        &dir,
+        &["tag", "add", "X-1", "--range", "0..1", "--unit", "m", "--supply", "24"]
+    )
+    .contains("min-volts:"));
+    assert!(refuses(&dir, &["tag", "rename", "LT-101", "PT-204"]).contains("new number:"));
+    let f = dir.path().join("not-a-bundle.json");
+    std::fs::write(&f, "{\"hello\": 1}").unwrap();
+    assert!(refuses(&dir, &["import", f.to_str().unwrap()]).contains("bundle:"));
+}
+
+#[test]
+fn hostile_tag_numbers_from_the_command_line_stay_text() {
+    let outer = TempDir::new("cli-hostile");
+    let data = outer.path().join("data");
+    let data_s = data.to_str().unwrap();
+    for n in ["../../x", "CON", "a/b", "..", "/tmp/evil"] {
+        let out = loopside(&[
+            "tag",
+            "add",
+            n,
+            "--range",
+            "0..1",
+            "--unit",
+            "m",
+            "--data-dir",
+            data_s,
+        ]);
+        assert!(
+            out.status.success(),
+            "{n}: {}",
+            String::from_utf8_lossy(&out.stderr)
+        );
+        let out = loopside(&["note", "add", n, "hello", "--data-dir", data_s]);
+        assert!(out.status.success());
+    }
+    let e = loopside_refuses(&[
+        "tag",
+        "add",
+        "a\u{1b}[2Jb",
+        "--range",
+        "0..1",
+        "--unit",
+        "m",
+        "--data-dir",
+        data_s,
+    ]);
+    assert!(e.contains("control characters"), "{e}");
+    assert_eq!(
+        util::files_under(outer.path()),
+        vec![
+            "data/loopside.journal".to_string(),
+            "data/loopside.lock".to_string()
+        ]
+    );
+}
+
+#[test]
+fn the_environment_variable_names_the_data_folder() {
+    let dir = TempDir::new("cli-env");
+    let out = std::process::Command::new(env!("CARGO_BIN_EXE_loopside"))
+        .args(["demo"])
+        .env("LOOPSIDE_DATA", dir.path())
+        .output()
+        .unwrap();
+    assert!(out.status.success());
+    assert!(dir.path().join("loopside.journal").exists());
+}
+
+#[test]
+fn every_store_subcommand_has_an_example() {
+    for args in [
+        vec!["tag", "--help"],
+        vec!["tag", "add", "--help"],
+        vec!["tag", "edit", "--help"],
+        vec!["tag", "list", "--help"],
+        vec!["tag", "show", "--help"],
+        vec!["tag", "rename", "--help"],
+        vec!["tag", "archive", "--help"],
+        vec!["note", "--help"],
+        vec!["note", "add", "--help"],
+        vec!["note", "done", "--help"],
+        vec!["note", "list", "--help"],
+        vec!["export", "--help"],
+        vec!["import", "--help"],
+        vec!["demo", "--help"],
+    ] {
+        let out = loopside(&args);
+        let text = String::from_utf8_lossy(&out.stdout);
+        assert!(text.contains("Example"), "{args:?} shows an example");
+        assert!(text.contains("loopside "), "{args:?}");
+    }
+}
