@@ -10,7 +10,9 @@
 //! - [`tag`] — one loop in the register; [`display`] — rounding for people;
 //! - [`cli`] — the command-line front (prints; not part of the pure core);
 //! - [`rtd`], [`thermocouple`] and [`level`] — what a temperature or DP level transmitter
-//!   should see for a given temperature or level.
+//!   should see for a given temperature or level;
+//! - [`view`] — what each screen shows, worked out and formatted (no UI toolkit); the
+//!   Slint app itself is `app` (feature `ui`), Android's entry `android`.
 
 #![warn(missing_docs)]
 
@@ -37,4 +39,11 @@ pub mod signal;
 pub mod store;
 pub mod tag;
 pub mod thermocouple;
+pub mod view;
 pub mod wire;
+
+#[cfg(feature = "ui")]
+pub mod app;
+
+#[cfg(all(feature = "ui", target_os = "android"))]
+pub mod android;

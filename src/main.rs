@@ -17,7 +17,17 @@ fn main() {
     }
 }
 
-/// With no subcommand: the app window once the UI lands; until then, the help text.
+/// With no subcommand: the app window (store in the platform data folder).
+#[cfg(all(feature = "ui", not(target_os = "android")))]
+fn open_app() {
+    if let Err(e) = loopside::app::run_desktop() {
+        eprintln!("error: {e}");
+        std::process::exit(1);
+    }
+}
+
+/// Built without the `ui` feature there is no window: print the help text instead.
+#[cfg(not(all(feature = "ui", not(target_os = "android"))))]
 fn open_app() {
     use clap::CommandFactory;
     let _ = Cli::command().print_help();

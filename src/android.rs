@@ -1,0 +1,47 @@
+//! Android entry, and the only Android-only code in loopside.
+//!
+//! `android/` builds the APK from a five-line `cdylib` whose `android_main` calls [`main`].
+//! The data folder is the app's internal storage (`internal_data_path()`), never a
+//! `directories` path. State is saved when Android asks for it (the save-state event), when
+//! the app is paused or stopped (Android may kill it in the background without another
+//! word), and when the window closes. The back button is handled in the UI (`Key.Back`).
+
+use crate::app::{load_or_demo, save, App, Shared};
+pub use slint::android::android_activity::AndroidApp;
+use slint::android::android_activity::{MainEvent, PollEvent};
+use std::cell::RefCell;
+use std::rc::Rc;
+
+/// Run the app on Android; errors are reported to logcat through stderr.
+pub fn main(android: AndroidApp) {
+    if let Err(e) = run(android) {
+        eprintln!("loopside: {e}");
+    }
+}
+
+fn run(android: AndroidApp) -> Result<(), Box<dyn std::error::Error>> {
+    let data_dir = android
+        .internal_data_path()
+        .ok_or("Android gave the app no internal data folder")?;
+    let shared: Rc<RefCell<Option<Shared>>> = Rc::new(RefCell::new(None));
+    let for_events = shared.clone();
+    slint::android::init_with_event_listener(android, move |event| {
+        if let PollEvent::Main(MainEvent::SaveState { .. } | MainEvent::Pause | MainEvent::Stop) =
+            event
+        {
+            if let Some(state) = for_events.borrow().as_ref() {
+                // Never panic inside the event loop: a state busy elsewhere is saved next time.
+                if let Ok(s) = state.try_borrow() {
+                    if let Err(e) = save(&s) {
+                        eprintln!("loopside: could not save state: {e}");
+                    }
+                }
+            }
+        }
+    })?;
+    let app = App::new(load_or_demo(data_dir)?)?;
+    *shared.borrow_mut() = Some(app.state.clone());
+    app.window.run()?;
+    save(&app.state.borrow())?;
+    Ok(())
+}

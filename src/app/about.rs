@@ -1,0 +1,44 @@
+//! About screen glue: version, data folder, licences, theme switch.
+
+use super::{model, AboutAdapter, AppState, AppWindow, Shared, Theme};
+use slint::ComponentHandle;
+
+/// The licences loopside ships under and with.
+pub const LICENCES: [&str; 3] = [
+    "loopside: MIT licence.",
+    "User interface: Slint, used under the Slint Royalty-free Desktop, Mobile and Web Applications Licence 2.0 (attribution below).",
+    "Font: B612 by Airbus and contributors, SIL Open Font License 1.1 (ui/fonts/B612-LICENSE.txt).",
+];
+
+/// Wire the adapter's callbacks.
+pub fn connect(window: &AppWindow, state: &Shared) {
+    let weak = window.as_weak();
+    let st = state.clone();
+    window.global::<AboutAdapter>().on_toggle_theme(move || {
+        let Some(w) = weak.upgrade() else { return };
+        let dark = {
+            let mut s = st.borrow_mut();
+            s.ui.dark = !s.ui.dark;
+            s.ui.dark
+        };
+        w.global::<Theme>().set_dark(dark);
+    });
+}
+
+/// Copy version, data folder and licences in.
+pub fn refresh(window: &AppWindow, state: &AppState) {
+    let a = window.global::<AboutAdapter>();
+    a.set_version(env!("CARGO_PKG_VERSION").into());
+    a.set_data_folder(
+        state
+            .data_dir
+            .as_ref()
+            .map(|d| d.display().to_string())
+            .unwrap_or_else(|| "(not saved: preview)".to_string())
+            .into(),
+    );
+    a.set_licences(model(LICENCES.iter().map(|l| (*l).into()).collect()));
+    a.set_cautions(model(
+        crate::view::CAUTIONS.iter().map(|c| (*c).into()).collect(),
+    ));
+}

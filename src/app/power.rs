@@ -1,0 +1,332 @@
+//! Power screen glue: the loop's fields as typed → [`LoopConfig`] →
+//! [`crate::view::power`] → `PowerAdapter`.
+
+use super::state::PowerForm;
+use super::{model, navigate, AppState, AppWindow, PowerAdapter, Screen, Shared};
+use crate::budget::{Cable, ElementKind, LoopConfig, SeriesElement, DEFAULT_FAULT_MA};
+use crate::display;
+use crate::error::{FieldError, Result};
+use crate::number::{parse_in, parse_number};
+use crate::view::plain;
+use crate::view::power::{view, PowerView, Slice};
+use crate::wire::Conductor;
+use slint::ComponentHandle;
+
+/// Wire the adapter's callbacks.
+pub fn connect(window: &AppWindow, state: &Shared) {
+    let adapter = window.global::<PowerAdapter>();
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_edited(move |field, text| {
+        let Some(w) = weak.upgrade() else { return };
+        {
+            let mut s = st.borrow_mut();
+            let f = &mut s.ui.power;
+            let text = text.to_string();
+            match field.as_str() {
+                "supply" => f.supply = text,
+                "tolerance" => f.tolerance = text,
+                "tx-min" => f.tx_min = text,
+                "fault" => f.fault = text,
+                "cable-m" => f.cable_m = text,
+                "cable-size" => f.cable_size = text,
+                _ => {}
+            }
+        }
+        update(&w, &st.borrow());
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_element_edited(move |i, text| {
+        let Some(w) = weak.upgrade() else { return };
+        if let Ok(i) = usize::try_from(i) {
+            if let Some(e) = st.borrow_mut().ui.power.elements.get_mut(i) {
+                e.1 = text.to_string();
+            }
+        }
+        update(&w, &st.borrow());
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_element_renamed(move |i, text| {
+        let Some(w) = weak.upgrade() else { return };
+        if let Ok(i) = usize::try_from(i) {
+            if let Some(e) = st.borrow_mut().ui.power.elements.get_mut(i) {
+                e.0 = text.to_string();
+            }
+        }
+        update(&w, &st.borrow());
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_add_element(move |kind| {
+        let Some(w) = weak.upgrade() else { return };
+        {
+            let mut s = st.borrow_mut();
+            let n = s.ui.power.elements.len() + 1;
+            let drop = kind.as_str() == "volts";
+            let (name, value) = if drop {
+                (format!("Drop {n}"), "2.5")
+            } else {
+                (format!("Resistor {n}"), "250")
+            };
+            s.ui.power.elements.push((name, value.to_string(), drop));
+        }
+        refresh(&w, &st.borrow());
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_remove_element(move |i| {
+        let Some(w) = weak.upgrade() else { return };
+        if let Ok(i) = usize::try_from(i) {
+            let mut s = st.borrow_mut();
+            if i < s.ui.power.elements.len() {
+                s.ui.power.elements.remove(i);
+            }
+        }
+        refresh(&w, &st.borrow());
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_change_tag(move || {
+        if let Some(w) = weak.upgrade() {
+            st.borrow_mut().ui.return_to = Some("power".to_string());
+            navigate(&w, &st, Screen::Tags, true);
+        }
+    });
+}
+
+/// The form filled from a loop configuration.
+pub fn form_from(tag: &str, c: &LoopConfig) -> PowerForm {
+    PowerForm {
+        tag: tag.to_string(),
+        supply: display::fixed(c.supply_volts, 1),
+        tolerance: plain(c.supply_tolerance_percent),
+        tx_min: plain(c.tx_min_volts),
+        fault: plain(c.fault_ma),
+        cable_m: c.cable.map(|k| plain(k.one_way_m)).unwrap_or_default(),
+        cable_size: c.cable.map(|k| k.conductor.label()).unwrap_or_default(),
+        elements: c
+            .elements
+            .iter()
+            .map(|e| match e.kind {
+                ElementKind::Resistance { ohms } => (e.name.clone(), plain(ohms), false),
+                ElementKind::Drop { volts } => (e.name.clone(), plain(volts), true),
+            })
+            .collect(),
+    }
+}
+
+/// Read a conductor as typed: `1.0 mm²`, `1,5 mm2`, `18 AWG`, `AWG 18`, `2/0 awg`.
+pub fn parse_conductor(text: &str) -> Result<Conductor> {
+    let t = text.trim();
+    let lower = t.to_lowercase();
+    if lower.contains("awg") {
+        let bare = lower.replace("awg", "");
+        return Conductor::parse_awg(bare.trim()).map_err(|e| e.renamed("conductor"));
+    }
+    let bare = t.trim_end_matches("mm²").trim_end_matches("mm2").trim();
+    let area = parse_number("conductor", bare)?;
+    Conductor::mm2(area).map_err(|e| e.renamed("conductor"))
+}
+
+/// Build the loop from the form; the error names the first field that is wrong.
+pub fn config_from(form: &PowerForm) -> Result<LoopConfig> {
+    let supply = parse_in("supply", &form.supply, "V")?;
+    let tx_min = parse_in("transmitter minimum", &form.tx_min, "V")?;
+    let mut c = LoopConfig::new(supply, tx_min);
+    if !form.tolerance.trim().is_empty() {
+        c.supply_tolerance_percent =
+            parse_number("tolerance", form.tolerance.trim_end_matches('%'))?;
+    }
+    c.fault_ma = if form.fault.trim().is_empty() {
+        DEFAULT_FAULT_MA
+    } else {
+        parse_in("fault current", &form.fault, "mA")?
+    };
+    for (i, (name, value, drop)) in form.elements.iter().enumerate() {
+        let field = if name.trim().is_empty() {
+            format!("element {}", i + 1)
+        } else {
+            name.trim().to_string()
+        };
+        c.elements.push(if *drop {
+            SeriesElement::drop(&field, parse_in(&field, value, "V")?)
+        } else {
+            SeriesElement::ohms(&field, parse_in(&field, value, "Ω")?)
+        });
+    }
+    if !form.cable_m.trim().is_empty() {
+        let one_way_m = parse_in("cable length", &form.cable_m, "m")?;
+        if form.cable_size.trim().is_empty() {
+            return Err(FieldError::new(
+                "conductor",
+                "is empty; type a size such as 1.0 mm² or 18 AWG",
+            ));
+        }
+        c.cable = Some(Cable {
+            one_way_m,
+            conductor: parse_conductor(&form.cable_size)?,
+            temp_c: 20.0,
+        });
+    }
+    c.validate().map_err(|e| match e.field.as_str() {
+        "supply_volts" => e.renamed("supply"),
+        "supply_tolerance_percent" => e.renamed("tolerance"),
+        "tx_min_volts" => e.renamed("transmitter minimum"),
+        "fault_ma" => e.renamed("fault current"),
+        "cable_m" => e.renamed("cable length"),
+        _ => e,
+    })?;
+    Ok(c)
+}
+
+/// Fill the form from the open tag when the tag changed, then copy everything in.
+pub fn refresh(window: &AppWindow, state: &AppState) {
+    let adapter = window.global::<PowerAdapter>();
+    let f = &state.ui.power;
+    adapter.set_supply_text(f.supply.clone().into());
+    adapter.set_tolerance_text(f.tolerance.clone().into());
+    adapter.set_tx_min_text(f.tx_min.clone().into());
+    adapter.set_fault_text(f.fault.clone().into());
+    adapter.set_cable_m_text(f.cable_m.clone().into());
+    adapter.set_cable_size_text(f.cable_size.clone().into());
+    adapter.set_elements(model(
+        f.elements
+            .iter()
+            .map(|(name, value, drop)| super::ElementRow {
+                name: name.clone().into(),
+                value: value.clone().into(),
+                unit: if *drop { "V" } else { "Ω" }.into(),
+            })
+            .collect(),
+    ));
+    update(window, state);
+}
+
+/// Make sure the Power form belongs to the open tag (called when a tag is opened).
+pub fn sync_form(state: &mut AppState) {
+    let Some(tag) = state.open_tag().cloned() else {
+        return;
+    };
+    if state.ui.power.tag == tag.number {
+        return;
+    }
+    let config = tag
+        .loop_config
+        .clone()
+        .unwrap_or_else(|| LoopConfig::new(24.0, 12.0));
+    state.ui.power = form_from(&tag.number, &config);
+}
+
+fn update(window: &AppWindow, state: &AppState) {
+    let adapter = window.global::<PowerAdapter>();
+    let tag = state.open_tag();
+    adapter.set_tag_title(
+        tag.map(|t| t.number.clone())
+            .unwrap_or_else(|| "No tag open".to_string())
+            .into(),
+    );
+    adapter.set_tag_detail(tag.map(|t| t.service.clone()).unwrap_or_default().into());
+    let hart = tag.is_some_and(|t| t.hart);
+    match config_from(&state.ui.power).and_then(|c| view(&c, hart)) {
+        Ok(v) => map_power(&adapter, &v),
+        Err(e) => {
+            adapter.set_error_field(e.field.clone().into());
+            adapter.set_error_text(e.to_string().into());
+        }
+    }
+}
+
+fn map_slices(slices: &[Slice]) -> slint::ModelRc<super::BudgetSeg> {
+    model(
+        slices
+            .iter()
+            .map(|s| super::BudgetSeg {
+                start: s.start as f32,
+                width: s.width as f32,
+                kind: s.kind.code(),
+                label: s.label.clone().into(),
+            })
+            .collect(),
+    )
+}
+
+/// Copy a worked budget into the adapter.
+pub fn map_power(adapter: &PowerAdapter, v: &PowerView) {
+    adapter.set_full_title(v.full_title.clone().into());
+    adapter.set_fault_title(v.fault_title.clone().into());
+    adapter.set_bar_full(map_slices(&v.full));
+    adapter.set_bar_fault(map_slices(&v.fault));
+    adapter.set_supply_pos(v.supply_pos as f32);
+    adapter.set_supply_label(v.supply_label.clone().into());
+    adapter.set_bar_full_description(v.full_description.clone().into());
+    adapter.set_bar_fault_description(v.fault_description.clone().into());
+    adapter.set_legend(model(
+        v.legend
+            .iter()
+            .map(|l| super::LegendRow {
+                kind: l.kind.code(),
+                name: l.name.clone().into(),
+                full: l.full.clone().into(),
+                fault: l.fault.clone().into(),
+            })
+            .collect(),
+    ));
+    adapter.set_figures(model(
+        v.figures
+            .iter()
+            .map(|f| super::Figure {
+                label: f.label.clone().into(),
+                value: f.value.clone().into(),
+                kind: f.tone.code(),
+            })
+            .collect(),
+    ));
+    adapter.set_verdict_title(v.verdict_title.clone().into());
+    adapter.set_verdict_detail(v.verdict_detail.clone().into());
+    adapter.set_verdict_kind(v.verdict_tone.code());
+    match &v.hart {
+        Some((title, detail, tone)) => {
+            adapter.set_hart_title(title.clone().into());
+            adapter.set_hart_detail(detail.clone().into());
+            adapter.set_hart_kind(tone.code());
+        }
+        None => {
+            adapter.set_hart_title("".into());
+            adapter.set_hart_detail("".into());
+            adapter.set_hart_kind(0);
+        }
+    }
+    adapter.set_error_field("".into());
+    adapter.set_error_text("".into());
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn conductors_as_typed() {
+        assert_eq!(parse_conductor("1,5 mm²").unwrap(), Conductor::Mm2(1.5));
+        assert_eq!(parse_conductor("18 AWG").unwrap(), Conductor::Awg(18));
+        assert_eq!(parse_conductor("AWG 2/0").unwrap(), Conductor::Awg(-1));
+        assert_eq!(parse_conductor("thick").unwrap_err().field, "conductor");
+    }
+
+    #[test]
+    fn form_round_trips_and_names_bad_fields() {
+        let tags = super::super::sample::tags().unwrap();
+        let c = tags[0].loop_config.clone().unwrap();
+        let form = form_from("LT-101", &c);
+        let back = config_from(&form).unwrap();
+        assert_eq!(back.elements, c.elements);
+        assert_eq!(back.supply_volts, 24.0);
+        let mut bad = form.clone();
+        bad.supply = "24 V x".to_string();
+        assert_eq!(config_from(&bad).unwrap_err().field, "supply");
+        let mut bad = form;
+        bad.elements[0].1 = "-250".to_string();
+        assert_eq!(config_from(&bad).unwrap_err().field, "PLC input");
+    }
+}

@@ -1,0 +1,240 @@
+//! Headless rendering: every screen drawn by Slint's software renderer into memory, with
+//! no display server and no GPU. Used by `examples/screens.rs`, the pixel tests and the
+//! render bench.
+//!
+//! A minimal [`Platform`] hands out [`MinimalSoftwareWindow`]s and remembers the last one
+//! per thread (Slint's platform is per thread, so parallel tests each get their own).
+
+use super::{App, AppState, Screen};
+use slint::platform::software_renderer::{MinimalSoftwareWindow, RepaintBufferType};
+use slint::platform::{Platform, WindowAdapter, WindowEvent};
+use slint::PhysicalSize;
+use slint::Rgb8Pixel;
+use std::cell::RefCell;
+use std::path::Path;
+use std::rc::Rc;
+use std::time::{Duration, Instant};
+
+/// A render size: physical pixels and the scale factor (logical px = physical / scale).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct RenderSize {
+    /// Short name used in file names (`phone`, `desktop`).
+    pub name: &'static str,
+    /// Width, physical px.
+    pub width: u32,
+    /// Height, physical px.
+    pub height: u32,
+    /// Scale factor.
+    pub scale: f32,
+}
+
+/// A phone in portrait: 1080 × 2400 at 2.75 (about 393 × 873 logical px).
+pub const PHONE: RenderSize = RenderSize {
+    name: "phone",
+    width: 1080,
+    height: 2400,
+    scale: 2.75,
+};
+
+/// A laptop window: 1280 × 800 at 1.0.
+pub const DESKTOP: RenderSize = RenderSize {
+    name: "desktop",
+    width: 1280,
+    height: 800,
+    scale: 1.0,
+};
+
+thread_local! {
+    static LAST_WINDOW: RefCell<Option<Rc<MinimalSoftwareWindow>>> = const { RefCell::new(None) };
+}
+
+/// The headless platform: software-rendered windows in memory.
+struct HeadlessPlatform {
+    start: Instant,
+}
+
+impl Platform for HeadlessPlatform {
+    fn create_window_adapter(&self) -> Result<Rc<dyn WindowAdapter>, slint::PlatformError> {
+        let window = MinimalSoftwareWindow::new(RepaintBufferType::NewBuffer);
+        LAST_WINDOW.with(|w| *w.borrow_mut() = Some(window.clone()));
+        Ok(window)
+    }
+
+    fn duration_since_start(&self) -> Duration {
+        self.start.elapsed()
+    }
+}
+
+/// Install the headless platform on this thread (a second call on the same thread is fine).
+pub fn init() -> Result<(), slint::PlatformError> {
+    match slint::platform::set_platform(Box::new(HeadlessPlatform {
+        start: Instant::now(),
+    })) {
+        Ok(()) => Ok(()),
+        Err(slint::platform::SetPlatformError::AlreadySet) => Ok(()),
+        Err(e) => Err(slint::PlatformError::Other(e.to_string())),
+    }
+}
+
+/// One rendered frame, RGB, row by row.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Frame {
+    /// Width, px.
+    pub width: u32,
+    /// Height, px.
+    pub height: u32,
+    /// `width × height` pixels.
+    pub pixels: Vec<Rgb8Pixel>,
+}
+
+impl Frame {
+    /// The pixel at (x, y) as `[r, g, b]`.
+    pub fn at(&self, x: u32, y: u32) -> [u8; 3] {
+        let p = self.pixels[(y * self.width + x) as usize];
+        [p.r, p.g, p.b]
+    }
+
+    /// Write as an 8-bit RGB PNG.
+    pub fn write_png(&self, path: &Path) -> std::io::Result<()> {
+        let file = std::fs::File::create(path)?;
+        let mut encoder = png::Encoder::new(std::io::BufWriter::new(file), self.width, self.height);
+        encoder.set_color(png::ColorType::Rgb);
+        encoder.set_depth(png::BitDepth::Eight);
+        let mut writer = encoder.write_header().map_err(std::io::Error::other)?;
+        let bytes: Vec<u8> = self.pixels.iter().flat_map(|p| [p.r, p.g, p.b]).collect();
+        writer
+            .write_image_data(&bytes)
+            .map_err(std::io::Error::other)?;
+        writer.finish().map_err(std::io::Error::other)
+    }
+}
+
+/// The app in a window of its own, drawn in memory.
+pub struct Headless {
+    /// The app.
+    pub app: App,
+    window: Rc<MinimalSoftwareWindow>,
+}
+
+impl Headless {
+    /// Create the app on the headless platform (installing it on this thread if needed).
+    pub fn new(state: AppState) -> Result<Headless, slint::PlatformError> {
+        init()?;
+        let app = App::new(state)?;
+        let window = LAST_WINDOW
+            .with(|w| w.borrow_mut().take())
+            .ok_or_else(|| slint::PlatformError::Other("no headless window was created".into()))?;
+        slint::ComponentHandle::show(&app.window)?;
+        Ok(Headless { app, window })
+    }
+
+    /// Set the window's size and scale factor.
+    pub fn resize(&self, size: RenderSize) {
+        self.window.dispatch_event(WindowEvent::ScaleFactorChanged {
+            scale_factor: size.scale,
+        });
+        self.window
+            .set_size(PhysicalSize::new(size.width, size.height));
+    }
+
+    /// Draw the current state at `size` into a new frame.
+    pub fn render(&self, size: RenderSize) -> Frame {
+        self.resize(size);
+        let mut frame = Frame {
+            width: size.width,
+            height: size.height,
+            pixels: vec![Rgb8Pixel::default(); (size.width * size.height) as usize],
+        };
+        self.draw_into(&mut frame);
+        frame
+    }
+
+    /// Draw into an existing frame of the window's size (reused by the bench).
+    pub fn draw_into(&self, frame: &mut Frame) {
+        slint::platform::update_timers_and_animations();
+        self.window.request_redraw();
+        self.window.draw_if_needed(|renderer| {
+            renderer.render(&mut frame.pixels, frame.width as usize);
+        });
+    }
+
+    /// Mark the cautions read on Find fault or Check (as the technician's tap does).
+    pub fn read_cautions(&self, screen: Screen) {
+        use slint::ComponentHandle;
+        match screen {
+            Screen::Fault => self
+                .app
+                .window
+                .global::<super::FaultAdapter>()
+                .invoke_read_cautions(),
+            Screen::Check => self
+                .app
+                .window
+                .global::<super::CheckAdapter>()
+                .invoke_read_cautions(),
+            _ => {}
+        }
+    }
+
+    /// Show the cautions again on Find fault and Check.
+    pub fn reset_cautions(&self) {
+        use slint::ComponentHandle;
+        self.app
+            .window
+            .global::<super::FaultAdapter>()
+            .set_cautions_read(false);
+        self.app
+            .window
+            .global::<super::CheckAdapter>()
+            .set_cautions_read(false);
+    }
+
+    /// Show a screen.
+    pub fn show(&self, screen: Screen) {
+        self.app.show_screen(screen);
+    }
+}
+
+/// Render every screen at `size` in light and dark, writing `OUT/<size>-<screen>-<theme>.png`.
+/// Returns the files written.
+pub fn render_all(
+    out: &Path,
+    size: RenderSize,
+) -> Result<Vec<std::path::PathBuf>, Box<dyn std::error::Error>> {
+    std::fs::create_dir_all(out)?;
+    let headless = Headless::new(AppState::demo())?;
+    let mut written = Vec::new();
+    for dark in [false, true] {
+        headless.app.set_dark(dark);
+        for screen in super::SCREENS {
+            headless.show(screen);
+            let frame = headless.render(size);
+            let name = format!(
+                "{}-{}-{}.png",
+                size.name,
+                super::screen_name(screen),
+                if dark { "dark" } else { "light" }
+            );
+            let path = out.join(name);
+            frame.write_png(&path)?;
+            written.push(path);
+        }
+        // Find fault and Check again past their cautions, to show the work itself.
+        for screen in [Screen::Fault, Screen::Check] {
+            headless.show(screen);
+            headless.read_cautions(screen);
+            let frame = headless.render(size);
+            let name = format!(
+                "{}-{}-work-{}.png",
+                size.name,
+                super::screen_name(screen),
+                if dark { "dark" } else { "light" }
+            );
+            let path = out.join(name);
+            frame.write_png(&path)?;
+            written.push(path);
+        }
+        headless.reset_cautions();
+    }
+    Ok(written)
+}

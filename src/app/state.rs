@@ -1,0 +1,190 @@
+//! What survives the app being closed or killed: the screen, the open tag, half-typed
+//! values, the theme — and, until the store lands, the register and the log.
+//!
+//! Written as one JSON file with the crash-safe sequence (temporary file in the same
+//! folder, fsync, rename over the old file, fsync the folder), so a power cut leaves
+//! either the old state or the new one. When `crate::store` lands, [`Saved`] moves into it
+//! and this module keeps only [`UiState`].
+
+use super::sample::SampleEntry;
+use super::AppState;
+use crate::tag::Tag;
+use serde::{Deserialize, Serialize};
+use std::fs;
+use std::io::Write;
+use std::path::Path;
+
+/// File name of the saved state in the data folder.
+pub const STATE_FILE: &str = "app-state.json";
+
+/// The Convert screen as the technician left it.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct ConvertState {
+    /// Field typed into: `ma`, `percent`, `value`, `volts`.
+    pub source: String,
+    /// Its text as typed.
+    pub text: String,
+    /// The resistor for volts, as typed.
+    pub ohms: String,
+    /// True when a range is typed here instead of a tag's.
+    pub typed_range: bool,
+    /// Typed LRV, URV and unit.
+    pub lrv: String,
+    /// Typed URV.
+    pub urv: String,
+    /// Typed unit.
+    pub unit: String,
+}
+
+impl Default for ConvertState {
+    fn default() -> Self {
+        ConvertState {
+            source: "ma".to_string(),
+            text: "12".to_string(),
+            ohms: "250".to_string(),
+            typed_range: false,
+            lrv: "0".to_string(),
+            urv: "100".to_string(),
+            unit: "%".to_string(),
+        }
+    }
+}
+
+/// The Power screen's fields as typed, so a half-typed budget survives.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct PowerForm {
+    /// The tag the form was filled from.
+    pub tag: String,
+    /// Supply, V.
+    pub supply: String,
+    /// Supply tolerance, %.
+    pub tolerance: String,
+    /// Transmitter minimum, V.
+    pub tx_min: String,
+    /// Fault current, mA.
+    pub fault: String,
+    /// Cable one way, m (empty: no cable).
+    pub cable_m: String,
+    /// Conductor (`1.0 mm²`, `18 AWG`).
+    pub cable_size: String,
+    /// Series elements: name, value as typed, and whether it is a volt drop.
+    pub elements: Vec<(String, String, bool)>,
+}
+
+/// Screen, open tag and half-typed values.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct UiState {
+    /// Screen name (`convert`, …).
+    pub screen: String,
+    /// The open tag's number.
+    pub open_tag: Option<String>,
+    /// Dark theme.
+    pub dark: bool,
+    /// Convert screen.
+    pub convert: ConvertState,
+    /// Power screen.
+    pub power: PowerForm,
+    /// Search text on Tags.
+    pub tag_search: String,
+    /// Log: search text and whether all tags are shown.
+    pub log_search: String,
+    /// Log shows all tags.
+    pub log_all: bool,
+    /// The screen to return to after a tag is picked.
+    pub return_to: Option<String>,
+}
+
+impl Default for UiState {
+    fn default() -> Self {
+        UiState {
+            screen: "convert".to_string(),
+            open_tag: None,
+            dark: false,
+            convert: ConvertState::default(),
+            power: PowerForm::default(),
+            tag_search: String::new(),
+            log_search: String::new(),
+            log_all: false,
+            return_to: None,
+        }
+    }
+}
+
+/// What is written to disk.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Saved {
+    /// Screen and half-typed values.
+    pub ui: UiState,
+    /// The demo plant is loaded.
+    pub demo: bool,
+    /// The register (until the store lands).
+    pub tags: Vec<Tag>,
+    /// The log (until the journal lands).
+    pub log: Vec<SampleEntry>,
+}
+
+impl Saved {
+    /// Take what must survive from the running state.
+    pub fn from_state(state: &AppState) -> Saved {
+        Saved {
+            ui: state.ui.clone(),
+            demo: state.demo,
+            tags: state.tags.clone(),
+            log: state.log.clone(),
+        }
+    }
+}
+
+/// Read the saved state, if there is one. A file that cannot be read as state is an error
+/// (it is never silently replaced).
+pub fn load(dir: &Path) -> std::io::Result<Option<Saved>> {
+    let path = dir.join(STATE_FILE);
+    match fs::read(&path) {
+        Ok(bytes) => serde_json::from_slice(&bytes).map(Some).map_err(|e| {
+            std::io::Error::new(
+                std::io::ErrorKind::InvalidData,
+                format!("{}: {e}", path.display()),
+            )
+        }),
+        Err(e) if e.kind() == std::io::ErrorKind::NotFound => Ok(None),
+        Err(e) => Err(e),
+    }
+}
+
+/// Write the state crash-safely: temporary file, fsync, rename, fsync the folder.
+pub fn save(dir: &Path, saved: &Saved) -> std::io::Result<()> {
+    fs::create_dir_all(dir)?;
+    let json = serde_json::to_vec_pretty(saved).map_err(std::io::Error::other)?;
+    let tmp = dir.join(format!("{STATE_FILE}.tmp"));
+    {
+        let mut f = fs::File::create(&tmp)?;
+        f.write_all(&json)?;
+        f.sync_all()?;
+    }
+    fs::rename(&tmp, dir.join(STATE_FILE))?;
+    #[cfg(unix)]
+    fs::File::open(dir)?.sync_all()?;
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn state_round_trips_through_disk() {
+        let dir = std::env::temp_dir().join(format!("loopside-state-{}", std::process::id()));
+        let mut state = AppState::demo();
+        state.ui.convert.text = "12,5".to_string();
+        state.ui.screen = "power".to_string();
+        save(&dir, &Saved::from_state(&state)).unwrap();
+        let back = load(&dir).unwrap().unwrap();
+        assert_eq!(back.ui, state.ui);
+        assert_eq!(back.tags.len(), 7);
+        fs::remove_dir_all(&dir).unwrap();
+        assert!(load(&dir).unwrap().is_none());
+    }
+}

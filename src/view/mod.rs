@@ -1,0 +1,86 @@
+//! View models: what each screen shows, worked out from core results and already formatted.
+//!
+//! Plain Rust with no UI toolkit in sight (the Crux contract: `view(&input) -> ViewModel`),
+//! so everything a screen shows is tested without a window. The Slint glue in `crate::app`
+//! only copies these into Slint structs. Numbers go through [`crate::display`]; positions
+//! for the pictures (band bar, budget bar) are fractions of the picture's width.
+
+pub mod bands;
+pub mod check;
+pub mod convert;
+pub mod power;
+
+use crate::display;
+use crate::scale::Scale;
+
+/// The cautions shown before fault-finding and checks (plain words; the site's own
+/// procedures come first).
+pub const CAUTIONS: [&str; 4] = [
+    "Breaking or forcing a loop moves what it controls: tell operations first, put the loop in manual or bypass it under the site's procedure, and restore it afterwards.",
+    "In a hazardous area use only equipment certified for it; respect intrinsic-safety rules (IEC 60079-14 or the local code) and the site's permits.",
+    "Isolate under the site's lockout rules; a 24 V loop cabinet can hold mains voltage too.",
+    "loopside supports, and never replaces, local codes, site procedures and licensed practice.",
+];
+
+/// A number as a person would type it, without trailing zeros: `250`, `10.5`, `-20`.
+pub fn plain(v: f64) -> String {
+    let s = display::fixed(v, 6);
+    if s.contains('.') {
+        s.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        s
+    }
+}
+
+/// A range as the register lists it: `0 – 4.5 m`, `250 – 0 mbar`.
+pub fn range_text(scale: &Scale) -> String {
+    format!("{} – {} {}", plain(scale.lrv), plain(scale.urv), scale.unit)
+        .trim_end()
+        .to_string()
+}
+
+/// How a status or verdict stands, for its colour (always shown together with words).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Tone {
+    /// Neither good nor bad.
+    Neutral,
+    /// Fine: in range, enough voltage, passed.
+    Good,
+    /// Look again: suspect current, tight margin.
+    Caution,
+    /// Wrong: failure signal, not enough voltage, failed.
+    Bad,
+    /// A valid measurement outside the span (under or over range).
+    Outside,
+    /// No signal at all.
+    Dead,
+}
+
+impl Tone {
+    /// The number the UI's colour tables use (`StatusColors.of` in `ui/widgets/card.slint`).
+    pub fn code(self) -> i32 {
+        match self {
+            Tone::Neutral => 0,
+            Tone::Good => 1,
+            Tone::Caution => 2,
+            Tone::Bad => 3,
+            Tone::Outside => 4,
+            Tone::Dead => 5,
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn plain_numbers() {
+        assert_eq!(plain(250.0), "250");
+        assert_eq!(plain(10.5), "10.5");
+        assert_eq!(plain(-20.0), "-20");
+        assert_eq!(plain(-0.0), "0");
+        let s = Scale::linear(250.0, 0.0, "mbar").unwrap();
+        assert_eq!(range_text(&s), "250 – 0 mbar");
+    }
+}

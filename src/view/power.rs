@@ -1,0 +1,347 @@
+//! The Power screen's view model: the loop budget as two stacked bars and the figures that
+//! say what to change.
+//!
+//! Both bars share one scale, the larger of the lowest supply and what the loop needs at
+//! the fault current, so a shortfall shows as a red slice past the supply line and the two
+//! bars can be compared at a glance.
+
+use crate::budget::{Budget, LoopConfig, OperatingPoint, PartRole};
+use crate::display;
+use crate::error::Result;
+use crate::view::Tone;
+
+/// One slice of a budget bar, as fractions of the bar's width.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Slice {
+    /// Left edge, 0..1.
+    pub start: f64,
+    /// Width, 0..1.
+    pub width: f64,
+    /// What the slice is.
+    pub kind: SliceKind,
+    /// Short label drawn inside the slice when it is wide enough (`10.50 V`).
+    pub label: String,
+}
+
+/// What a slice of the budget bar is.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum SliceKind {
+    /// The transmitter's minimum terminal voltage.
+    Transmitter,
+    /// A resistor or barrier.
+    Resistance,
+    /// A fixed drop.
+    Drop,
+    /// The cable.
+    Cable,
+    /// Volts to spare.
+    Spare,
+    /// Volts missing (drawn past the supply line).
+    Shortfall,
+}
+
+impl SliceKind {
+    /// The number the UI's colour table uses (`BudgetColors.of`).
+    pub fn code(self) -> i32 {
+        match self {
+            SliceKind::Transmitter => 0,
+            SliceKind::Resistance => 1,
+            SliceKind::Drop => 2,
+            SliceKind::Cable => 3,
+            SliceKind::Spare => 4,
+            SliceKind::Shortfall => 5,
+        }
+    }
+}
+
+/// One line of the legend: the slice's kind and name, its volts at 20 mA and at the fault.
+#[derive(Debug, Clone, PartialEq)]
+pub struct LegendLine {
+    /// Colour class.
+    pub kind: SliceKind,
+    /// Name.
+    pub name: String,
+    /// Volts at 20 mA.
+    pub full: String,
+    /// Volts at the fault current.
+    pub fault: String,
+}
+
+/// A labelled figure with its tone.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Figure {
+    /// What it is.
+    pub label: String,
+    /// Its value, formatted.
+    pub value: String,
+    /// How it stands.
+    pub tone: Tone,
+}
+
+/// Everything the Power screen shows.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PowerView {
+    /// The worked budget, full precision.
+    pub budget: Budget,
+    /// Bar title at 20 mA.
+    pub full_title: String,
+    /// Bar title at the fault current.
+    pub fault_title: String,
+    /// Slices at 20 mA.
+    pub full: Vec<Slice>,
+    /// Slices at the fault current.
+    pub fault: Vec<Slice>,
+    /// Where the lowest supply ends on both bars, 0..1.
+    pub supply_pos: f64,
+    /// `Supply 24.00 V`.
+    pub supply_label: String,
+    /// Each bar in words, for screen readers.
+    pub full_description: String,
+    /// The fault bar in words.
+    pub fault_description: String,
+    /// Legend lines.
+    pub legend: Vec<LegendLine>,
+    /// The verdict in a few words.
+    pub verdict_title: String,
+    /// What limits the loop, with numbers.
+    pub verdict_detail: String,
+    /// How the verdict stands.
+    pub verdict_tone: Tone,
+    /// Headroom, spare ohms, maximum cable and so on.
+    pub figures: Vec<Figure>,
+    /// HART verdict (title, detail, tone) when the tag talks HART.
+    pub hart: Option<(String, String, Tone)>,
+}
+
+/// Work out the view. Errors only for invalid input, never for "not enough volts".
+pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
+    let b = config.budget()?;
+    let need =
+        |p: &OperatingPoint| config.tx_min_volts + p.parts.iter().map(|x| x.volts).sum::<f64>();
+    let total = b
+        .lowest_supply_volts
+        .max(need(&b.at_full_scale))
+        .max(need(&b.at_fault))
+        .max(1e-9);
+    let full = slices(config, &b.at_full_scale, b.lowest_supply_volts, total);
+    let fault = slices(config, &b.at_fault, b.lowest_supply_volts, total);
+    let fault_ma = display::fixed(b.at_fault.current_ma, 1);
+
+    let mut legend = vec![LegendLine {
+        kind: SliceKind::Transmitter,
+        name: "Transmitter minimum".to_string(),
+        full: display::volts(config.tx_min_volts),
+        fault: display::volts(config.tx_min_volts),
+    }];
+    for (p_full, p_fault) in b.at_full_scale.parts.iter().zip(&b.at_fault.parts) {
+        legend.push(LegendLine {
+            kind: role_kind(p_full.role),
+            name: capitalised(&p_full.name),
+            full: display::volts(p_full.volts),
+            fault: display::volts(p_fault.volts),
+        });
+    }
+    let spare_line = |p: &OperatingPoint| {
+        if p.headroom_volts >= 0.0 {
+            display::volts(p.headroom_volts)
+        } else {
+            format!("−{}", display::volts(-p.headroom_volts))
+        }
+    };
+    legend.push(LegendLine {
+        kind: if b.ok {
+            SliceKind::Spare
+        } else {
+            SliceKind::Shortfall
+        },
+        name: "Spare (− short)".to_string(),
+        full: spare_line(&b.at_full_scale),
+        fault: spare_line(&b.at_fault),
+    });
+
+    let verdict_title = if b.ok {
+        "Enough voltage at 20 mA and at the fault current".to_string()
+    } else if b.ok_full_scale {
+        format!("Reaches 20 mA but not {fault_ma} mA: a fault would be hidden")
+    } else {
+        "Not enough voltage at 20 mA".to_string()
+    };
+    let tone_of = |ok: bool| if ok { Tone::Good } else { Tone::Bad };
+    let mut figures = vec![
+        Figure {
+            label: "Headroom at 20 mA".to_string(),
+            value: spare_line(&b.at_full_scale),
+            tone: tone_of(b.at_full_scale.ok),
+        },
+        Figure {
+            label: format!("Headroom at {fault_ma} mA"),
+            value: spare_line(&b.at_fault),
+            tone: tone_of(b.at_fault.ok),
+        },
+        Figure {
+            label: "Loop resistance".to_string(),
+            value: display::ohms(b.loop_ohms),
+            tone: Tone::Neutral,
+        },
+        Figure {
+            label: "Load still available at 20 mA".to_string(),
+            value: display::ohms(b.spare_ohms),
+            tone: tone_of(b.spare_ohms >= 0.0),
+        },
+        Figure {
+            label: "Lowest supply needed".to_string(),
+            value: display::volts(b.min_supply_fault_volts),
+            tone: tone_of(b.min_supply_fault_volts <= b.lowest_supply_volts + 1e-9),
+        },
+    ];
+    if let Some(m) = b.max_cable_m {
+        figures.push(Figure {
+            label: "Longest cable of this size (one way)".to_string(),
+            value: display::metres(m),
+            tone: Tone::Neutral,
+        });
+    }
+    let hart = hart.then(|| {
+        (
+            if b.hart_ok {
+                "HART: loop resistance in the window".to_string()
+            } else {
+                "HART: loop resistance outside the window".to_string()
+            },
+            capitalised(&b.hart_note),
+            if b.hart_ok { Tone::Good } else { Tone::Bad },
+        )
+    });
+    let describe = |p: &OperatingPoint| {
+        format!(
+            "At {} the transmitter keeps {} ({} needed)",
+            display::ma(p.current_ma),
+            display::volts(p.terminal_volts),
+            display::volts(config.tx_min_volts)
+        )
+    };
+    Ok(PowerView {
+        full_title: "At 20 mA".to_string(),
+        fault_title: format!("At {fault_ma} mA (upscale fault)"),
+        full_description: describe(&b.at_full_scale),
+        fault_description: describe(&b.at_fault),
+        full,
+        fault,
+        supply_pos: b.lowest_supply_volts / total,
+        supply_label: format!("Supply {}", display::volts(b.lowest_supply_volts)),
+        legend,
+        verdict_title,
+        verdict_detail: capitalised(&b.limit),
+        verdict_tone: tone_of(b.ok),
+        figures,
+        hart,
+        budget: b,
+    })
+}
+
+fn role_kind(role: PartRole) -> SliceKind {
+    match role {
+        PartRole::Resistance => SliceKind::Resistance,
+        PartRole::Drop => SliceKind::Drop,
+        PartRole::Cable => SliceKind::Cable,
+    }
+}
+
+/// The slices of one bar: transmitter minimum, each part, then spare or shortfall.
+fn slices(config: &LoopConfig, point: &OperatingPoint, supply: f64, total: f64) -> Vec<Slice> {
+    let mut out = Vec::new();
+    let mut at = 0.0;
+    let mut push = |volts: f64, kind: SliceKind, out: &mut Vec<Slice>| {
+        let width = (volts / total).max(0.0);
+        out.push(Slice {
+            start: at / total,
+            width,
+            kind,
+            label: display::volts(volts),
+        });
+        at += volts.max(0.0);
+    };
+    push(config.tx_min_volts, SliceKind::Transmitter, &mut out);
+    for p in &point.parts {
+        push(p.volts, role_kind(p.role), &mut out);
+    }
+    let used = config.tx_min_volts + point.parts.iter().map(|p| p.volts).sum::<f64>();
+    if supply >= used {
+        push(supply - used, SliceKind::Spare, &mut out);
+    } else {
+        push(used - supply, SliceKind::Shortfall, &mut out);
+        // A shortfall is drawn past the supply line, where the parts went over it.
+        if let Some(last) = out.last_mut() {
+            last.start = supply / total;
+        }
+    }
+    out
+}
+
+fn capitalised(text: &str) -> String {
+    let mut c = text.chars();
+    match c.next() {
+        Some(first) => first.to_uppercase().chain(c).collect(),
+        None => String::new(),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::budget::{Cable, SeriesElement};
+    use crate::wire::Conductor;
+
+    fn lt101() -> LoopConfig {
+        // Brindlemoor LT-101: 24 V, 10.5 V transmitter, 250 Ω PLC input, 180 m of 1.0 mm².
+        let mut c = LoopConfig::new(24.0, 10.5);
+        c.elements.push(SeriesElement::ohms("PLC input", 250.0));
+        c.cable = Some(Cable {
+            one_way_m: 180.0,
+            conductor: Conductor::Mm2(1.0),
+            temp_c: 20.0,
+        });
+        c
+    }
+
+    #[test]
+    fn enough_voltage_fills_to_the_supply_line() {
+        let v = view(&lt101(), false).unwrap();
+        assert_eq!(v.verdict_tone, Tone::Good);
+        assert!((v.supply_pos - 1.0).abs() < 1e-12);
+        let last = v.full.last().unwrap();
+        assert_eq!(last.kind, SliceKind::Spare);
+        assert!((last.start + last.width - 1.0).abs() < 1e-9);
+        assert!(v.hart.is_none());
+    }
+
+    #[test]
+    fn shortfall_is_drawn_past_the_supply() {
+        let mut c = lt101();
+        c.supply_volts = 16.0;
+        let v = view(&c, true).unwrap();
+        assert_eq!(v.verdict_tone, Tone::Bad);
+        assert!(v.supply_pos < 1.0);
+        let last = v.fault.last().unwrap();
+        assert_eq!(last.kind, SliceKind::Shortfall);
+        assert!((last.start - v.supply_pos).abs() < 1e-12);
+        assert!((last.start + last.width - 1.0).abs() < 1e-9);
+        // 16 V is enough at 20 mA (15.62 V needed) but not at 22 mA (16.14 V).
+        assert_eq!(v.figures[0].tone, Tone::Good);
+        assert!(v.figures[1].value.starts_with('−'), "{:?}", v.figures[1]);
+        assert_eq!(v.figures[1].tone, Tone::Bad);
+        assert!(
+            v.verdict_title.contains("not 22.0 mA"),
+            "{}",
+            v.verdict_title
+        );
+        assert!(v.hart.is_some());
+    }
+
+    #[test]
+    fn invalid_element_names_itself() {
+        let mut c = lt101();
+        c.elements.push(SeriesElement::drop("indicator", -2.5));
+        assert_eq!(view(&c, false).unwrap_err().field, "indicator");
+    }
+}
