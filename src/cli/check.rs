@@ -566,17 +566,6 @@ fn ask_value(
     }
 }
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn dates_must_be_iso() {
-        assert!(parse_date("date", "2026-12-01").is_ok());
-        assert_eq!(parse_date("date", "01/12/2026").unwrap_err().field, "date");
-    }
-}
-
 /// The sensor whose input the applied values are, if the technician said so.
 fn sensor_for_check(args: &CheckArgs, tag: &Tag) -> Result<Option<Sensor>, CliError> {
     if let Some(kind) = &args.rtd {
@@ -612,4 +601,15 @@ fn sensor_for_check(args: &CheckArgs, tag: &Tag) -> Result<Option<Sensor>, CliEr
         };
     }
     Ok(None)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn dates_must_be_iso() {
+        assert!(parse_date("date", "2026-12-01").is_ok());
+        assert_eq!(parse_date("date", "01/12/2026").unwrap_err().field, "date");
+    }
 }
