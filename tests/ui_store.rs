@@ -1,0 +1,265 @@
+//! The app over a real store: tags, checks, follow-ups and handoff reports go through
+//! `crate::store`, the demo plant lives in its own folder, and half-typed work survives a
+//! restart. Driven through the screens' adapters (what the widgets call) with Slint's
+//! testing backend, no display.
+#![cfg(feature = "ui")]
+
+use loopside::app::{
+    clear_demo, load_or_demo, save, App, AppState, CheckAdapter, LogAdapter, Screen, TagForm,
+    TagsAdapter, DEMO_DIR,
+};
+use loopside::journal::Kind;
+use loopside::store::{FileStore, MemoryStore, Store};
+use slint::{ComponentHandle, Model};
+use std::cell::Cell;
+use std::path::PathBuf;
+
+thread_local! {
+    static READY: Cell<bool> = const { Cell::new(false) };
+}
+
+fn init() {
+    READY.with(|r| {
+        if !r.get() {
+            i_slint_backend_testing::init_no_event_loop();
+            r.set(true);
+        }
+    });
+}
+
+fn app_over(state: AppState) -> App {
+    init();
+    App::new(state).unwrap()
+}
+
+/// A fresh, empty data folder for one test.
+fn data_dir(name: &str) -> PathBuf {
+    let dir = std::env::temp_dir().join(format!("loopside-ui-store-{name}-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    dir
+}
+
+fn log_texts(app: &App) -> Vec<String> {
+    let rows = app.window.global::<LogAdapter>().get_rows();
+    (0..rows.row_count())
+        .filter_map(|i| rows.row_data(i))
+        .map(|r| format!("{} {}: {}", r.tag, r.title, r.text))
+        .collect()
+}
+
+#[test]
+fn a_five_point_check_is_judged_and_saved_to_the_log() {
+    let app = app_over(AppState::demo());
+    app.show_screen(Screen::Check);
+    let check = app.window.global::<CheckAdapter>();
+    check.invoke_read_cautions();
+    // LT-101 (0–4.5 m, ±0.5 % of span). As found, the zero reads 0.12 mA high all the way
+    // up and down: +0.75 % of span at every point, a fail.
+    let expected = [4.0, 8.0, 12.0, 16.0, 20.0, 16.0, 12.0, 8.0, 4.0];
+    for (i, ma) in expected.iter().enumerate() {
+        check.invoke_found_edited(
+            i as i32,
+            format!("{:.2}", ma + 0.12).replace('.', ",").into(),
+        );
+    }
+    assert_eq!(check.get_verdict_title(), "Fail");
+    assert!(check.get_verdict_detail().contains("0.75 %"));
+    let row = check.get_rows().row_data(2).unwrap();
+    assert_eq!(row.apply, "2.2500 m", "50 % of 0–4.5 m");
+    assert_eq!(row.expected, "12.000");
+    assert_eq!(row.kind, 3, "each point outside tolerance is marked");
+    check.set_initials_text("ef".into());
+    check.invoke_save();
+    assert_eq!(check.get_error_text(), "");
+    assert!(check.get_message().starts_with("Saved the as found check"));
+    // The form moves on to as-left with an empty table.
+    assert_eq!(check.get_stage(), 1);
+    assert_eq!(check.get_rows().row_data(0).unwrap().found, "");
+    let state = app.state.borrow();
+    let saved = state.store.entries().last().unwrap();
+    assert_eq!(saved.kind, Kind::LoopCheck);
+    assert_eq!(saved.author, "EF");
+    assert_eq!(saved.payload.as_ref().unwrap()["pass"], false);
+    drop(state);
+    app.show_screen(Screen::Log);
+    assert!(
+        log_texts(&app)[0].starts_with("LT-101 Check failed: transmitter check, as found: FAIL")
+    );
+}
+
+#[test]
+fn a_missing_reading_is_named_and_nothing_is_saved() {
+    let app = app_over(AppState::demo());
+    let before = app.state.borrow().store.entries().len();
+    let check = app.window.global::<CheckAdapter>();
+    check.invoke_found_edited(0, "4.01".into());
+    check.invoke_save();
+    assert!(
+        check.get_error_text().starts_with("reading at 25 % ↑:"),
+        "{}",
+        check.get_error_text()
+    );
+    assert_eq!(app.state.borrow().store.entries().len(), before);
+}
+
+#[test]
+fn a_new_tag_is_in_the_register_and_opens() {
+    let app = app_over(AppState::demo());
+    let tags = app.window.global::<TagsAdapter>();
+    tags.invoke_new_tag();
+    let mut form: TagForm = tags.get_form();
+    form.number = "LT-606".into();
+    form.service = "Sludge holding tank level".into();
+    form.lrv = "0".into();
+    form.urv = "3,2".into();
+    form.unit = "m".into();
+    tags.invoke_save(form.clone());
+    assert_eq!(tags.get_error_text(), "");
+    let state = app.state.borrow();
+    assert_eq!(state.open_tag().unwrap().number, "LT-606");
+    assert_eq!(state.store.tag("LT-606").unwrap().tag.scale.urv, 3.2);
+    drop(state);
+    // The same number again is refused and names the field.
+    tags.invoke_new_tag();
+    tags.invoke_save(form);
+    assert_eq!(tags.get_error_field(), "tag");
+    assert!(tags.get_error_text().contains("already in the register"));
+}
+
+#[test]
+fn a_follow_up_is_marked_done_by_a_new_entry() {
+    let app = app_over(AppState::demo());
+    app.show_screen(Screen::Log);
+    let log = app.window.global::<LogAdapter>();
+    log.invoke_add_note("Order a spare 250 Ω input card".into(), "gh".into(), true);
+    let open = log.get_rows().row_data(0).unwrap();
+    assert_eq!(open.title, "Follow-up (open)");
+    let count = app.state.borrow().store.entries().len();
+    log.invoke_mark_done(open.id.clone());
+    assert_eq!(app.state.borrow().store.entries().len(), count + 1);
+    let rows = log.get_rows();
+    let first = rows.row_data(0).unwrap();
+    assert_eq!(first.title, "Follow-up done");
+    let original = (0..rows.row_count())
+        .filter_map(|i| rows.row_data(i))
+        .find(|r| r.id == open.id)
+        .unwrap();
+    assert_eq!(original.title, "Follow-up (done)");
+    // Marking it done twice is refused with a reason.
+    log.invoke_mark_done(open.id);
+    assert!(log.get_error_text().contains("already done"));
+}
+
+#[test]
+fn handoff_reports_are_written_and_a_bundle_imports_once() {
+    let dir = data_dir("export");
+    let app = app_over(AppState::demo());
+    app.show_screen(Screen::Log);
+    let log = app.window.global::<LogAdapter>();
+    log.invoke_show_all(true);
+    log.set_export_dir(dir.display().to_string().into());
+    for format in ["md", "csv", "json"] {
+        log.invoke_export_report(format.into());
+        assert!(
+            log.get_message().starts_with("Written to "),
+            "{}",
+            log.get_message()
+        );
+    }
+    let files: Vec<PathBuf> = std::fs::read_dir(&dir)
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .collect();
+    assert_eq!(files.len(), 3, "{files:?}");
+    let md = files
+        .iter()
+        .find(|p| p.extension().unwrap() == "md")
+        .unwrap();
+    assert!(std::fs::read_to_string(md).unwrap().contains("PT-204"));
+    let bundle = files
+        .iter()
+        .find(|p| p.extension().unwrap() == "json")
+        .unwrap();
+
+    // Another technician's empty app takes the bundle in whole, and only once.
+    let other = app_over(AppState::with_store(Box::new(MemoryStore::new())));
+    let log2 = other.window.global::<LogAdapter>();
+    log2.set_import_path(bundle.display().to_string().into());
+    log2.invoke_import_bundle();
+    let demo_entries = app.state.borrow().store.entries().len();
+    assert!(
+        log2.get_message()
+            .contains(&format!("{demo_entries} entr(ies)")),
+        "{}",
+        log2.get_message()
+    );
+    assert_eq!(other.state.borrow().store.entries().len(), demo_entries);
+    log2.invoke_import_bundle();
+    assert!(log2
+        .get_message()
+        .starts_with("Imported 0 tag(s) and 0 entr(ies)"));
+    // A file that is not a bundle is refused, and says so.
+    log2.set_import_path(md.display().to_string().into());
+    log2.invoke_import_bundle();
+    assert!(log2.get_message().starts_with("Nothing imported"));
+    std::fs::remove_dir_all(&dir).unwrap();
+}
+
+#[test]
+fn the_demo_lives_apart_and_clearing_it_leaves_an_empty_register() {
+    let dir = data_dir("demo");
+    let state = load_or_demo(dir.clone()).unwrap();
+    assert!(state.demo);
+    assert_eq!(state.store.tags().len(), 7);
+    assert!(dir.join(DEMO_DIR).is_dir());
+    let mut state = state;
+    clear_demo(&mut state).unwrap();
+    assert!(!state.demo);
+    assert!(state.store.is_empty());
+    assert!(!dir.join(DEMO_DIR).exists());
+    save(&state).unwrap();
+    drop(state);
+    // Next start: the register is still empty and the demo does not come back.
+    let state = load_or_demo(dir.clone()).unwrap();
+    assert!(!state.demo);
+    assert!(state.store.is_empty());
+    drop(state);
+    // A store with the technician's own data never gets the demo.
+    let other = data_dir("own");
+    {
+        let mut store = FileStore::open(&other).unwrap();
+        loopside::demo::fill(&mut store, loopside::app::demo_now()).unwrap();
+    }
+    let state = load_or_demo(other.clone()).unwrap();
+    assert!(!state.demo);
+    assert!(!other.join(DEMO_DIR).exists());
+    drop(state);
+    std::fs::remove_dir_all(&dir).unwrap();
+    std::fs::remove_dir_all(&other).unwrap();
+}
+
+#[test]
+fn an_unfinished_check_and_a_note_survive_a_restart() {
+    let dir = data_dir("restart");
+    {
+        let app = app_over(load_or_demo(dir.clone()).unwrap());
+        let check = app.window.global::<CheckAdapter>();
+        check.invoke_read_cautions();
+        check.invoke_found_edited(0, "4,04".into());
+        check.invoke_found_edited(1, "8.0".into());
+        let log = app.window.global::<LogAdapter>();
+        log.invoke_add_note("Junction box lid seal perished".into(), "IJ".into(), false);
+        save(&app.state.borrow()).unwrap();
+    }
+    let app = app_over(load_or_demo(dir.clone()).unwrap());
+    let check = app.window.global::<CheckAdapter>();
+    assert!(check.get_cautions_read());
+    let rows = check.get_rows();
+    assert_eq!(rows.row_data(0).unwrap().found, "4,04");
+    assert_eq!(rows.row_data(1).unwrap().found, "8.0");
+    assert_eq!(rows.row_data(0).unwrap().error, "0.25 %");
+    app.show_screen(Screen::Log);
+    assert!(log_texts(&app)[0].ends_with("Junction box lid seal perished"));
+    drop(app);
+    std::fs::remove_dir_all(&dir).unwrap();
+}
