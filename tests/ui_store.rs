@@ -9,7 +9,7 @@ use loopside::app::{
     TagsAdapter, DEMO_DIR,
 };
 use loopside::journal::Kind;
-use loopside::store::{FileStore, MemoryStore, Store};
+use loopside::store::{FileStore, MemoryStore};
 use slint::{ComponentHandle, Model};
 use std::cell::Cell;
 use std::path::PathBuf;
