@@ -176,6 +176,15 @@ impl Headless {
         }
     }
 
+    /// Type readings into the Check table, point by point (as the technician does).
+    pub fn type_check_readings(&self, readings: &[&str]) {
+        use slint::ComponentHandle;
+        let check = self.app.window.global::<super::CheckAdapter>();
+        for (i, r) in readings.iter().enumerate() {
+            check.invoke_found_edited(i as i32, (*r).into());
+        }
+    }
+
     /// Show the cautions again on Find fault and Check.
     pub fn reset_cautions(&self) {
         use slint::ComponentHandle;
@@ -203,6 +212,10 @@ pub fn render_all(
 ) -> Result<Vec<std::path::PathBuf>, Box<dyn std::error::Error>> {
     std::fs::create_dir_all(out)?;
     let headless = Headless::new(AppState::demo())?;
+    // Check shows an as-found check of LT-101 with its zero drifted up (invented readings).
+    headless.type_check_readings(&[
+        "4.09", "8.08", "12.10", "16.07", "20.06", "16.09", "12.11", "8.10", "4.10",
+    ]);
     let mut written = Vec::new();
     for dark in [false, true] {
         headless.app.set_dark(dark);
