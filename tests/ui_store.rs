@@ -263,3 +263,34 @@ fn an_unfinished_check_and_a_note_survive_a_restart() {
     drop(app);
     std::fs::remove_dir_all(&dir).unwrap();
 }
+
+#[test]
+fn a_loop_edited_on_power_is_saved_to_its_tag() {
+    let app = app_over(AppState::demo());
+    app.show_screen(Screen::Power);
+    let power = app.window.global::<loopside::app::PowerAdapter>();
+    assert!(power.get_can_save());
+    // The PLC card was swapped for one with a 100 Ω input; a 26 V supply went in.
+    power.invoke_edited("supply".into(), "26".into());
+    power.invoke_save_to_tag();
+    assert_eq!(power.get_message(), "Saved this loop to LT-101.");
+    let state = app.state.borrow();
+    let config = state.open_tag().unwrap().loop_config.clone().unwrap();
+    assert_eq!(config.supply_volts, 26.0);
+    drop(state);
+    // A bad field is named and nothing is saved.
+    power.invoke_edited("supply".into(), "lots".into());
+    power.invoke_save_to_tag();
+    assert!(power.get_error_text().starts_with("supply"));
+    let state = app.state.borrow();
+    assert_eq!(
+        state
+            .open_tag()
+            .unwrap()
+            .loop_config
+            .as_ref()
+            .unwrap()
+            .supply_volts,
+        26.0
+    );
+}

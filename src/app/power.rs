@@ -7,6 +7,7 @@ use crate::budget::{Cable, ElementKind, LoopConfig, SeriesElement, DEFAULT_FAULT
 use crate::display;
 use crate::error::{FieldError, Result};
 use crate::number::{parse_in, parse_number};
+use crate::store::StoreError;
 use crate::view::plain;
 use crate::view::power::{view, PowerView, Slice};
 use crate::wire::Conductor;
@@ -85,6 +86,23 @@ pub fn connect(window: &AppWindow, state: &Shared) {
             }
         }
         refresh(&w, &st.borrow());
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_save_to_tag(move || {
+        let Some(w) = weak.upgrade() else { return };
+        let result = save_to_tag(&mut st.borrow_mut());
+        let a = w.global::<PowerAdapter>();
+        match result {
+            Ok(number) => {
+                a.set_message(format!("Saved this loop to {number}.").into());
+                super::tags::refresh(&w, &st.borrow());
+            }
+            Err(e) => {
+                a.set_message("".into());
+                a.set_error_text(e.to_string().into());
+            }
+        }
     });
     let weak = window.as_weak();
     let st = state.clone();
@@ -204,6 +222,20 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     update(window, state);
 }
 
+/// Save the loop as typed (supply, transmitter minimum, elements, cable) to the open tag's
+/// definition in the register; returns the tag number.
+pub fn save_to_tag(state: &mut AppState) -> std::result::Result<String, StoreError> {
+    let record = state
+        .open_record()
+        .cloned()
+        .ok_or_else(|| FieldError::new("tag", "no tag is open; open one on Tags first"))?;
+    let config = config_from(&state.ui.power)?;
+    let mut tag = record.tag;
+    tag.loop_config = Some(config);
+    state.store.update_tag(&record.id, tag.clone())?;
+    Ok(tag.number)
+}
+
 /// Make sure the Power form belongs to the open tag (called when a tag is opened).
 pub fn sync_form(state: &mut AppState) {
     let Some(tag) = state.open_tag().cloned() else {
@@ -228,6 +260,8 @@ fn update(window: &AppWindow, state: &AppState) {
             .into(),
     );
     adapter.set_tag_detail(tag.map(|t| t.service.clone()).unwrap_or_default().into());
+    adapter.set_can_save(tag.is_some());
+    adapter.set_message("".into());
     let hart = tag.is_some_and(|t| t.hart);
     match config_from(&state.ui.power).and_then(|c| view(&c, hart)) {
         Ok(v) => map_power(&adapter, &v),

@@ -5,10 +5,11 @@ use super::{
     model, navigate, refresh_all, screen_from_name, AppState, AppWindow, Shared, TagsAdapter,
 };
 use crate::display;
-use crate::error::Result;
+use crate::error::{FieldError, Result};
 use crate::journal::{Entry, TagId};
 use crate::number::parse_number;
 use crate::scale::Scale;
+use crate::scale::{RootLocation, Transfer};
 use crate::store::StoreError;
 use crate::tag::{clean_number, Tag};
 use slint::ComponentHandle;
@@ -146,8 +147,7 @@ fn empty_form() -> super::TagForm {
 
 /// The form filled from a tag.
 pub fn form_of(tag: &Tag) -> super::TagForm {
-    let detail = super::convert::tag_detail(tag);
-    let transfer = detail.rsplit(" · ").next().unwrap_or("linear").to_string();
+    let transfer = transfer_text(&tag.scale.transfer);
     let lc = tag.loop_config.as_ref();
     super::TagForm {
         number: tag.number.clone().into(),
@@ -169,6 +169,80 @@ pub fn form_of(tag: &Tag) -> super::TagForm {
     }
 }
 
+/// The transfer as the form shows it; [`transfer_from_text`] reads it back.
+pub fn transfer_text(t: &Transfer) -> String {
+    match t {
+        Transfer::Linear => "linear".to_string(),
+        Transfer::SquareRoot {
+            cutoff_percent,
+            root_in,
+        } => format!(
+            "square root in the {}, cutoff {} %",
+            match root_in {
+                RootLocation::Transmitter => "transmitter",
+                RootLocation::Receiver => "receiver",
+            },
+            crate::view::plain(*cutoff_percent)
+        ),
+        Transfer::Table(table) => format!("table → {}", table.output_unit()),
+    }
+}
+
+/// Read the transfer typed on the form: `linear`; `square root` (or `sqrt`) with an
+/// optional cutoff in % of flow and where the root is taken (`in the transmitter`, else the
+/// receiver, as most flow loops do); a `table` is kept as it is (tables come in through
+/// the command line or a bundle).
+pub fn transfer_from_text(text: &str, base: Option<&Transfer>) -> Result<Transfer> {
+    let t = text.trim().to_lowercase();
+    if t.is_empty() || t == "linear" {
+        return Ok(Transfer::Linear);
+    }
+    if t.starts_with("table") {
+        return match base {
+            Some(Transfer::Table(table)) => Ok(Transfer::Table(table.clone())),
+            _ => Err(FieldError::new(
+                "transfer",
+                "a characterisation table is entered with `loopside tag edit NUMBER --table IN:OUT;…`; here type linear or square root",
+            )),
+        };
+    }
+    if t.contains("root") || t.contains("sqrt") {
+        let base_root = match base {
+            Some(Transfer::SquareRoot {
+                cutoff_percent,
+                root_in,
+            }) => Some((*cutoff_percent, *root_in)),
+            _ => None,
+        };
+        let cutoff_percent = match t
+            .split_whitespace()
+            .map(|w| w.trim_end_matches([',', ';', '%']))
+            .find(|w| w.starts_with(|c: char| c.is_ascii_digit()))
+        {
+            Some(n) => parse_number("transfer cutoff", n)?,
+            None => base_root.map(|b| b.0).unwrap_or(0.0),
+        };
+        let root_in = if t.contains("transmitter") {
+            RootLocation::Transmitter
+        } else if t.contains("receiver") {
+            RootLocation::Receiver
+        } else {
+            base_root.map(|b| b.1).unwrap_or(RootLocation::Receiver)
+        };
+        return Ok(Transfer::SquareRoot {
+            cutoff_percent,
+            root_in,
+        });
+    }
+    Err(FieldError::new(
+        "transfer",
+        format!(
+            "'{}' is not a transfer; type linear, or square root with its cutoff (square root, cutoff 1 %)",
+            text.trim()
+        ),
+    ))
+}
+
 /// Build a tag from the form, keeping what the form does not show from `base`.
 pub fn tag_from_form(form: &super::TagForm, base: Option<&Tag>) -> Result<Tag> {
     let number = clean_number(&form.number)?;
@@ -182,12 +256,21 @@ pub fn tag_from_form(form: &super::TagForm, base: Option<&Tag>) -> Result<Tag> {
                 lrv,
                 urv,
                 &form.unit,
-                b.scale.transfer.clone(),
+                transfer_from_text(&form.transfer, Some(&b.scale.transfer))?,
                 b.scale.signal,
             )?;
             t
         }
-        None => Tag::new(&number, Scale::linear(lrv, urv, &form.unit)?)?,
+        None => Tag::new(
+            &number,
+            Scale::new(
+                lrv,
+                urv,
+                &form.unit,
+                transfer_from_text(&form.transfer, None)?,
+                Default::default(),
+            )?,
+        )?,
     };
     tag.service = form.service.trim().to_string();
     tag.area = form.area.trim().to_string();
@@ -313,6 +396,47 @@ mod tests {
         let mut f = form("LT-102", "0");
         f.tolerance = "0".into();
         assert_eq!(tag_from_form(&f, None).unwrap_err().field, "tolerance");
+    }
+
+    #[test]
+    fn the_transfer_is_typed_in_words() {
+        assert_eq!(
+            transfer_from_text(" Linear ", None).unwrap(),
+            Transfer::Linear
+        );
+        let sqrt = transfer_from_text("square root, cutoff 1,5 %", None).unwrap();
+        assert_eq!(
+            sqrt,
+            Transfer::SquareRoot {
+                cutoff_percent: 1.5,
+                root_in: RootLocation::Receiver
+            }
+        );
+        // What the form shows reads back as the same transfer.
+        let in_tx = Transfer::SquareRoot {
+            cutoff_percent: 0.8,
+            root_in: RootLocation::Transmitter,
+        };
+        assert_eq!(
+            transfer_from_text(&transfer_text(&in_tx), None).unwrap(),
+            in_tx
+        );
+        assert_eq!(
+            transfer_from_text("cubic", None).unwrap_err().field,
+            "transfer"
+        );
+        assert_eq!(
+            transfer_from_text("table", None).unwrap_err().field,
+            "transfer"
+        );
+        // A square-root tag typed onto the form becomes one.
+        let mut f = form("FT-311", "0");
+        f.transfer = "sqrt 2 %".into();
+        let tag = tag_from_form(&f, None).unwrap();
+        assert!(matches!(
+            tag.scale.transfer,
+            Transfer::SquareRoot { cutoff_percent, .. } if cutoff_percent == 2.0
+        ));
     }
 
     #[test]
