@@ -23,6 +23,7 @@ fn run(android: AndroidApp) -> Result<(), Box<dyn std::error::Error>> {
     let data_dir = android
         .internal_data_path()
         .ok_or("Android gave the app no internal data folder")?;
+    let for_exports = android.clone();
     let shared: Rc<RefCell<Option<Shared>>> = Rc::new(RefCell::new(None));
     let for_events = shared.clone();
     slint::android::init_with_event_listener(android, move |event| {
@@ -39,7 +40,15 @@ fn run(android: AndroidApp) -> Result<(), Box<dyn std::error::Error>> {
             }
         }
     })?;
-    let app = App::new(load_or_demo(data_dir)?)?;
+    let mut state = load_or_demo(data_dir.clone())?;
+    // Handoff reports go to the app's folder on shared storage, where a file manager or a
+    // USB connection reaches them (Android/data/<package>/files); internal storage if none.
+    state.export_dir = Some(
+        for_exports
+            .external_data_path()
+            .unwrap_or_else(|| data_dir.join("exports")),
+    );
+    let app = App::new(state)?;
     *shared.borrow_mut() = Some(app.state.clone());
     app.window.run()?;
     save(&app.state.borrow())?;
