@@ -159,3 +159,23 @@ fn picking_a_tag_returns_to_convert_with_its_range() {
     // Picking a tag returned to Convert, so Tags is not on the back stack.
     assert!(!app.back(), "nothing to go back to");
 }
+
+#[test]
+fn the_sensor_calculator_works_both_ways() {
+    let app = app();
+    app.show_screen(Screen::Convert);
+    let a = app.window.global::<ConvertAdapter>();
+    // Pt100 at 75 °C: 128.99 Ω in the IEC 60751 table.
+    a.invoke_calc_edited("temp".into(), "75".into());
+    assert_eq!(a.get_calc_signal(), "128.987");
+    // Type K with the transmitter's terminals at 20 °C: 12,209 mV − E(20 °C) 0,798 mV =
+    // 11,411 mV read back is 300 °C (NIST ITS-90 type K table; table values are rounded
+    // to 1 µV, about 0.03 °C here).
+    a.invoke_calc_edited("sensor".into(), "K".into());
+    assert!(a.get_calc_tc());
+    a.invoke_calc_edited("signal".into(), "11,411".into());
+    let t: f64 = a.get_calc_temp().parse().unwrap();
+    assert!((t - 300.0).abs() <= 0.05, "{t}");
+    a.invoke_calc_edited("cj".into(), "cold".into());
+    assert_eq!(a.get_calc_error_field(), "cold junction");
+}

@@ -36,6 +36,26 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     });
     let weak = window.as_weak();
     let st = state.clone();
+    adapter.on_calc_edited(move |field, text| {
+        let Some(w) = weak.upgrade() else { return };
+        {
+            let mut s = st.borrow_mut();
+            let c = &mut s.ui.convert;
+            let text = text.to_string();
+            match field.as_str() {
+                "sensor" => c.calc_sensor = text,
+                "cj" => c.calc_cj = text,
+                "temp" | "signal" => {
+                    c.calc_source = field.to_string();
+                    c.calc_text = text;
+                }
+                _ => {}
+            }
+        }
+        update_calc(&w, &st.borrow(), false);
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
     adapter.on_change_tag(move || {
         if let Some(w) = weak.upgrade() {
             st.borrow_mut().ui.return_to = Some("convert".to_string());
@@ -50,6 +70,34 @@ pub fn connect(window: &AppWindow, state: &Shared) {
             refresh(&w, &st.borrow());
         }
     });
+}
+
+/// Copy the sensor calculator in; the field being typed in keeps its text unless `all`.
+pub fn update_calc(window: &AppWindow, state: &AppState, all: bool) {
+    let a = window.global::<ConvertAdapter>();
+    let c = &state.ui.convert;
+    let v = crate::view::sensor_calc::view(&crate::view::sensor_calc::CalcInput {
+        sensor: c.calc_sensor.clone(),
+        cold_junction: c.calc_cj.clone(),
+        source: c.calc_source.clone(),
+        text: c.calc_text.clone(),
+    });
+    if all {
+        a.set_calc_sensor(c.calc_sensor.clone().into());
+        a.set_calc_cj(c.calc_cj.clone().into());
+    }
+    let from_signal = c.calc_source == "signal";
+    if all || from_signal {
+        a.set_calc_temp(v.temp_c.into());
+    }
+    if all || !from_signal {
+        a.set_calc_signal(v.signal.into());
+    }
+    a.set_calc_unit(v.signal_unit.into());
+    a.set_calc_tc(v.thermocouple);
+    a.set_calc_note(v.note.into());
+    a.set_calc_error_field(v.error_field.into());
+    a.set_calc_error(v.error_text.into());
 }
 
 /// The scale Convert works through: the open tag's, or the range typed on the screen.
@@ -114,6 +162,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     adapter.set_unit_text(c.unit.clone().into());
     adapter.set_ohms_text(c.ohms.clone().into());
     update(window, state, true);
+    update_calc(window, state, true);
 }
 
 /// Work out the view and copy it in. The source field keeps the text as typed unless

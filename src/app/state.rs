@@ -34,6 +34,14 @@ pub struct ConvertState {
     pub urv: String,
     /// Typed unit.
     pub unit: String,
+    /// Sensor calculator: the sensor (`Pt100`, `K` …).
+    pub calc_sensor: String,
+    /// Sensor calculator: cold-junction °C for a thermocouple.
+    pub calc_cj: String,
+    /// Sensor calculator: the field typed into (`temp` or `signal`).
+    pub calc_source: String,
+    /// Sensor calculator: its text.
+    pub calc_text: String,
 }
 
 impl Default for ConvertState {
@@ -46,6 +54,10 @@ impl Default for ConvertState {
             lrv: "0".to_string(),
             urv: "100".to_string(),
             unit: "%".to_string(),
+            calc_sensor: "Pt100".to_string(),
+            calc_cj: "20".to_string(),
+            calc_source: "temp".to_string(),
+            calc_text: "0".to_string(),
         }
     }
 }

@@ -10,6 +10,7 @@ pub mod check;
 pub mod convert;
 pub mod log;
 pub mod power;
+pub mod sensor_calc;
 
 use crate::display;
 use crate::scale::Scale;
