@@ -281,17 +281,8 @@ pub(crate) struct LoopArgs {
     /// One-way cable length, m.
     #[arg(long, allow_hyphen_values = true, value_name = "M")]
     cable_m: Option<String>,
-    /// Conductor size, AWG (4/0 … 40).
-    #[arg(
-        long,
-        allow_hyphen_values = true,
-        value_name = "N",
-        conflicts_with = "mm2"
-    )]
-    awg: Option<String>,
-    /// Conductor size, mm².
-    #[arg(long, allow_hyphen_values = true, value_name = "A")]
-    mm2: Option<String>,
+    #[command(flatten)]
+    conductor: ConductorArgs,
     /// Conductor temperature, °C (default 20).
     #[arg(long, allow_hyphen_values = true, value_name = "T")]
     temp_c: Option<String>,
@@ -311,17 +302,39 @@ fn named<'a>(text: &'a str, default_name: &str, index: usize) -> (String, &'a st
     }
 }
 
-pub(super) fn conductor_from(
-    awg: &Option<String>,
-    mm2: &Option<String>,
-) -> Result<Option<Conductor>, FieldError> {
-    match (awg, mm2) {
-        (Some(a), _) => Conductor::parse_awg(a).map(Some),
-        (None, Some(m)) => {
-            let bare = m.trim().trim_end_matches("mm²").trim_end_matches("mm2");
-            Conductor::mm2(parse_number("mm2", bare)?).map(Some)
+/// The conductor size flags, `--awg` or `--mm2` (shared by `budget`, `wire`, `rtd` and
+/// `tag add/edit`).
+#[derive(Debug, Clone, Default, Args)]
+pub(crate) struct ConductorArgs {
+    /// Conductor size, AWG (4/0 … 40).
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "N",
+        conflicts_with = "mm2"
+    )]
+    awg: Option<String>,
+    /// Conductor size, mm² (`1.5`, `1,5`, `1.5mm²`).
+    #[arg(long, allow_hyphen_values = true, value_name = "A")]
+    mm2: Option<String>,
+}
+
+impl ConductorArgs {
+    /// True when neither size was given.
+    pub(crate) fn is_empty(&self) -> bool {
+        self.awg.is_none() && self.mm2.is_none()
+    }
+
+    /// The conductor, if a size was given.
+    pub(crate) fn conductor(&self) -> Result<Option<Conductor>, FieldError> {
+        match (&self.awg, &self.mm2) {
+            (Some(a), _) => Conductor::parse_awg(a).map(Some),
+            (None, Some(m)) => {
+                let bare = m.trim().trim_end_matches("mm²").trim_end_matches("mm2");
+                Conductor::mm2(parse_number("mm2", bare)?).map(Some)
+            }
+            (None, None) => Ok(None),
         }
-        (None, None) => Ok(None),
     }
 }
 
@@ -334,8 +347,7 @@ impl LoopArgs {
             && self.load.is_empty()
             && self.drops.is_empty()
             && self.cable_m.is_none()
-            && self.awg.is_none()
-            && self.mm2.is_none()
+            && self.conductor.is_empty()
             && self.temp_c.is_none()
             && self.fault_ma.is_none()
             && self.hart_max_ohms.is_none()
@@ -386,7 +398,7 @@ impl LoopArgs {
             }
             config.elements.push(SeriesElement::drop(&name, volts));
         }
-        let conductor = conductor_from(&self.awg, &self.mm2)?;
+        let conductor = self.conductor.conductor()?;
         let temp_c = match &self.temp_c {
             Some(t) => parse_in("temp-c", t, "°C")?,
             None => 20.0,
@@ -500,18 +512,8 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
     loopside wire --awg 18 --length-m 300\n  \
     loopside wire --mm2 1,5 --length-m 180 --temp-c 40 --json")]
 pub struct WireArgs {
-    /// Conductor size, AWG (4/0 … 40).
-    #[arg(
-        long,
-        allow_hyphen_values = true,
-        value_name = "N",
-        conflicts_with = "mm2",
-        required_unless_present = "mm2"
-    )]
-    awg: Option<String>,
-    /// Conductor size, mm².
-    #[arg(long, allow_hyphen_values = true, value_name = "A")]
-    mm2: Option<String>,
+    #[command(flatten)]
+    conductor: ConductorArgs,
     /// One-way length of the pair, m.
     #[arg(long, allow_hyphen_values = true, value_name = "M")]
     length_m: String,
@@ -524,8 +526,10 @@ pub struct WireArgs {
 }
 
 pub(super) fn wire(args: WireArgs, out: &mut dyn Write) -> CliResult {
-    let conductor = conductor_from(&args.awg, &args.mm2)?
-        .ok_or_else(|| FieldError::new("awg", "give --awg or --mm2"))?;
+    let conductor = args
+        .conductor
+        .conductor()?
+        .ok_or_else(|| FieldError::new("awg", "give the conductor size with --awg or --mm2"))?;
     let length = parse_in("length-m", &args.length_m, "m")?;
     let temp_c = match &args.temp_c {
         Some(t) => parse_in("temp-c", t, "°C")?,

@@ -5,7 +5,7 @@
 //! to the flag the technician typed (`max-m`, `cj-c`) before they reach stderr.
 
 use super::{print_json, print_lines, CliError, CliResult};
-use crate::cli::calc::conductor_from;
+use crate::cli::calc::ConductorArgs;
 use crate::display;
 use crate::error::FieldError;
 use crate::level::{self, LevelSetup, Mount, ZeroShift};
@@ -91,17 +91,8 @@ pub struct RtdArgs {
         conflicts_with = "lead_ohms"
     )]
     cable_m: Option<String>,
-    /// Conductor size, AWG.
-    #[arg(
-        long,
-        allow_hyphen_values = true,
-        value_name = "N",
-        conflicts_with = "mm2"
-    )]
-    awg: Option<String>,
-    /// Conductor size, mm².
-    #[arg(long, allow_hyphen_values = true, value_name = "A")]
-    mm2: Option<String>,
+    #[command(flatten)]
+    conductor: ConductorArgs,
     /// Cable temperature, °C (default 20).
     #[arg(long, allow_hyphen_values = true, value_name = "T")]
     cable_temp_c: Option<String>,
@@ -154,7 +145,7 @@ pub(super) fn rtd(args: RtdArgs, out: &mut dyn Write) -> CliResult {
                 )));
             }
             let wiring = Wiring::from_count(count as u32)?;
-            let conductor = conductor_from(&args.awg, &args.mm2)?;
+            let conductor = args.conductor.conductor()?;
             let result = match (&args.lead_ohms, &args.cable_m, conductor) {
                 (Some(r), _, _) => element
                     .lead_error(wiring, parse_in("lead-ohms", r, "Ω")?, temp_c)
