@@ -8,6 +8,7 @@
 pub mod bands;
 pub mod check;
 pub mod convert;
+pub mod fault;
 pub mod power;
 
 use crate::display;
