@@ -12,7 +12,9 @@
 use crate::budget::{Cable, LoopConfig, SeriesElement};
 use crate::error::{FieldError, Result};
 use crate::journal::{Entry, Kind, TagId};
+use crate::rtd::{RtdKind, Wiring};
 use crate::scale::{CharTable, RootLocation, Scale, SignalSpan, TablePoint, Transfer};
+use crate::sensor::Sensor;
 use crate::store::{Store, StoreError, StoreResult};
 use crate::tag::Tag;
 use crate::wire::Conductor;
@@ -126,6 +128,12 @@ pub fn tags() -> Result<Vec<Tag>> {
     )?;
     tt412.notes = ASSUMED.to_string();
     tt412.loop_config = Some(plant_loop(vec![SeriesElement::ohms("IS barrier", 340.0)]));
+    // A 3-wire Pt100 in a thermowell: checked by applying ohms at the transmitter's input.
+    tt412.sensor = Some(Sensor::Rtd {
+        element: RtdKind::Pt100,
+        wiring: Wiring::ThreeWire,
+        lead_ohms: 0.0,
+    });
 
     let mut at520 = tag(
         "AT-520",

@@ -1,66 +1,177 @@
-//! Check screen glue: cautions first, then the table; readings typed per point go through
-//! [`crate::view::check`]. Saving waits for the store and the check engine.
+//! Check screen glue: cautions first, then the as-found / as-left table of the open tag.
+//! Readings are kept in the saved screen state as they are typed (an unfinished check
+//! survives the app being killed); the table, the plot and the verdict come from
+//! [`crate::view::check`], and "Save to log" stores the [`crate::check::CheckResult`].
 
 use super::{model, AppState, AppWindow, CheckAdapter, Shared};
-use crate::view::check::view;
+use crate::check::Stage;
+use crate::error::FieldError;
+use crate::journal::{Entry, EntryId, Kind};
+use crate::store::StoreError;
+use crate::view::check::{check_for, result, view};
 use slint::{ComponentHandle, Model, ModelRc, VecModel};
-use std::cell::RefCell;
 use std::rc::Rc;
 
-/// Wire the adapter's callbacks. Readings are held here until the check engine and the
-/// store land (then they become the unfinished check in the saved state).
+/// Wire the adapter's callbacks.
 pub fn connect(window: &AppWindow, state: &Shared) {
     let adapter = window.global::<CheckAdapter>();
-    let readings = Rc::new(RefCell::new(preview_readings()));
     // One model for the table's life, updated row by row, so the field being typed in is
     // not rebuilt (and does not lose focus) on every key.
     let rows: Rc<VecModel<super::CheckRow>> = Rc::new(VecModel::default());
     adapter.set_rows(ModelRc::from(rows.clone()));
     let weak = window.as_weak();
+    let st = state.clone();
     adapter.on_read_cautions(move || {
         if let Some(w) = weak.upgrade() {
+            st.borrow_mut().ui.check.cautions_read = true;
             w.global::<CheckAdapter>().set_cautions_read(true);
         }
     });
     let weak = window.as_weak();
+    let st = state.clone();
+    let table = rows.clone();
     adapter.on_pick_stage(move |stage| {
-        if let Some(w) = weak.upgrade() {
-            w.global::<CheckAdapter>().set_stage(stage);
+        let Some(w) = weak.upgrade() else { return };
+        {
+            let mut s = st.borrow_mut();
+            let wanted = stage_of(stage).as_str();
+            if s.ui.check.stage != wanted {
+                // A new stage is a new set of readings (as-left is read after the work).
+                s.ui.check.stage = wanted.to_string();
+                s.ui.check.readings.clear();
+            }
         }
+        w.global::<CheckAdapter>().set_stage(stage);
+        update(&w, &st.borrow(), &table);
     });
     let weak = window.as_weak();
     let st = state.clone();
-    let r = readings.clone();
     let table = rows.clone();
     adapter.on_found_edited(move |i, text| {
         let Some(w) = weak.upgrade() else { return };
         if let Ok(i) = usize::try_from(i) {
-            if let Some(slot) = r.borrow_mut().get_mut(i) {
-                *slot = text.to_string();
+            let mut s = st.borrow_mut();
+            let readings = &mut s.ui.check.readings;
+            if readings.len() <= i {
+                readings.resize(i + 1, String::new());
             }
+            readings[i] = text.to_string();
         }
-        update(&w, &st.borrow(), &r.borrow(), &table);
+        update(&w, &st.borrow(), &table);
     });
     let weak = window.as_weak();
+    let st = state.clone();
+    let table = rows.clone();
     adapter.on_save(move || {
-        if let Some(w) = weak.upgrade() {
-            w.global::<CheckAdapter>().set_error_text(
-                "Saving checks arrives with the store and check engine (branches store, check)."
+        let Some(w) = weak.upgrade() else { return };
+        let a = w.global::<CheckAdapter>();
+        {
+            let mut s = st.borrow_mut();
+            s.ui.check.reference = a.get_reference_text().to_string();
+            s.ui.initials = a.get_initials_text().to_string();
+        }
+        let saved = save(&mut st.borrow_mut());
+        match saved {
+            Ok((id, stage)) => {
+                a.set_error_text("".into());
+                a.set_message(
+                    format!(
+                        "Saved the {} check as {id}.{}",
+                        stage.label(),
+                        if stage == Stage::AsFound {
+                            " The table is ready for the as-left readings."
+                        } else {
+                            ""
+                        }
+                    )
                     .into(),
-            );
+                );
+                refresh(&w, &st.borrow());
+                update(&w, &st.borrow(), &table);
+                super::log::refresh(&w, &st.borrow());
+                super::tags::refresh(&w, &st.borrow());
+            }
+            Err(e) => a.set_error_text(e.to_string().into()),
         }
     });
-    update(window, &state.borrow(), &readings.borrow(), &rows);
+    sync(&mut state.borrow_mut());
+    update(window, &state.borrow(), &rows);
 }
 
-/// As-found readings of the demo plant's PT-204 check (zero shifted up), for the preview.
-fn preview_readings() -> Vec<String> {
-    [
-        "4.150", "8.140", "12.090", "16.050", "20.010", "16.060", "12.100", "8.150", "4.160",
-    ]
-    .iter()
-    .map(|s| s.to_string())
-    .collect()
+fn stage_of(code: i32) -> Stage {
+    if code == 1 {
+        Stage::AsLeft
+    } else {
+        Stage::AsFound
+    }
+}
+
+/// The stage the saved form is at.
+fn stage(state: &AppState) -> Stage {
+    Stage::parse(&state.ui.check.stage).unwrap_or(Stage::AsFound)
+}
+
+/// Readings belong to one tag: when another tag is open, start a fresh check.
+pub fn sync(state: &mut AppState) {
+    let open = state
+        .open_tag()
+        .map(|t| t.number.clone())
+        .unwrap_or_default();
+    if state.ui.check.tag != open {
+        state.ui.check = super::state::CheckForm {
+            tag: open,
+            ..Default::default()
+        };
+    }
+}
+
+/// Save the check to the open tag's log; returns the entry id and the stage saved. After
+/// an as-found check the form moves on to as-left with an empty table.
+pub fn save(state: &mut AppState) -> Result<(EntryId, Stage), StoreError> {
+    let record = state
+        .open_record()
+        .cloned()
+        .ok_or_else(|| FieldError::new("tag", "no tag is open; open one on Tags first"))?;
+    let stage = stage(state);
+    let now = state.now();
+    let form = &state.ui.check;
+    let mut check = check_for(&record.tag, stage, now.date_naive());
+    let reference = form.reference.trim();
+    if !reference.is_empty() {
+        check = check.note(&format!("Reference: {reference}"));
+    }
+    let res = result(&check, &form.readings)?;
+    let mut payload = serde_json::to_value(&res)
+        .map_err(|e| FieldError::new("check", format!("cannot be written: {e}")))?;
+    if let Some(sensor) = &record.tag.sensor {
+        payload["sensor"] = serde_json::to_value(sensor)
+            .map_err(|e| FieldError::new("sensor", format!("cannot be written: {e}")))?;
+    }
+    let text = format!(
+        "{} check, {}: {}",
+        res.device.as_str(),
+        res.stage.label(),
+        res.summary()
+    );
+    let mut entry = Entry::new(
+        &record.id,
+        now,
+        &state.ui.initials.trim().to_uppercase(),
+        Kind::LoopCheck,
+        &text,
+    )?;
+    entry.payload = Some(payload);
+    let id = state.store.append(entry)?;
+    let tag = record.tag.number.clone();
+    let reference = state.ui.check.reference.clone();
+    state.ui.check = super::state::CheckForm {
+        tag,
+        stage: Stage::AsLeft.as_str().to_string(),
+        readings: Vec::new(),
+        reference,
+        cautions_read: true,
+    };
+    Ok((id, stage))
 }
 
 /// Copy what does not depend on readings.
@@ -69,40 +180,60 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     a.set_cautions(model(
         crate::view::CAUTIONS.iter().map(|c| (*c).into()).collect(),
     ));
-    if let Some(tag) = state.open_tag() {
-        a.set_tag_title(tag.number.clone().into());
-        a.set_tolerance_text(
-            format!(
-                "± {} of span",
-                crate::display::percent(tag.tolerance_percent)
-            )
-            .into(),
-        );
+    let form = &state.ui.check;
+    a.set_cautions_read(form.cautions_read);
+    a.set_stage(if stage(state) == Stage::AsLeft { 1 } else { 0 });
+    a.set_reference_text(form.reference.clone().into());
+    a.set_initials_text(state.ui.initials.clone().into());
+    match state.open_tag() {
+        Some(tag) => {
+            a.set_tag_title(tag.number.clone().into());
+            a.set_tolerance_text(
+                format!(
+                    "± {} of span",
+                    crate::display::percent(tag.tolerance_percent)
+                )
+                .into(),
+            );
+        }
+        None => {
+            a.set_tag_title("—".into());
+            a.set_tolerance_text("".into());
+        }
+    }
+    let rows = a.get_rows();
+    if let Some(table) = rows.as_any().downcast_ref::<VecModel<super::CheckRow>>() {
+        update(window, state, table);
     }
 }
 
-fn update(
-    window: &AppWindow,
-    state: &AppState,
-    readings: &[String],
-    table: &VecModel<super::CheckRow>,
-) {
+fn update(window: &AppWindow, state: &AppState, table: &VecModel<super::CheckRow>) {
     let a = window.global::<CheckAdapter>();
-    let (tolerance, signal) = state
-        .open_tag()
-        .map(|t| (t.tolerance_percent, t.scale.signal))
-        .unwrap_or((crate::tag::DEFAULT_TOLERANCE_PERCENT, Default::default()));
-    let v = view(readings, tolerance, &signal);
-    for (i, (r, found)) in v.rows.iter().zip(readings).enumerate() {
+    let Some(tag) = state.open_tag() else {
+        table.set_vec(Vec::new());
+        a.set_points(model(Vec::new()));
+        a.set_verdict_title("".into());
+        a.set_error_text("No tag is open: open one on Tags to check it.".into());
+        return;
+    };
+    let readings = &state.ui.check.readings;
+    let v = view(tag, stage(state), readings, state.now().date_naive());
+    if table.row_count() > v.rows.len() {
+        table.set_vec(Vec::new());
+    }
+    for (i, r) in v.rows.iter().enumerate() {
         let row = super::CheckRow {
             point: r.point.clone().into(),
+            apply: r.apply.clone().into(),
             expected: r.expected.clone().into(),
-            found: found.clone().into(),
+            found: readings.get(i).cloned().unwrap_or_default().into(),
             error: r.error.clone().into(),
             kind: r.tone.code(),
         };
         if i < table.row_count() {
-            table.set_row_data(i, row);
+            if table.row_data(i).as_ref() != Some(&row) {
+                table.set_row_data(i, row);
+            }
         } else {
             table.push(row);
         }
@@ -139,8 +270,10 @@ fn update(
             })
             .collect(),
     ));
+    a.set_tolerance_text(v.tolerance_text.into());
     a.set_plot_description(format!("{}. {}", v.verdict.0, v.verdict.1).into());
     a.set_verdict_title(v.verdict.0.into());
     a.set_verdict_detail(v.verdict.1.into());
     a.set_verdict_kind(v.verdict.2.code());
+    a.set_error_text(v.problem.into());
 }

@@ -36,7 +36,7 @@ pub struct Run {
 
 /// The tag with this number in the register.
 fn find_tag(state: &AppState, number: &str) -> Option<Tag> {
-    state.tags.iter().find(|t| t.number == number).cloned()
+    state.store.tag(number).map(|r| r.tag.clone())
 }
 
 /// The session under way (None when there is none); an error when the saved session can

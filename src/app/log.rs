@@ -1,11 +1,15 @@
 //! Log screen glue: the open tag's entries or all of them, searched; add a note or a
-//! follow-up; mark follow-ups done. Entries live in memory until `crate::journal` lands;
-//! export and import wait for it too and say so.
+//! follow-up; mark follow-ups done; write a handoff report; import a bundle. Every change
+//! goes through the store and is durable before the screen shows it.
 
-use super::sample::{EntryKind, SampleEntry};
 use super::{model, AppState, AppWindow, LogAdapter, Shared};
-use crate::error::{FieldError, Result};
+use crate::error::FieldError;
+use crate::journal::{Entry, EntryId, Kind};
+use crate::report;
+use crate::store::{ImportReport, StoreError};
+use crate::view::log::{export_file_name, list, query, Row};
 use slint::ComponentHandle;
+use std::path::{Path, PathBuf};
 
 /// Longest note accepted, in characters.
 pub const MAX_NOTE_CHARS: usize = 2000;
@@ -34,9 +38,10 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let a = w.global::<LogAdapter>();
         let result = add_note(&mut st.borrow_mut(), &text, &who, follow_up);
         match result {
-            Ok(()) => {
+            Ok(id) => {
                 a.set_note_text("".into());
                 a.set_error_text("".into());
+                a.set_message(format!("Saved as {id}.").into());
                 refresh(&w, &st.borrow());
                 super::tags::refresh(&w, &st.borrow());
             }
@@ -47,115 +52,225 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     let st = state.clone();
     adapter.on_mark_done(move |id| {
         let Some(w) = weak.upgrade() else { return };
-        if let Ok(id) = id.parse::<u64>() {
-            if let Some(e) = st.borrow_mut().log.iter_mut().find(|e| e.id == id) {
-                if e.kind == EntryKind::FollowUp {
-                    e.kind = EntryKind::FollowUpDone;
-                }
-            }
+        let initials = w.global::<LogAdapter>().get_initials_text();
+        let result = mark_done(&mut st.borrow_mut(), &id, &initials);
+        let a = w.global::<LogAdapter>();
+        match result {
+            Ok(_) => a.set_error_text("".into()),
+            Err(e) => a.set_error_text(e.to_string().into()),
         }
         refresh(&w, &st.borrow());
+        super::tags::refresh(&w, &st.borrow());
     });
     let weak = window.as_weak();
-    adapter.on_export_report(move |_kind| {
-        if let Some(w) = weak.upgrade() {
-            w.global::<LogAdapter>().set_message(
-                "Export is not available yet: it arrives with the journal (store branch).".into(),
-            );
-        }
+    let st = state.clone();
+    adapter.on_export_report(move |format| {
+        let Some(w) = weak.upgrade() else { return };
+        let a = w.global::<LogAdapter>();
+        let folder = a.get_export_dir().to_string();
+        st.borrow_mut().ui.export_dir = folder.clone();
+        let message = match export(&st.borrow(), &format, &folder) {
+            Ok(path) => format!("Written to {}", path.display()),
+            Err(e) => format!("Not written: {e}"),
+        };
+        a.set_message(message.into());
     });
     let weak = window.as_weak();
+    let st = state.clone();
     adapter.on_import_bundle(move || {
-        if let Some(w) = weak.upgrade() {
-            w.global::<LogAdapter>().set_message(
-                "Import is not available yet: it arrives with the journal (store branch).".into(),
-            );
-        }
+        let Some(w) = weak.upgrade() else { return };
+        let a = w.global::<LogAdapter>();
+        let path = a.get_import_path().to_string();
+        st.borrow_mut().ui.import_path = path.clone();
+        let result = import(&mut st.borrow_mut(), Path::new(path.trim()));
+        a.set_message(
+            match result {
+                Ok(r) => import_summary(&r),
+                Err(e) => format!("Nothing imported: {e}"),
+            }
+            .into(),
+        );
+        refresh(&w, &st.borrow());
+        super::tags::refresh(&w, &st.borrow());
     });
 }
 
-/// Add a note (or follow-up) to the open tag's log, newest first.
-pub fn add_note(state: &mut AppState, text: &str, who: &str, follow_up: bool) -> Result<()> {
+/// Add a note (or an open follow-up) to the open tag's log; returns its id once durable.
+pub fn add_note(
+    state: &mut AppState,
+    text: &str,
+    who: &str,
+    follow_up: bool,
+) -> Result<EntryId, StoreError> {
     let text = text.trim();
     if text.is_empty() {
-        return Err(FieldError::new(
-            "note",
-            "is empty; type what you found or did",
-        ));
+        return Err(FieldError::new("note", "is empty; type what you found or did").into());
     }
     if text.chars().count() > MAX_NOTE_CHARS {
         return Err(FieldError::new(
             "note",
             format!("must be {MAX_NOTE_CHARS} characters or fewer"),
-        ));
+        )
+        .into());
     }
     let tag = state
-        .ui
-        .open_tag
-        .clone()
+        .open_tag_id()
         .ok_or_else(|| FieldError::new("tag", "no tag is open; open one on Tags first"))?;
-    let id = state.log.iter().map(|e| e.id).max().unwrap_or(0) + 1;
-    state.log.insert(
-        0,
-        SampleEntry {
-            id,
-            when: chrono::Local::now().format("%Y-%m-%d %H:%M").to_string(),
-            tag,
-            kind: if follow_up {
-                EntryKind::FollowUp
-            } else {
-                EntryKind::Note
-            },
-            text: text.to_string(),
-            who: who.trim().to_uppercase(),
-        },
-    );
-    Ok(())
+    let kind = if follow_up {
+        Kind::FollowUp
+    } else {
+        Kind::Note
+    };
+    let who = who.trim().to_uppercase();
+    let entry = Entry::new(&tag, state.now(), &who, kind, text)?;
+    let id = state.store.append(entry)?;
+    state.ui.initials = who;
+    Ok(id)
 }
 
-/// Does an entry match the search text (text, tag or initials, any case)?
-fn matches(e: &SampleEntry, q: &str) -> bool {
-    let q = q.trim().to_lowercase();
-    q.is_empty()
-        || [&e.text, &e.tag, &e.who]
-            .iter()
-            .any(|f| f.to_lowercase().contains(&q))
+/// Mark the open follow-up `id` done: a new entry that refers to it (nothing is rewritten).
+pub fn mark_done(state: &mut AppState, id: &str, who: &str) -> Result<EntryId, StoreError> {
+    let open = state.store.find_entry(id)?.clone();
+    let closed = crate::journal::closed_follow_ups(state.store.entries());
+    if closed.contains(&open.id) {
+        return Err(FieldError::new("id", format!("{} is already done", open.id)).into());
+    }
+    let entry = Entry::closing(&open, state.now(), &who.trim().to_uppercase(), "")?;
+    state.store.append(entry)
+}
+
+/// The folder reports go to: the one typed, else the state's default.
+fn export_folder(state: &AppState, typed: &str) -> Result<PathBuf, FieldError> {
+    let typed = typed.trim();
+    if !typed.is_empty() {
+        return Ok(PathBuf::from(typed));
+    }
+    state
+        .export_dir
+        .clone()
+        .or_else(|| state.data_dir.as_ref().map(|d| d.join("exports")))
+        .ok_or_else(|| FieldError::new("export folder", "is empty; type a folder to write to"))
+}
+
+/// Write what the Log shows (the open tag or all tags, with the search) as a handoff
+/// report in `format` (`md`, `csv`, `json`) into `folder`; returns the file written. The
+/// file is written whole to a temporary name, synced and renamed, so it is never half there.
+pub fn export(state: &AppState, format: &str, folder: &str) -> Result<PathBuf, StoreError> {
+    let folder = export_folder(state, folder)?;
+    let tag = if state.ui.log_all {
+        None
+    } else {
+        state.open_tag_id()
+    };
+    let q = query(tag, &state.ui.log_search);
+    let now = state.now();
+    let bundle = report::select(state.store.as_ref(), &q, now);
+    let text = match format {
+        "md" => report::markdown(&bundle),
+        "csv" => report::csv(&bundle),
+        "json" => report::json(&bundle),
+        other => {
+            return Err(FieldError::new(
+                "format",
+                format!("'{other}' is not a report format; use md, csv or json"),
+            )
+            .into())
+        }
+    };
+    let path = folder.join(export_file_name(now, format));
+    write_whole(&path, text.as_bytes()).map_err(|source| StoreError::Io {
+        action: "write",
+        path: path.clone(),
+        source,
+    })?;
+    Ok(path)
+}
+
+fn write_whole(path: &Path, bytes: &[u8]) -> std::io::Result<()> {
+    use std::io::Write;
+    let dir = path.parent().unwrap_or(Path::new("."));
+    std::fs::create_dir_all(dir)?;
+    let tmp = path.with_extension("partial");
+    {
+        let mut f = std::fs::File::create(&tmp)?;
+        f.write_all(bytes)?;
+        f.sync_all()?;
+    }
+    std::fs::rename(&tmp, path)
+}
+
+/// Merge a JSON bundle from another device into the store.
+pub fn import(state: &mut AppState, path: &Path) -> Result<ImportReport, StoreError> {
+    if path.as_os_str().is_empty() {
+        return Err(
+            FieldError::new("bundle file", "is empty; type the path of a .json bundle").into(),
+        );
+    }
+    let text = std::fs::read_to_string(path).map_err(|source| StoreError::Io {
+        action: "read",
+        path: path.to_path_buf(),
+        source,
+    })?;
+    let bundle = report::parse_bundle(&text)?;
+    state.store.import(&bundle)
+}
+
+/// What an import did, in one sentence or two.
+pub fn import_summary(r: &ImportReport) -> String {
+    let mut s = format!(
+        "Imported {} tag(s) and {} entr(ies); {} entr(ies) were already here.",
+        r.tags_added, r.entries_added, r.entries_already_here
+    );
+    for c in &r.conflicts {
+        s.push_str(&format!(
+            " {} differs from this register's and was kept as it is here ({}).",
+            c.number, c.detail
+        ));
+    }
+    s
 }
 
 /// Copy the entries into the adapter.
 pub fn refresh(window: &AppWindow, state: &AppState) {
     let adapter = window.global::<LogAdapter>();
-    let tag = state.ui.open_tag.clone().unwrap_or_default();
-    let all = state.ui.log_all || tag.is_empty();
+    let tag = state.open_record();
+    let all = state.ui.log_all || tag.is_none();
     adapter.set_heading(
-        if tag.is_empty() {
-            "—".to_string()
-        } else {
-            tag.clone()
-        }
-        .into(),
+        tag.map(|t| t.tag.number.clone())
+            .unwrap_or_else(|| "—".to_string())
+            .into(),
     );
     adapter.set_all_tags(all);
     adapter.set_search_text(state.ui.log_search.clone().into());
-    adapter.set_rows(model(
-        state
-            .log
-            .iter()
-            .filter(|e| (all || e.tag == tag) && matches(e, &state.ui.log_search))
-            .map(map_entry)
-            .collect(),
-    ));
+    let q = query(
+        if all { None } else { tag.map(|t| t.id.clone()) },
+        &state.ui.log_search,
+    );
+    let l = list(state.store.as_ref(), &q);
+    adapter.set_count_text(l.count_text.into());
+    adapter.set_rows(model(l.rows.iter().map(map_entry).collect()));
+    if adapter.get_initials_text().is_empty() {
+        adapter.set_initials_text(state.ui.initials.clone().into());
+    }
+    let default_dir = export_folder(state, &state.ui.export_dir)
+        .map(|p| p.display().to_string())
+        .unwrap_or_default();
+    adapter.set_export_dir(default_dir.into());
+    adapter.set_import_path(state.ui.import_path.clone().into());
+    if !state.notices.is_empty() && adapter.get_message().is_empty() {
+        adapter.set_message(state.notices.join(" ").into());
+    }
 }
 
 /// One entry as the Log screen shows it.
-pub fn map_entry(e: &SampleEntry) -> super::LogRow {
+pub fn map_entry(r: &Row) -> super::LogRow {
     super::LogRow {
-        id: e.id.to_string().into(),
-        when: e.when.clone().into(),
-        tag: e.tag.clone().into(),
-        title: e.kind.title().into(),
-        text: e.text.clone().into(),
-        who: e.who.clone().into(),
-        kind: e.kind.code(),
+        id: r.id.clone().into(),
+        when: r.when.clone().into(),
+        tag: r.tag.clone().into(),
+        title: r.title.clone().into(),
+        text: r.text.clone().into(),
+        who: r.who.clone().into(),
+        kind: r.kind.code(),
     }
 }

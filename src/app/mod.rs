@@ -20,56 +20,121 @@ pub mod fault;
 pub mod log;
 pub mod power;
 pub mod render;
-pub mod sample;
 pub mod state;
 pub mod tags;
 
+use crate::journal::TagId;
+use crate::store::{FileStore, MemoryStore, Store, StoreError, TagRecord};
 use crate::tag::Tag;
+use chrono::{DateTime, FixedOffset, TimeZone};
 use state::UiState;
 use std::cell::RefCell;
-use std::path::PathBuf;
+use std::path::{Path, PathBuf};
 use std::rc::Rc;
 
-/// Everything the app holds while it runs. The register and the log are in memory until
-/// the store lands; [`UiState`] is what survives the app being killed.
-#[derive(Debug, Clone, Default)]
+/// Sub-folder of the data folder that holds the demo plant's store, kept apart so that
+/// demo data never mixes with a technician's own register and log.
+pub const DEMO_DIR: &str = "demo";
+
+/// Everything the app holds while it runs: the store (register and log) and the screens'
+/// state. [`UiState`] is what survives the app being killed; the store saves itself.
 pub struct AppState {
-    /// The register.
-    pub tags: Vec<Tag>,
-    /// The log, newest first.
-    pub log: Vec<sample::SampleEntry>,
+    /// The register and the field log.
+    pub store: Box<dyn Store>,
     /// Screen, open tag, half-typed values.
     pub ui: UiState,
     /// True while the demo plant is loaded and not yet cleared.
     pub demo: bool,
     /// Where the data lives (shown on About; `None` when rendering headless).
     pub data_dir: Option<PathBuf>,
+    /// Default folder for handoff reports (the user can type another on Log).
+    pub export_dir: Option<PathBuf>,
+    /// What opening the store had to repair, in words (shown once on Log).
+    pub notices: Vec<String>,
     /// Screens visited, for the back button.
     pub history: Vec<Screen>,
 }
 
+impl std::fmt::Debug for AppState {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.debug_struct("AppState")
+            .field("tags", &self.store.tags().len())
+            .field("entries", &self.store.entries().len())
+            .field("ui", &self.ui)
+            .field("demo", &self.demo)
+            .field("data_dir", &self.data_dir)
+            .finish()
+    }
+}
+
+impl Default for AppState {
+    fn default() -> Self {
+        AppState::with_store(Box::new(MemoryStore::new()))
+    }
+}
+
+/// The moment the headless demo is set at, so screenshots and tests do not drift:
+/// 1 December 2026, 16:30 at UTC+01:00 (invented, like the plant).
+pub fn demo_now() -> DateTime<FixedOffset> {
+    FixedOffset::east_opt(3600)
+        .and_then(|tz| tz.with_ymd_and_hms(2026, 12, 1, 16, 30, 0).single())
+        .unwrap_or_else(|| chrono::Utc::now().fixed_offset())
+}
+
 impl AppState {
-    /// A state with the demo plant loaded (first start, screenshots, tests).
-    pub fn demo() -> AppState {
-        let tags = sample::tags().unwrap_or_default();
-        let ui = UiState {
-            open_tag: tags.first().map(|t| t.number.clone()),
-            ..UiState::default()
-        };
+    /// A state over `store`, everything else at its defaults.
+    pub fn with_store(store: Box<dyn Store>) -> AppState {
         AppState {
-            tags,
-            log: sample::log(),
-            ui,
-            demo: true,
+            store,
+            ui: UiState::default(),
+            demo: false,
             data_dir: None,
+            export_dir: None,
+            notices: Vec::new(),
             history: Vec::new(),
         }
     }
 
+    /// The demo plant in memory (screenshots, tests, previews), with LT-101 open.
+    pub fn demo() -> AppState {
+        let mut store = MemoryStore::new();
+        // The demo data is built in; failing to fill an empty memory store is a bug that
+        // the demo tests catch, and the app then simply starts empty.
+        let _ = crate::demo::fill(&mut store, demo_now());
+        let mut state = AppState::with_store(Box::new(store));
+        state.ui.open_tag = state.store.tags().first().map(|t| t.tag.number.clone());
+        state.demo = true;
+        state
+    }
+
+    /// The open tag's record (id and definition), if it is in the register.
+    pub fn open_record(&self) -> Option<&TagRecord> {
+        let number = self.ui.open_tag.as_deref()?;
+        self.store.tag(number)
+    }
+
     /// The open tag, if it is in the register.
     pub fn open_tag(&self) -> Option<&Tag> {
-        let number = self.ui.open_tag.as_deref()?;
-        self.tags.iter().find(|t| t.number == number)
+        self.open_record().map(|r| &r.tag)
+    }
+
+    /// The open tag's id, if it is in the register.
+    pub fn open_tag_id(&self) -> Option<TagId> {
+        self.open_record().map(|r| r.id.clone())
+    }
+
+    /// The working register: every tag that is not archived, in the order added.
+    pub fn tags(&self) -> impl Iterator<Item = &Tag> {
+        self.store
+            .tags()
+            .iter()
+            .map(|r| &r.tag)
+            .filter(|t| !t.archived)
+    }
+
+    /// The time to stamp a new entry with: now, with the device's local offset.
+    pub fn now(&self) -> DateTime<FixedOffset> {
+        chrono::Local::now().fixed_offset()
     }
 }
 
@@ -82,7 +147,13 @@ pub struct App {
     pub window: AppWindow,
     /// The state the callbacks share.
     pub state: Shared,
+    /// Saves the screen state every few seconds when it changed, so half-typed values
+    /// survive the app being killed without warning.
+    _autosave: slint::Timer,
 }
+
+/// How often the screen state is saved if it changed.
+pub const AUTOSAVE_EVERY: std::time::Duration = std::time::Duration::from_secs(3);
 
 impl App {
     /// Create the window on the current Slint platform, wire every screen and show the
@@ -100,7 +171,21 @@ impl App {
         log::connect(&window, &state);
         about::connect(&window, &state);
         refresh_all(&window, &state.borrow());
-        Ok(App { window, state })
+        let autosave = slint::Timer::default();
+        let st = state.clone();
+        let mut last_saved = state::Saved::from_state(&state.borrow());
+        autosave.start(slint::TimerMode::Repeated, AUTOSAVE_EVERY, move || {
+            let Ok(s) = st.try_borrow() else { return };
+            let now = state::Saved::from_state(&s);
+            if now != last_saved && save(&s).is_ok() {
+                last_saved = now;
+            }
+        });
+        Ok(App {
+            window,
+            state,
+            _autosave: autosave,
+        })
     }
 
     /// Go to a screen (as the navigation does).
@@ -168,12 +253,10 @@ fn connect(window: &AppWindow, state: &Shared) {
     let st = state.clone();
     adapter.on_clear_demo(move || {
         if let Some(w) = weak.upgrade() {
-            {
-                let mut s = st.borrow_mut();
-                s.demo = false;
-                s.tags.clear();
-                s.log.clear();
-                s.ui.open_tag = None;
+            let result = clear_demo(&mut st.borrow_mut());
+            if let Err(e) = result {
+                w.global::<LogAdapter>()
+                    .set_message(format!("The demo data could not be cleared: {e}").into());
             }
             refresh_all(&w, &st.borrow());
         }
@@ -232,16 +315,80 @@ pub(crate) fn model<T: Clone + 'static>(items: Vec<T>) -> slint::ModelRc<T> {
     slint::ModelRc::new(slint::VecModel::from(items))
 }
 
-/// The state to start with: what was saved in `data_dir`, or the demo plant on first start.
-pub fn load_or_demo(data_dir: PathBuf) -> std::io::Result<AppState> {
-    let mut state = AppState::demo();
-    if let Some(saved) = state::load(&data_dir)? {
-        state.ui = saved.ui;
-        state.demo = saved.demo;
-        if !saved.demo {
-            state.tags = saved.tags;
-            state.log = saved.log;
+/// Leave the demo plant: switch to the technician's own (empty) store and delete the demo
+/// store's folder. Only the demo folder is removed, never the data folder itself.
+pub fn clear_demo(state: &mut AppState) -> Result<(), StoreError> {
+    if !state.demo {
+        return Ok(());
+    }
+    match state.data_dir.clone() {
+        Some(dir) => {
+            // Open the real store first: if that fails, the demo stays as it was.
+            let own = FileStore::open(&dir)?;
+            state.store = Box::new(own);
+            let demo_dir = dir.join(DEMO_DIR);
+            if demo_dir.exists() {
+                std::fs::remove_dir_all(&demo_dir).map_err(|source| StoreError::Io {
+                    action: "remove the demo folder",
+                    path: demo_dir.clone(),
+                    source,
+                })?;
+            }
         }
+        None => state.store = Box::new(MemoryStore::new()),
+    }
+    state.demo = false;
+    state.ui.demo_cleared = true;
+    state.ui.open_tag = None;
+    state.ui.power = Default::default();
+    state.ui.check = Default::default();
+    state.history.clear();
+    power::sync_form(state);
+    Ok(())
+}
+
+/// The state to start with in `data_dir`: the saved screen state and the store. When the
+/// technician's store is empty and the demo was never cleared, the demo plant is loaded
+/// into its own folder (`data_dir/demo`) and the banner says so.
+pub fn load_or_demo(data_dir: PathBuf) -> Result<AppState, StoreError> {
+    let io = |action: &'static str, path: &Path| {
+        let path = path.to_path_buf();
+        move |source| StoreError::Io {
+            action,
+            path,
+            source,
+        }
+    };
+    let ui = state::load(&data_dir)
+        .map_err(io(
+            "read the saved screen state",
+            &data_dir.join(state::STATE_FILE),
+        ))?
+        .map(|s| s.ui)
+        .unwrap_or_default();
+    let own = FileStore::open(&data_dir)?;
+    let (store, demo) = if own.is_empty() && !ui.demo_cleared {
+        drop(own);
+        let mut demo_store = FileStore::open(&data_dir.join(DEMO_DIR))?;
+        if demo_store.is_empty() {
+            crate::demo::fill(&mut demo_store, chrono::Local::now().fixed_offset())?;
+        }
+        (demo_store, true)
+    } else {
+        (own, false)
+    };
+    let notices = store
+        .recoveries()
+        .iter()
+        .map(|r| r.message.clone())
+        .collect();
+    let mut state = AppState::with_store(Box::new(store));
+    state.ui = ui;
+    state.demo = demo;
+    state.notices = notices;
+    if state.open_tag().is_none() {
+        let first = state.tags().next().map(|t| t.number.clone());
+        state.ui.open_tag = first;
     }
     state.data_dir = Some(data_dir);
     Ok(state)
@@ -259,10 +406,17 @@ pub fn save(state: &AppState) -> std::io::Result<()> {
 /// (Not on Android, where the data folder comes from the activity: see `crate::android`.)
 #[cfg(not(target_os = "android"))]
 pub fn run_desktop() -> Result<(), Box<dyn std::error::Error>> {
-    let data_dir = directories::ProjectDirs::from("", "", "loopside")
-        .map(|d| d.data_dir().to_path_buf())
-        .ok_or("no home folder to keep loopside's data in")?;
-    let app = App::new(load_or_demo(data_dir)?)?;
+    let data_dir = match std::env::var_os(crate::cli::DATA_ENV).filter(|d| !d.is_empty()) {
+        Some(d) => PathBuf::from(d),
+        None => directories::ProjectDirs::from("", "", "loopside")
+            .map(|d| d.data_dir().to_path_buf())
+            .ok_or("no home folder to keep loopside's data in")?,
+    };
+    let mut state = load_or_demo(data_dir.clone())?;
+    state.export_dir = directories::UserDirs::new()
+        .and_then(|u| u.document_dir().map(Path::to_path_buf))
+        .or_else(|| Some(data_dir.join("exports")));
+    let app = App::new(state)?;
     app.window.run()?;
     save(&app.state.borrow())?;
     Ok(())

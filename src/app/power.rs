@@ -316,7 +316,7 @@ mod tests {
 
     #[test]
     fn form_round_trips_and_names_bad_fields() {
-        let tags = super::super::sample::tags().unwrap();
+        let tags = crate::demo::tags().unwrap();
         let c = tags[0].loop_config.clone().unwrap();
         let form = form_from("LT-101", &c);
         let back = config_from(&form).unwrap();

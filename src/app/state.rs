@@ -1,14 +1,13 @@
 //! What survives the app being closed or killed: the screen, the open tag, half-typed
-//! values, the theme — and, until the store lands, the register and the log.
+//! values (Convert, Power, an unfinished check), the theme. The register and the log are
+//! not here: they are in the store (`crate::store`), which saves each change durably as it
+//! is made.
 //!
 //! Written as one JSON file with the crash-safe sequence (temporary file in the same
 //! folder, fsync, rename over the old file, fsync the folder), so a power cut leaves
-//! either the old state or the new one. When `crate::store` lands, [`Saved`] moves into it
-//! and this module keeps only [`UiState`].
+//! either the old state or the new one.
 
-use super::sample::SampleEntry;
 use super::AppState;
-use crate::tag::Tag;
 use serde::{Deserialize, Serialize};
 use std::fs;
 use std::io::Write;
@@ -73,6 +72,34 @@ pub struct PowerForm {
     pub elements: Vec<(String, String, bool)>,
 }
 
+/// The Check screen as the technician left it: an unfinished check survives a restart.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct CheckForm {
+    /// The tag the readings belong to (readings of another tag are not restored).
+    pub tag: String,
+    /// `as-found` or `as-left`.
+    pub stage: String,
+    /// Readings as typed, one per test point (empty: not read yet).
+    pub readings: Vec<String>,
+    /// The reference instrument, as typed.
+    pub reference: String,
+    /// The cautions were read for this check.
+    pub cautions_read: bool,
+}
+
+impl Default for CheckForm {
+    fn default() -> Self {
+        CheckForm {
+            tag: String::new(),
+            stage: "as-found".to_string(),
+            readings: Vec::new(),
+            reference: String::new(),
+            cautions_read: false,
+        }
+    }
+}
+
 /// Screen, open tag and half-typed values.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(default)]
@@ -98,6 +125,16 @@ pub struct UiState {
     pub log_all: bool,
     /// The screen to return to after a tag is picked.
     pub return_to: Option<String>,
+    /// The technician's initials, kept for the next note or check.
+    pub initials: String,
+    /// Check screen.
+    pub check: CheckForm,
+    /// Folder handoff reports are written to (empty: the default).
+    pub export_dir: String,
+    /// The bundle file last typed for import.
+    pub import_path: String,
+    /// The demo plant was cleared: do not load it again on an empty store.
+    pub demo_cleared: bool,
 }
 
 impl Default for UiState {
@@ -113,21 +150,21 @@ impl Default for UiState {
             log_search: String::new(),
             log_all: false,
             return_to: None,
+            initials: String::new(),
+            check: CheckForm::default(),
+            export_dir: String::new(),
+            import_path: String::new(),
+            demo_cleared: false,
         }
     }
 }
 
-/// What is written to disk.
+/// What is written to disk. (Files written before the store existed also hold the
+/// register and log; those fields are ignored when read.)
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Saved {
     /// Screen and half-typed values.
     pub ui: UiState,
-    /// The demo plant is loaded.
-    pub demo: bool,
-    /// The register (until the store lands).
-    pub tags: Vec<Tag>,
-    /// The log (until the journal lands).
-    pub log: Vec<SampleEntry>,
 }
 
 impl Saved {
@@ -135,9 +172,6 @@ impl Saved {
     pub fn from_state(state: &AppState) -> Saved {
         Saved {
             ui: state.ui.clone(),
-            demo: state.demo,
-            tags: state.tags.clone(),
-            log: state.log.clone(),
         }
     }
 }
@@ -206,7 +240,6 @@ mod tests {
         save(&dir, &Saved::from_state(&state)).unwrap();
         let back = load(&dir).unwrap().unwrap();
         assert_eq!(back.ui, state.ui);
-        assert_eq!(back.tags.len(), 7);
         fs::remove_dir_all(&dir).unwrap();
         assert!(load(&dir).unwrap().is_none());
     }

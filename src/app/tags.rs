@@ -1,15 +1,18 @@
 //! Tags screen glue: search the register, open a tag, add or edit one through
-//! [`crate::tag::Tag::validate`]. The register is in memory until the store lands.
+//! [`crate::tag::Tag::validate`]. Every change is saved to the store before it is shown.
 
 use super::{
     model, navigate, refresh_all, screen_from_name, AppState, AppWindow, Shared, TagsAdapter,
 };
 use crate::display;
-use crate::error::{FieldError, Result};
+use crate::error::Result;
+use crate::journal::{Entry, TagId};
 use crate::number::parse_number;
 use crate::scale::Scale;
+use crate::store::StoreError;
 use crate::tag::{clean_number, Tag};
 use slint::ComponentHandle;
+use std::collections::HashMap;
 
 /// Wire the adapter's callbacks.
 pub fn connect(window: &AppWindow, state: &Shared) {
@@ -62,58 +65,61 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let Some(w) = weak.upgrade() else { return };
         let a = w.global::<TagsAdapter>();
         let is_new = a.get_is_new();
-        let result = {
-            let s = st.borrow();
-            let base = if is_new { None } else { s.open_tag() };
-            tag_from_form(&form, base).and_then(|tag| {
-                let replacing = base.map(|b| b.number.clone());
-                let taken = s
-                    .tags
-                    .iter()
-                    .any(|t| t.number == tag.number && Some(&t.number) != replacing.as_ref());
-                if taken {
-                    Err(FieldError::new(
-                        "tag",
-                        format!("{} is already in the register", tag.number),
-                    ))
-                } else {
-                    Ok((tag, replacing))
-                }
-            })
-        };
+        let result = save_form(&mut st.borrow_mut(), &form, is_new);
         match result {
-            Ok((tag, replacing)) => {
-                {
-                    let mut s = st.borrow_mut();
-                    let number = tag.number.clone();
-                    match replacing.and_then(|r| s.tags.iter().position(|t| t.number == r)) {
-                        Some(i) => s.tags[i] = tag,
-                        None => s.tags.push(tag),
-                    }
-                    s.ui.open_tag = Some(number);
-                    s.ui.power.tag.clear();
-                    super::power::sync_form(&mut s);
-                }
+            Ok(()) => {
                 a.set_editing(false);
                 refresh_all(&w, &st.borrow());
             }
             Err(e) => {
-                a.set_error_field(e.field.clone().into());
-                a.set_error_text(e.to_string().into());
+                let (field, text) = match &e {
+                    StoreError::Input(f) => (f.field.clone(), f.to_string()),
+                    other => (String::new(), other.to_string()),
+                };
+                a.set_error_field(field.into());
+                a.set_error_text(text.into());
             }
         }
     });
+}
+
+/// Save the form: a new tag, or the open tag edited (a changed number renames it and its
+/// log follows). The tag becomes the open tag.
+pub fn save_form(
+    state: &mut AppState,
+    form: &super::TagForm,
+    is_new: bool,
+) -> std::result::Result<(), StoreError> {
+    let base = if is_new {
+        None
+    } else {
+        state.open_record().cloned()
+    };
+    let tag = tag_from_form(form, base.as_ref().map(|r| &r.tag))?;
+    let number = tag.number.clone();
+    match base {
+        Some(record) => state.store.update_tag(&record.id, tag)?,
+        None => {
+            state.store.add_tag(tag)?;
+        }
+    }
+    state.ui.open_tag = Some(number);
+    state.ui.power.tag.clear();
+    super::power::sync_form(state);
+    super::check::sync(state);
+    Ok(())
 }
 
 /// Open a tag: it becomes the tag every screen works on; go back to the screen that asked.
 pub fn open(window: &AppWindow, state: &Shared, number: &str) {
     let return_to = {
         let mut s = state.borrow_mut();
-        if !s.tags.iter().any(|t| t.number == number) {
+        let Some(found) = s.store.tag(number).map(|r| r.tag.number.clone()) else {
             return;
-        }
-        s.ui.open_tag = Some(number.to_string());
+        };
+        s.ui.open_tag = Some(found);
         super::power::sync_form(&mut s);
+        super::check::sync(&mut s);
         s.ui.return_to.take()
     };
     refresh_all(window, &state.borrow());
@@ -219,13 +225,15 @@ pub fn matches(tag: &Tag, search: &str) -> bool {
 /// Copy the (filtered) register into the adapter.
 pub fn refresh(window: &AppWindow, state: &AppState) {
     let adapter = window.global::<TagsAdapter>();
+    let last = last_entries(state);
     let rows: Vec<super::TagRow> = state
-        .tags
+        .store
+        .tags()
         .iter()
-        .filter(|t| !t.archived && matches(t, &state.ui.tag_search))
-        .map(|t| map_row(t, state))
+        .filter(|r| !r.tag.archived && matches(&r.tag, &state.ui.tag_search))
+        .map(|r| map_row(&r.tag, last.get(&r.id).copied()))
         .collect();
-    let total = state.tags.iter().filter(|t| !t.archived).count();
+    let total = state.tags().count();
     adapter.set_count_text(if rows.len() == total {
         format!("{total} tags").into()
     } else {
@@ -236,15 +244,34 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     adapter.set_open_tag(state.ui.open_tag.clone().unwrap_or_default().into());
 }
 
-/// One row: number, service, range, and the tag's last log entry.
-pub fn map_row(tag: &Tag, state: &AppState) -> super::TagRow {
+/// Each tag's newest log entry (one pass over the log).
+pub fn last_entries(state: &AppState) -> HashMap<&TagId, &Entry> {
+    let mut last: HashMap<&TagId, &Entry> = HashMap::new();
+    for e in state.store.entries() {
+        match last.get(&e.tag) {
+            Some(seen) if seen.time > e.time => {}
+            _ => {
+                last.insert(&e.tag, e);
+            }
+        }
+    }
+    last
+}
+
+/// One row: number, service, range, and the tag's last log entry (date and kind).
+pub fn map_row(tag: &Tag, last: Option<&Entry>) -> super::TagRow {
     let s = &tag.scale;
     let range = crate::view::range_text(s);
-    let last = state
-        .log
-        .iter()
-        .find(|e| e.tag == tag.number)
-        .map(|e| format!("{} · {}", &e.when[..10.min(e.when.len())], e.kind.title()))
+    let last = last
+        .map(|e| {
+            let closed = std::collections::HashSet::new();
+            let kind = crate::view::log::row_kind(e, &closed);
+            format!(
+                "{} · {}",
+                e.time.format("%Y-%m-%d"),
+                crate::view::log::title(e, kind)
+            )
+        })
         .unwrap_or_default();
     super::TagRow {
         number: tag.number.clone().into(),
@@ -290,7 +317,7 @@ mod tests {
 
     #[test]
     fn editing_keeps_what_the_form_does_not_show() {
-        let tags = super::super::sample::tags().unwrap();
+        let tags = crate::demo::tags().unwrap();
         let ft = &tags[2];
         let edited = tag_from_form(&form_of(ft), Some(ft)).unwrap();
         assert_eq!(edited.scale.transfer, ft.scale.transfer);

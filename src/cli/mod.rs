@@ -11,6 +11,7 @@ mod calc;
 mod check;
 mod sensors;
 mod store;
+pub use store::DATA_ENV;
 
 use crate::error::FieldError;
 use clap::{Parser, Subcommand};
