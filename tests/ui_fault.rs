@@ -5,7 +5,8 @@
 
 use i_slint_backend_testing::{AccessibleRole, ElementHandle};
 use loopside::app::state::Saved;
-use loopside::app::{App, AppState, FaultAdapter, Screen};
+use loopside::app::{App, AppState, FaultAdapter, LogAdapter, Screen};
+use loopside::journal::Kind;
 use slint::{ComponentHandle, Model};
 use std::cell::Cell;
 
@@ -59,6 +60,20 @@ fn type_into(app: &App, label: &str, text: &str) {
 
 fn shows(app: &App, text: &str) -> bool {
     !all(app, text, AccessibleRole::Text).is_empty()
+}
+
+/// The entry id the "saved" message names.
+fn saved_id(app: &App) -> String {
+    let message = app
+        .window
+        .global::<FaultAdapter>()
+        .get_message()
+        .to_string();
+    message
+        .strip_prefix("Saved to the log as ")
+        .and_then(|m| m.strip_suffix('.'))
+        .unwrap_or_else(|| panic!("not saved: {message}"))
+        .to_string()
 }
 
 /// Past the cautions, the stuck-low procedure started on LT-101 (open in the demo).
@@ -132,6 +147,88 @@ fn stuck_low_walked_through_the_screen_to_a_starved_transmitter() {
     assert!(conclusion.starts_with("The transmitter does not get its minimum voltage"));
     assert!(shows(&app, &format!("Conclusion. {conclusion}")));
     assert_eq!(a.get_conclusion_kind(), 3, "it points at a fault");
+}
+
+#[test]
+fn a_finished_session_is_saved_to_the_log() {
+    let app = started();
+    let a = app.window.global::<FaultAdapter>();
+    // No current, the supply is there, nothing at the transmitter: the loop is open.
+    type_into(&app, "Loop current at the transmitter", "0");
+    tap(&app, "Next");
+    type_into(&app, "Supply voltage at the supply terminals (DC)", "24,0");
+    tap(&app, "Next");
+    type_into(&app, "Voltage across the transmitter terminals (DC)", "0 V");
+    tap(&app, "Next");
+    let conclusion = a.get_conclusion_detail().to_string();
+    assert!(conclusion.starts_with("The supply is there but does not reach the transmitter"));
+    type_into(
+        &app,
+        "What you found and did",
+        "Wire lifted at JB-01 terminal 4; re-terminated",
+    );
+    type_into(&app, "Initials", "cd");
+    tap(&app, "Save to log");
+    assert_eq!(a.get_error_text(), "");
+    let id = saved_id(&app);
+    // The session is cleared and the cautions come first again.
+    assert!(!a.get_running());
+    assert!(!a.get_cautions_read());
+    assert!(app.state.borrow().ui.fault.session.is_none());
+
+    // In the store: the text, the initials and the whole session as the payload.
+    {
+        let st = app.state.borrow();
+        let entry = st
+            .store
+            .entries()
+            .iter()
+            .find(|e| e.id.as_str() == id)
+            .expect("the entry is in the store");
+        assert_eq!(entry.kind, Kind::FaultFinding);
+        assert_eq!(entry.author, "CD");
+        let payload = entry.payload.as_ref().unwrap();
+        assert_eq!(payload["procedure"], "stuck-low");
+        assert_eq!(payload["conclusion"]["step"], "open-wiring");
+        assert_eq!(payload["measurements"]["supply_v"]["value"], 24.0);
+        assert_eq!(
+            payload["technician_conclusion"],
+            "Wire lifted at JB-01 terminal 4; re-terminated"
+        );
+    }
+
+    // And on the Log screen.
+    app.show_screen(Screen::Log);
+    let text = format!(
+        "Reading stuck at or below zero: {conclusion}\nTechnician: Wire lifted at JB-01 terminal 4; re-terminated"
+    );
+    let rows = app.window.global::<LogAdapter>().get_rows();
+    let row = rows
+        .iter()
+        .find(|r| r.id == id.as_str())
+        .expect("the entry is listed");
+    assert_eq!(row.text, text.as_str());
+    assert_eq!(row.tag, "LT-101");
+    assert!(shows(&app, &format!("LT-101 {}: {text}", row.title)));
+}
+
+#[test]
+fn an_unfinished_session_can_be_saved_and_says_so() {
+    let app = started();
+    type_into(&app, "Loop current at the transmitter", "0");
+    tap(&app, "Next");
+    type_into(&app, "Initials", "AB");
+    tap(&app, "Save to log");
+    let id = saved_id(&app);
+    let st = app.state.borrow();
+    let entry = st
+        .store
+        .entries()
+        .iter()
+        .find(|e| e.id.as_str() == id)
+        .unwrap();
+    assert_eq!(entry.text, "Reading stuck at or below zero: not finished");
+    assert_eq!(entry.payload.as_ref().unwrap()["current"], "supply");
 }
 
 #[test]

@@ -5,11 +5,15 @@
 //! The session lives in the saved screen state ([`FaultState`]: the session as JSON, the
 //! values half-typed at its step, the technician's words), so an unfinished session
 //! survives the app being killed and is resumed with [`Session::resume`] on the next start.
+//! Saving writes it to the tag's log (kind fault-finding, the session as the payload), and
+//! clears it.
 
 use super::state::FaultState;
 use super::{model, AppState, AppWindow, FaultAdapter, Shared};
 use crate::diagnose::{procedure, Answer, Measurement, Procedure, Progress, Session};
 use crate::error::{FieldError, Result};
+use crate::journal::{Entry, EntryId, Kind};
+use crate::store::StoreError;
 use crate::tag::Tag;
 use crate::view::fault::{self as fv, Inputs};
 use slint::{ComponentHandle, Model};
@@ -142,6 +146,43 @@ pub fn restart(state: &mut AppState) {
     state.ui.fault = FaultState::default();
 }
 
+/// Save the session, finished or not, to its tag's log: the text says what the procedure
+/// concluded (or that it is not finished) and the technician's own words, the session is
+/// the payload, and `initials` sign it. The session is then cleared; returns the entry's
+/// id once it is durable.
+pub fn save(state: &mut AppState, initials: &str) -> std::result::Result<EntryId, StoreError> {
+    let run = current(state)?
+        .ok_or_else(|| FieldError::new("session", "none is under way; choose a symptom first"))?;
+    let mut session = run.session;
+    session.conclude(&state.ui.fault.technician);
+    let tag_id = state
+        .store
+        .tag(&session.tag)
+        .map(|r| r.id.clone())
+        .ok_or_else(|| {
+            FieldError::new(
+                "tag",
+                format!("{} is no longer in the register", session.tag),
+            )
+        })?;
+    let who = initials.trim().to_uppercase();
+    let mut entry = Entry::new(
+        &tag_id,
+        state.now(),
+        &who,
+        Kind::FaultFinding,
+        &fv::log_text(&session),
+    )?;
+    entry.payload = Some(
+        serde_json::to_value(&session)
+            .map_err(|e| FieldError::new("session", format!("cannot be written: {e}")))?,
+    );
+    let id = state.store.append(entry)?;
+    state.ui.initials = who;
+    restart(state);
+    Ok(id)
+}
+
 /// The line shown when an unfinished session is carried on after a restart.
 pub fn resume_text(run: &Run) -> String {
     let at = if run.session.is_finished() {
@@ -209,7 +250,26 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     });
     let st = state.clone();
     a.on_initials_edited(move |text| {
-        st.borrow_mut().ui.fault.initials = text.to_string();
+        st.borrow_mut().ui.initials = text.to_string();
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
+    a.on_save(move || {
+        let Some(w) = weak.upgrade() else { return };
+        let a = w.global::<FaultAdapter>();
+        let initials = a.get_initials_text().to_string();
+        let saved = save(&mut st.borrow_mut(), &initials);
+        match saved {
+            Ok(id) => {
+                a.set_error_text("".into());
+                a.set_resume_text("".into());
+                a.set_message(format!("Saved to the log as {id}.").into());
+                refresh(&w, &st.borrow());
+                super::log::refresh(&w, &st.borrow());
+                super::tags::refresh(&w, &st.borrow());
+            }
+            Err(e) => a.set_error_text(e.to_string().into()),
+        }
     });
     let weak = window.as_weak();
     let st = state.clone();
@@ -304,11 +364,16 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
             .collect(),
     ));
     a.set_technician_text(f.technician.clone().into());
-    a.set_initials_text(f.initials.clone().into());
+    a.set_initials_text(state.ui.initials.clone().into());
     let run = current(state).ok().flatten();
     let Some(run) = run else {
         a.set_running(false);
-        a.set_tag_title(state.ui.open_tag.clone().unwrap_or_default().into());
+        a.set_tag_title(
+            state
+                .open_tag()
+                .map_or_else(|| "—".to_string(), |t| t.number.clone())
+                .into(),
+        );
         a.set_procedure_title("".into());
         a.set_steps(model(Vec::new()));
         a.set_step_number(0);

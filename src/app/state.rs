@@ -223,8 +223,6 @@ pub struct FaultState {
     pub inputs: std::collections::BTreeMap<String, String>,
     /// The technician's own conclusion, as typed.
     pub technician: String,
-    /// Initials, as typed.
-    pub initials: String,
 }
 
 #[cfg(test)]
