@@ -299,3 +299,25 @@ fn a_killed_app_comes_back_where_the_session_was() {
         .get_conclusion_detail()
         .starts_with("The supply is there but does not reach the transmitter"));
 }
+
+#[test]
+fn a_saved_session_that_cannot_be_read_is_reported() {
+    let mut state = AppState::demo();
+    state.ui.fault.cautions_read = true;
+    state.ui.fault.procedure = "stuck-low".to_string();
+    state.ui.fault.session = Some("{ half a file".to_string());
+    let app = app_with(state);
+    let a = app.window.global::<FaultAdapter>();
+    assert!(
+        a.get_error_text()
+            .starts_with("The unfinished session cannot be carried on (session: cannot be read"),
+        "{}",
+        a.get_error_text()
+    );
+    assert!(!a.get_running());
+    // A new session replaces it.
+    tap(&app, "Reading stuck at or below zero");
+    assert_eq!(a.get_error_text(), "");
+    assert!(a.get_running());
+    assert_eq!(a.get_step_number(), 1);
+}

@@ -203,7 +203,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         Ok(Some(run)) => a.set_resume_text(resume_text(&run).into()),
         Ok(None) => {}
         Err(e) => a.set_error_text(
-            format!("The unfinished session cannot be carried on ({e}). Save it to the log or start again.")
+            format!("The unfinished session cannot be carried on ({e}); choose a symptom to start a new one.")
                 .into(),
         ),
     }
