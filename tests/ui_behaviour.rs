@@ -134,13 +134,13 @@ fn cautions_come_before_fault_finding_steps() {
     let app = app();
     app.show_screen(Screen::Fault);
     assert_eq!(
-        ElementHandle::find_by_accessible_label(&app.window, "Reading stuck low or at zero")
+        ElementHandle::find_by_accessible_label(&app.window, "Reading stuck at or below zero")
             .count(),
         0,
         "no symptom or step before the cautions are read"
     );
     button(&app, "I have read these; start").invoke_accessible_default_action();
-    assert!(button(&app, "Reading stuck low or at zero").is_valid());
+    assert!(button(&app, "Reading stuck at or below zero").is_valid());
 }
 
 #[test]

@@ -1,113 +1,435 @@
-//! Find fault screen glue: cautions first, then symptom, steps and finding.
+//! Find fault screen glue: cautions first, then a symptom starts a session of the procedure
+//! engine ([`crate::diagnose`]) on the open tag; each step's answer goes to the session and
+//! the screen is worked out by [`crate::view::fault`].
 //!
-//! Preview: the steps and the finding shown are the demo plant's LT-101 loose-wire case,
-//! laid out so the screen can be built and tested; the procedure engine (`crate::diagnose`,
-//! branch `check`) supplies real steps and findings when it lands on main.
+//! The session lives in the saved screen state ([`FaultState`]: the session as JSON, the
+//! values half-typed at its step, the technician's words), so an unfinished session
+//! survives the app being killed and is resumed with [`Session::resume`] on the next start.
+//! Saving writes it to the tag's log (kind fault-finding, the session as the payload), and
+//! clears it.
 
+use super::state::FaultState;
 use super::{model, AppState, AppWindow, FaultAdapter, Shared};
-use slint::ComponentHandle;
+use crate::diagnose::{procedure, Answer, Measurement, Procedure, Progress, Session};
+use crate::error::{FieldError, Result};
+use crate::journal::{Entry, EntryId, Kind};
+use crate::store::StoreError;
+use crate::tag::Tag;
+use crate::view::fault::{self as fv, Inputs};
+use slint::{ComponentHandle, Model};
+use std::sync::OnceLock;
 
-/// Symptoms offered (the engine will supply its own list).
-const SYMPTOMS: [&str; 4] = [
-    "Reading stuck low or at zero",
-    "Reading stuck high or over range",
-    "Reading wrong but moving",
-    "Reading noisy or jumping",
-];
+/// The built-in procedures, read and checked once.
+fn procedures() -> Result<&'static [Procedure]> {
+    static BUILTIN: OnceLock<std::result::Result<Vec<Procedure>, FieldError>> = OnceLock::new();
+    BUILTIN
+        .get_or_init(procedure::builtin)
+        .as_deref()
+        .map_err(Clone::clone)
+}
 
-/// Wire the adapter's callbacks.
+/// A session under way, read back from the saved state, with its procedure and tag.
+pub struct Run {
+    /// The procedure it runs.
+    pub procedure: Procedure,
+    /// The session.
+    pub session: Session,
+    /// The tag it runs on.
+    pub tag: Tag,
+}
+
+/// The tag with this number in the register.
+fn find_tag(state: &AppState, number: &str) -> Option<Tag> {
+    state.store.tag(number).map(|r| r.tag.clone())
+}
+
+/// The session under way (None when there is none); an error when the saved session can
+/// no longer be carried on (its procedure or tag is gone).
+pub fn current(state: &AppState) -> Result<Option<Run>> {
+    let f = &state.ui.fault;
+    let Some(json) = &f.session else {
+        return Ok(None);
+    };
+    let procedure = procedures()?
+        .iter()
+        .find(|p| p.id == f.procedure)
+        .cloned()
+        .ok_or_else(|| {
+            FieldError::new(
+                "session",
+                format!("runs procedure '{}', which is not built in", f.procedure),
+            )
+        })?;
+    let session = Session::resume(json, &procedure)?;
+    let tag = find_tag(state, &session.tag).ok_or_else(|| {
+        FieldError::new(
+            "session",
+            format!(
+                "is on tag {}, which is no longer in the register",
+                session.tag
+            ),
+        )
+    })?;
+    Ok(Some(Run {
+        procedure,
+        session,
+        tag,
+    }))
+}
+
+/// Keep the session in the saved state.
+fn keep(state: &mut AppState, run: &Run) -> Result<()> {
+    state.ui.fault.procedure = run.procedure.id.clone();
+    state.ui.fault.session = Some(run.session.to_json()?);
+    Ok(())
+}
+
+/// The values typed at the current step, by measurement.
+fn typed(f: &FaultState) -> Inputs {
+    f.inputs
+        .iter()
+        .filter_map(|(k, v)| Measurement::from_key(k).map(|m| (m, v.clone())))
+        .collect()
+}
+
+/// Start the procedure for symptom `index` (in menu order) on the open tag.
+pub fn start(state: &mut AppState, index: usize) -> Result<()> {
+    let tag = state
+        .open_tag()
+        .cloned()
+        .ok_or_else(|| FieldError::new("tag", "none is open; open a tag on Tags first"))?;
+    let procedure = procedures()?
+        .get(index)
+        .cloned()
+        .ok_or_else(|| FieldError::new("symptom", "is not on the list; choose one shown"))?;
+    let run = Run {
+        session: Session::start(&procedure, &tag),
+        procedure,
+        tag,
+    };
+    state.ui.fault.inputs.clear();
+    state.ui.fault.technician.clear();
+    keep(state, &run)
+}
+
+/// Submit the values typed at the current measure step.
+pub fn submit(state: &mut AppState) -> Result<Progress> {
+    let mut run = current(state)?
+        .ok_or_else(|| FieldError::new("session", "none is under way; choose a symptom"))?;
+    let values = fv::answers(
+        &run.procedure,
+        &run.session,
+        &run.tag,
+        &typed(&state.ui.fault),
+    )?;
+    let progress = run
+        .session
+        .answer(&run.procedure, &run.tag, Answer::Values(values))?;
+    state.ui.fault.inputs.clear();
+    keep(state, &run)?;
+    Ok(progress)
+}
+
+/// Answer the current question step.
+pub fn answer(state: &mut AppState, yes: bool) -> Result<Progress> {
+    let mut run = current(state)?
+        .ok_or_else(|| FieldError::new("session", "none is under way; choose a symptom"))?;
+    let progress = run
+        .session
+        .answer(&run.procedure, &run.tag, Answer::YesNo(yes))?;
+    keep(state, &run)?;
+    Ok(progress)
+}
+
+/// Drop the session and what was typed; the cautions are shown again.
+pub fn restart(state: &mut AppState) {
+    state.ui.fault = FaultState::default();
+}
+
+/// Save the session, finished or not, to its tag's log: the text says what the procedure
+/// concluded (or that it is not finished) and the technician's own words, the session is
+/// the payload, and `initials` sign it. The session is then cleared; returns the entry's
+/// id once it is durable.
+pub fn save(state: &mut AppState, initials: &str) -> std::result::Result<EntryId, StoreError> {
+    let run = current(state)?
+        .ok_or_else(|| FieldError::new("session", "none is under way; choose a symptom first"))?;
+    let mut session = run.session;
+    session.conclude(&state.ui.fault.technician);
+    let tag_id = state
+        .store
+        .tag(&session.tag)
+        .map(|r| r.id.clone())
+        .ok_or_else(|| {
+            FieldError::new(
+                "tag",
+                format!("{} is no longer in the register", session.tag),
+            )
+        })?;
+    let who = initials.trim().to_uppercase();
+    let mut entry = Entry::new(
+        &tag_id,
+        state.now(),
+        &who,
+        Kind::FaultFinding,
+        &fv::log_text(&session),
+    )?;
+    entry.payload = Some(
+        serde_json::to_value(&session)
+            .map_err(|e| FieldError::new("session", format!("cannot be written: {e}")))?,
+    );
+    let id = state.store.append(entry)?;
+    state.ui.initials = who;
+    restart(state);
+    Ok(id)
+}
+
+/// The line shown when an unfinished session is carried on after a restart.
+pub fn resume_text(run: &Run) -> String {
+    let at = if run.session.is_finished() {
+        "concluded, not yet saved".to_string()
+    } else {
+        format!("at step {}", run.session.steps.len() + 1)
+    };
+    format!(
+        "Resumed the unfinished session on {}: {}, {at}.",
+        run.session.tag, run.session.title
+    )
+}
+
+/// Wire the adapter's callbacks, and say so when an unfinished session is resumed.
 pub fn connect(window: &AppWindow, state: &Shared) {
     let a = window.global::<FaultAdapter>();
+    match current(&state.borrow()) {
+        Ok(Some(run)) => a.set_resume_text(resume_text(&run).into()),
+        Ok(None) => {}
+        Err(e) => a.set_error_text(
+            format!("The unfinished session cannot be carried on ({e}); choose a symptom to start a new one.")
+                .into(),
+        ),
+    }
     let weak = window.as_weak();
+    let st = state.clone();
     a.on_read_cautions(move || {
-        if let Some(w) = weak.upgrade() {
-            w.global::<FaultAdapter>().set_cautions_read(true);
-        }
+        let Some(w) = weak.upgrade() else { return };
+        st.borrow_mut().ui.fault.cautions_read = true;
+        refresh(&w, &st.borrow());
     });
     let weak = window.as_weak();
+    let st = state.clone();
     a.on_pick_symptom(move |i| {
-        if let Some(w) = weak.upgrade() {
-            w.global::<FaultAdapter>().set_symptom(i);
-        }
+        let Some(w) = weak.upgrade() else { return };
+        let result = start(
+            &mut st.borrow_mut(),
+            usize::try_from(i).unwrap_or(usize::MAX),
+        );
+        after(&w, &st, result.map(|_| ()));
     });
     let weak = window.as_weak();
-    a.on_step_edited(move |_, _| {
-        if let Some(w) = weak.upgrade() {
-            w.global::<FaultAdapter>().set_error_text(
-                "Preview: findings arrive with the fault-finding engine (branch check).".into(),
-            );
-        }
+    let st = state.clone();
+    a.on_input_edited(move |i, text| {
+        let Some(w) = weak.upgrade() else { return };
+        edited(&w, &mut st.borrow_mut(), i, &text);
     });
     let weak = window.as_weak();
+    let st = state.clone();
+    a.on_next(move || {
+        let Some(w) = weak.upgrade() else { return };
+        let result = submit(&mut st.borrow_mut());
+        after(&w, &st, result.map(|_| ()));
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
+    a.on_answer(move |yes| {
+        let Some(w) = weak.upgrade() else { return };
+        let result = answer(&mut st.borrow_mut(), yes);
+        after(&w, &st, result.map(|_| ()));
+    });
+    let st = state.clone();
+    a.on_technician_edited(move |text| {
+        st.borrow_mut().ui.fault.technician = text.to_string();
+    });
+    let st = state.clone();
+    a.on_initials_edited(move |text| {
+        st.borrow_mut().ui.initials = text.to_string();
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
     a.on_save(move || {
-        if let Some(w) = weak.upgrade() {
-            w.global::<FaultAdapter>()
-                .set_error_text("Saving sessions arrives with the store (branch store).".into());
+        let Some(w) = weak.upgrade() else { return };
+        let a = w.global::<FaultAdapter>();
+        let initials = a.get_initials_text().to_string();
+        let saved = save(&mut st.borrow_mut(), &initials);
+        match saved {
+            Ok(id) => {
+                a.set_error_text("".into());
+                a.set_resume_text("".into());
+                a.set_message(format!("Saved to the log as {id}.").into());
+                refresh(&w, &st.borrow());
+                super::log::refresh(&w, &st.borrow());
+                super::tags::refresh(&w, &st.borrow());
+            }
+            Err(e) => a.set_error_text(e.to_string().into()),
         }
     });
     let weak = window.as_weak();
     let st = state.clone();
     a.on_restart(move || {
-        if let Some(w) = weak.upgrade() {
-            let a = w.global::<FaultAdapter>();
-            a.set_cautions_read(false);
-            a.set_symptom(-1);
-            a.set_error_text("".into());
-            refresh(&w, &st.borrow());
-        }
+        let Some(w) = weak.upgrade() else { return };
+        restart(&mut st.borrow_mut());
+        let a = w.global::<FaultAdapter>();
+        a.set_message("".into());
+        a.set_resume_text("".into());
+        a.set_error_text("".into());
+        refresh(&w, &st.borrow());
     });
 }
 
-/// Copy the cautions, symptoms and the preview procedure in.
+/// After an action: redraw on success, or show the error and keep everything as typed.
+fn after(window: &AppWindow, state: &Shared, result: Result<()>) {
+    let a = window.global::<FaultAdapter>();
+    match result {
+        Ok(()) => {
+            a.set_error_text("".into());
+            a.set_message("".into());
+            refresh(window, &state.borrow());
+        }
+        Err(e) => a.set_error_text(e.to_string().into()),
+    }
+}
+
+/// One input typed into: keep the text, and update that row only (so the field keeps its
+/// focus), with the reason it cannot be used if it cannot.
+fn edited(window: &AppWindow, state: &mut AppState, row: i32, text: &str) {
+    let Ok(row) = usize::try_from(row) else {
+        return;
+    };
+    let Ok(Some(run)) = current(state) else {
+        return;
+    };
+    let Some(m) = run.session.pending(&run.procedure).get(row).copied() else {
+        return;
+    };
+    state
+        .ui
+        .fault
+        .inputs
+        .insert(m.key().to_string(), text.to_string());
+    let v = fv::view(
+        &run.procedure,
+        &run.session,
+        &run.tag,
+        &typed(&state.ui.fault),
+    );
+    let a = window.global::<FaultAdapter>();
+    if let Some(input) = v.current.as_ref().and_then(|c| c.inputs.get(row)) {
+        let inputs = a.get_inputs();
+        if row < inputs.row_count() {
+            inputs.set_row_data(row, map_input(input));
+        }
+        if input.error.is_empty() {
+            a.set_error_text("".into());
+        }
+    }
+}
+
+fn map_input(i: &fv::Input) -> super::FaultInput {
+    super::FaultInput {
+        label: i.label.clone().into(),
+        unit: i.unit.clone().into(),
+        value: i.text.clone().into(),
+        error: i.error.clone().into(),
+    }
+}
+
+/// Copy the cautions, the symptom menu and the session (if one is under way) in.
 pub fn refresh(window: &AppWindow, state: &AppState) {
     let a = window.global::<FaultAdapter>();
-    a.set_tag_title(state.ui.open_tag.clone().unwrap_or_default().into());
+    let f = &state.ui.fault;
     a.set_cautions(model(
-        crate::view::CAUTIONS.iter().map(|c| (*c).into()).collect(),
+        crate::caution::CAUTIONS
+            .iter()
+            .map(|c| (*c).into())
+            .collect(),
     ));
-    a.set_symptoms(model(SYMPTOMS.iter().map(|s| (*s).into()).collect()));
-    let step = |title: &str, detail: &str, label: &str, unit: &str, value: &str, st: i32| {
-        super::FaultStep {
-            title: title.into(),
-            detail: detail.into(),
-            input_label: label.into(),
-            unit: unit.into(),
-            value: value.into(),
-            state: st,
-        }
+    a.set_cautions_read(f.cautions_read);
+    a.set_symptoms(model(
+        procedures()
+            .map(fv::symptoms)
+            .unwrap_or_default()
+            .into_iter()
+            .map(|s| super::FaultSymptom {
+                title: s.title.into(),
+                summary: s.summary.into(),
+            })
+            .collect(),
+    ));
+    a.set_technician_text(f.technician.clone().into());
+    a.set_initials_text(state.ui.initials.clone().into());
+    let run = current(state).ok().flatten();
+    let Some(run) = run else {
+        a.set_running(false);
+        a.set_tag_title(
+            state
+                .open_tag()
+                .map_or_else(|| "—".to_string(), |t| t.number.clone())
+                .into(),
+        );
+        a.set_procedure_title("".into());
+        a.set_steps(model(Vec::new()));
+        a.set_step_number(0);
+        a.set_inputs(model(Vec::new()));
+        a.set_findings(model(Vec::new()));
+        a.set_conclusion_detail("".into());
+        return;
     };
-    a.set_steps(model(vec![
-        step(
-            "Loop current at the marshalling",
-            "Clamp or series meter on the PLC input terminals.",
-            "Loop current",
-            "mA",
-            "3.50",
-            2,
-        ),
-        step(
-            "Supply at the cabinet",
-            "Across the loop supply terminals, with the loop connected.",
-            "Supply",
-            "V",
-            "24.1",
-            1,
-        ),
-        step(
-            "Volts at the transmitter terminals",
-            "At the transmitter, loop connected. Compare with its 10.5 V minimum.",
-            "Terminal volts",
-            "V",
-            "0.0",
-            2,
-        ),
-    ]));
-    a.set_finding_title("Open circuit between the cabinet and the transmitter".into());
-    a.set_finding_detail(
-        "Supply is present but no volts reach the transmitter: look for a loose or broken termination on the way (junction box first).".into(),
-    );
-    a.set_finding_kind(3);
-    a.set_resume_text(
-        "Preview: the steps are an example until the fault-finding engine lands.".into(),
-    );
+    let v = fv::view(&run.procedure, &run.session, &run.tag, &typed(f));
+    a.set_running(true);
+    a.set_tag_title(v.tag.clone().into());
+    a.set_procedure_title(v.title.clone().into());
+    a.set_steps(model(
+        v.done
+            .iter()
+            .map(|d| super::FaultStep {
+                number: d.number as i32,
+                instruction: d.instruction.clone().into(),
+                measured: d.lines.join("\n").into(),
+                outcome: d.outcome.clone().into(),
+                kind: d.tone.code(),
+                fault: d.points_to_fault,
+            })
+            .collect(),
+    ));
+    match &v.current {
+        Some(c) => {
+            a.set_step_number(c.number as i32);
+            a.set_step_instruction(c.instruction.clone().into());
+            a.set_question(c.question.clone().unwrap_or_default().into());
+            a.set_known(model(c.known.iter().map(|k| k.clone().into()).collect()));
+            a.set_inputs(model(c.inputs.iter().map(map_input).collect()));
+        }
+        None => {
+            a.set_step_number(0);
+            a.set_step_instruction("".into());
+            a.set_question("".into());
+            a.set_known(model(Vec::new()));
+            a.set_inputs(model(Vec::new()));
+        }
+    }
+    a.set_findings(model(
+        v.findings
+            .iter()
+            .map(|f| super::FaultFinding {
+                text: f.text.clone().into(),
+                kind: f.tone.code(),
+            })
+            .collect(),
+    ));
+    match &v.conclusion {
+        Some(c) => {
+            a.set_conclusion_title(c.title.clone().into());
+            a.set_conclusion_detail(c.detail.clone().into());
+            a.set_conclusion_kind(c.tone.code());
+        }
+        None => a.set_conclusion_detail("".into()),
+    }
 }

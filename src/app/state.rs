@@ -126,6 +126,9 @@ pub struct UiState {
     pub convert: ConvertState,
     /// Power screen.
     pub power: PowerForm,
+    /// Find fault screen: the session under way and what is typed.
+    #[serde(default)]
+    pub fault: FaultState,
     /// Search text on Tags.
     pub tag_search: String,
     /// Log: search text and whether all tags are shown.
@@ -154,6 +157,7 @@ impl Default for UiState {
             dark: false,
             convert: ConvertState::default(),
             power: PowerForm::default(),
+            fault: FaultState::default(),
             tag_search: String::new(),
             log_search: String::new(),
             log_all: false,
@@ -214,6 +218,23 @@ pub fn save(dir: &Path, saved: &Saved) -> std::io::Result<()> {
     #[cfg(unix)]
     fs::File::open(dir)?.sync_all()?;
     Ok(())
+}
+
+/// The Find fault screen as the technician left it: an unfinished session, the values
+/// half-typed at its current step and the technician's own words survive a restart.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct FaultState {
+    /// The cautions were read.
+    pub cautions_read: bool,
+    /// Id of the procedure the session runs (empty when none is under way).
+    pub procedure: String,
+    /// The session under way, as `Session::to_json` wrote it.
+    pub session: Option<String>,
+    /// Values typed at the current step and not yet submitted, by measurement key.
+    pub inputs: std::collections::BTreeMap<String, String>,
+    /// The technician's own conclusion, as typed.
+    pub technician: String,
 }
 
 #[cfg(test)]

@@ -8,6 +8,7 @@
 pub mod bands;
 pub mod check;
 pub mod convert;
+pub mod fault;
 pub mod log;
 pub mod power;
 pub mod sensor_calc;
