@@ -16,14 +16,9 @@ pub mod sensor_calc;
 use crate::display;
 use crate::scale::Scale;
 
-/// The cautions shown before fault-finding and checks (plain words; the site's own
-/// procedures come first).
-pub const CAUTIONS: [&str; 4] = [
-    "Breaking or forcing a loop moves what it controls: tell operations first, put the loop in manual or bypass it under the site's procedure, and restore it afterwards.",
-    "In a hazardous area use only equipment certified for it; respect intrinsic-safety rules (IEC 60079-14 or the local code) and the site's permits.",
-    "Isolate under the site's lockout rules; a 24 V loop cabinet can hold mains voltage too.",
-    "loopside supports, and never replaces, local codes, site procedures and licensed practice.",
-];
+/// The cautions shown before fault-finding and checks: the one list in
+/// [`crate::caution`], so the screens, the command line and the saved sessions say the same.
+pub use crate::caution::CAUTIONS;
 
 /// A number as a person would type it, without trailing zeros: `250`, `10.5`, `-20`.
 pub fn plain(v: f64) -> String {
