@@ -5,7 +5,8 @@
 //! - `loopside.journal` — header line, then one line per saved record (see
 //!   [`super::record`]). Appends write the new lines and sync the file before returning.
 //! - `loopside.lock` — held with an exclusive lock while a store is open, so a second
-//!   process gets a clear "in use" error instead of interleaving writes.
+//!   process gets a clear "in use" error (after waiting, if asked to) instead of
+//!   interleaving writes.
 //! - `loopside.journal.torn-…`, `…damaged-…`, `…v0-backup-…` — copies set aside by
 //!   recovery or migration; never deleted by loopside.
 //!
@@ -25,6 +26,7 @@ use super::{Register, Store, StoreError, StoreResult};
 use std::fs::{self, File, OpenOptions, TryLockError};
 use std::io::{self, Write};
 use std::path::{Path, PathBuf};
+use std::time::{Duration, Instant};
 
 /// Name of the journal file in the data folder.
 pub const JOURNAL_FILE: &str = "loopside.journal";
@@ -168,8 +170,14 @@ fn scan(bytes: &[u8]) -> Scan {
 impl FileStore {
     /// Open (or create) the store in `folder`, taking its lock. Recovery actions taken on
     /// the way are listed by [`FileStore::recoveries`]; none of them loses a readable
-    /// record. Fails with [`StoreError::InUse`] when another process has it open.
+    /// record. Fails at once with [`StoreError::InUse`] when another store has it open.
     pub fn open(folder: &Path) -> StoreResult<FileStore> {
+        FileStore::open_waiting(folder, Duration::ZERO)
+    }
+
+    /// Like [`FileStore::open`], but when another store has the folder open, try again
+    /// every 50 ms for up to `wait` before failing with [`StoreError::InUse`].
+    pub fn open_waiting(folder: &Path, wait: Duration) -> StoreResult<FileStore> {
         let folder = folder.to_path_buf();
         if !folder.is_dir() {
             fs::create_dir_all(&folder).map_err(io_err("create the data folder", &folder))?;
@@ -185,10 +193,19 @@ impl FileStore {
             .truncate(false)
             .open(&lock_path)
             .map_err(io_err("open", &lock_path))?;
-        match lock.try_lock() {
-            Ok(()) => {}
-            Err(TryLockError::WouldBlock) => return Err(StoreError::InUse { folder }),
-            Err(TryLockError::Error(e)) => return Err(io_err("lock", &lock_path)(e)),
+        let started = Instant::now();
+        loop {
+            match lock.try_lock() {
+                Ok(()) => break,
+                Err(TryLockError::WouldBlock) => {
+                    let left = wait.saturating_sub(started.elapsed());
+                    if left.is_zero() {
+                        return Err(StoreError::InUse { folder });
+                    }
+                    std::thread::sleep(left.min(LOCK_POLL));
+                }
+                Err(TryLockError::Error(e)) => return Err(io_err("lock", &lock_path)(e)),
+            }
         }
         let journal_path = folder.join(JOURNAL_FILE);
         let mut recoveries = Vec::new();
@@ -329,6 +346,9 @@ impl FileStore {
         &self.journal_path
     }
 }
+
+/// How often [`FileStore::open_waiting`] tries the lock again.
+const LOCK_POLL: Duration = Duration::from_millis(50);
 
 /// Rewrite the journal with a current header and the good lines, byte for byte.
 fn rewrite(path: &Path, bytes: &[u8], good: &[(usize, usize)]) -> StoreResult<()> {
