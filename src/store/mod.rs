@@ -23,7 +23,7 @@ use chrono::Utc;
 use record::Record;
 use serde::{Deserialize, Serialize};
 use std::cell::OnceCell;
-use std::collections::HashMap;
+use std::collections::{HashMap, HashSet};
 use std::path::PathBuf;
 
 /// A tag as the register keeps it: its stable id and its current definition.
@@ -79,6 +79,31 @@ pub struct Register {
     tag_pos: HashMap<TagId, usize>,
     entries: Vec<Entry>,
     entry_pos: OnceCell<HashMap<EntryId, usize>>,
+    folded: OnceCell<Folded>,
+}
+
+/// Every entry's text in lower case, one after another with a NUL after each, so one
+/// substring search covers the whole log. A needle without NUL never matches across two
+/// entries.
+#[derive(Debug, Default)]
+struct Folded {
+    text: Vec<u8>,
+    /// Where each entry's text starts in `text`, in entry order.
+    starts: Vec<usize>,
+}
+
+impl Folded {
+    fn push(&mut self, text: &str) {
+        self.starts.push(self.text.len());
+        if text.is_ascii() {
+            // The same as `to_lowercase` for ASCII, without a string per entry.
+            self.text
+                .extend(text.bytes().map(|b| b.to_ascii_lowercase()));
+        } else {
+            self.text.extend_from_slice(text.to_lowercase().as_bytes());
+        }
+        self.text.push(0);
+    }
 }
 
 impl Register {
@@ -99,6 +124,9 @@ impl Register {
                     }
                     index.insert(e.id.clone(), self.entries.len());
                 }
+                if let Some(f) = self.folded.get_mut() {
+                    f.push(&e.text);
+                }
                 self.entries.push(e);
             }
         }
@@ -113,6 +141,52 @@ impl Register {
             }
             m
         })
+    }
+
+    /// Entries matching `query`, in log order: the same answer as [`journal::search`]
+    /// over the register's entries. A text query searches a lower-cased copy of every
+    /// entry's text, made on first use and kept up to date.
+    pub fn search(&self, query: &Query) -> Vec<&Entry> {
+        let entries = &self.entries;
+        let Some(needle) = journal::needle(query).filter(|n| !n.contains('\0')) else {
+            return journal::search(entries, query);
+        };
+        let folded = self.folded.get_or_init(|| {
+            let mut f = Folded {
+                text: Vec::with_capacity(entries.iter().map(|e| e.text.len() + 1).sum()),
+                starts: Vec::with_capacity(entries.len()),
+            };
+            for e in entries {
+                f.push(&e.text);
+            }
+            f
+        });
+        let closed = if query.open_only {
+            journal::closed_follow_ups(entries)
+        } else {
+            HashSet::new()
+        };
+        let finder = memchr::memmem::Finder::new(needle.as_bytes());
+        let mut found = Vec::new();
+        let mut from = 0;
+        while let Some(hit) = folded.text.get(from..).and_then(|t| finder.find(t)) {
+            let at = from + hit;
+            // The entry whose text holds the hit; then go on from the next entry's text.
+            let i = folded
+                .starts
+                .partition_point(|&s| s <= at)
+                .saturating_sub(1);
+            let Some(e) = entries.get(i) else { break };
+            if journal::passes_filters(e, query, &closed) {
+                found.push(e);
+            }
+            from = folded
+                .starts
+                .get(i + 1)
+                .copied()
+                .unwrap_or(folded.text.len());
+        }
+        found
     }
 }
 
@@ -338,7 +412,7 @@ pub trait Store {
 
     /// Entries matching `query`, in log order.
     fn search(&self, query: &Query) -> Vec<&Entry> {
-        journal::search(self.entries(), query)
+        self.register().search(query)
     }
 
     /// Merge a bundle from another device. Entries are matched by id: ones already here
@@ -381,7 +455,7 @@ pub trait Store {
                 }
             }
         }
-        let mut seen = std::collections::HashSet::new();
+        let mut seen = HashSet::new();
         for e in &bundle.entries {
             if self.entry(&e.id).is_some() || !seen.insert(e.id.clone()) {
                 report.entries_already_here += 1;
