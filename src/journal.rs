@@ -355,14 +355,29 @@ fn contains_folded(haystack: &str, needle_lower: &str) -> bool {
     }
 }
 
-/// The entries matching `query`, in log order (oldest appended first).
-pub fn search<'a>(entries: &'a [Entry], query: &Query) -> Vec<&'a Entry> {
-    let needle = query
+/// The text to look for in `query`, trimmed and lower-cased; `None` when there is none.
+pub fn needle(query: &Query) -> Option<String> {
+    query
         .text
         .as_deref()
         .map(str::trim)
         .filter(|t| !t.is_empty())
-        .map(str::to_lowercase);
+        .map(str::to_lowercase)
+}
+
+/// True when `e` passes every part of `query` except its text. `closed` is what
+/// [`closed_follow_ups`] gives for the whole log (needed only when `query.open_only`).
+pub fn passes_filters(e: &Entry, query: &Query, closed: &HashSet<&EntryId>) -> bool {
+    (query.tags.is_empty() || query.tags.contains(&e.tag))
+        && (query.kinds.is_empty() || query.kinds.contains(&e.kind))
+        && query.since.is_none_or(|s| e.utc() >= s)
+        && query.until.is_none_or(|u| e.utc() < u)
+        && (!query.open_only || is_open(e, closed))
+}
+
+/// The entries matching `query`, in log order (oldest appended first).
+pub fn search<'a>(entries: &'a [Entry], query: &Query) -> Vec<&'a Entry> {
+    let needle = needle(query);
     let closed = if query.open_only {
         closed_follow_ups(entries)
     } else {
@@ -370,11 +385,7 @@ pub fn search<'a>(entries: &'a [Entry], query: &Query) -> Vec<&'a Entry> {
     };
     entries
         .iter()
-        .filter(|e| query.tags.is_empty() || query.tags.contains(&e.tag))
-        .filter(|e| query.kinds.is_empty() || query.kinds.contains(&e.kind))
-        .filter(|e| query.since.is_none_or(|s| e.utc() >= s))
-        .filter(|e| query.until.is_none_or(|u| e.utc() < u))
-        .filter(|e| !query.open_only || is_open(e, &closed))
+        .filter(|e| passes_filters(e, query, &closed))
         .filter(|e| {
             needle
                 .as_deref()

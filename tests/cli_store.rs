@@ -366,3 +366,35 @@ fn every_store_subcommand_has_an_example() {
         assert!(text.contains("loopside "), "{args:?}");
     }
 }
+
+#[test]
+fn a_command_waits_briefly_for_a_folder_in_use_then_says_so() {
+    let dir = TempDir::new("cli-lock");
+    let held = loopside::store::FileStore::open(dir.path()).unwrap();
+    // Held throughout: after its short wait the command says the folder is in use.
+    let out = loopside(&["tag", "list", "--data-dir", &dir.arg()]);
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(out.status.code(), Some(1), "{err}");
+    assert!(
+        err.contains("in use by another loopside") && err.contains("waited"),
+        "{err}"
+    );
+    // Closed while the command waits: it goes ahead.
+    let child = std::process::Command::new(env!("CARGO_BIN_EXE_loopside"))
+        .args(["tag", "list", "--json", "--data-dir", &dir.arg()])
+        .env_remove("LOOPSIDE_DATA")
+        .stdin(std::process::Stdio::null())
+        .stdout(std::process::Stdio::piped())
+        .stderr(std::process::Stdio::piped())
+        .spawn()
+        .unwrap();
+    std::thread::sleep(std::time::Duration::from_millis(300));
+    drop(held);
+    let out = child.wait_with_output().unwrap();
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    assert_eq!(String::from_utf8_lossy(&out.stdout).trim(), "[]");
+}

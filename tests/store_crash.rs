@@ -1,13 +1,15 @@
 //! Crash safety: a child process appends entries in a loop and is killed with SIGKILL at
 //! random moments, many times. After each kill the store opens, every id the child
 //! printed (printed only after `append` returned) is there, and at most one record — the
-//! one in flight — is there without having been printed.
+//! one in flight — is there without having been printed. A second child also rewrites
+//! the snapshot after every other append, so kills land while a snapshot is being
+//! written too; the store then opens to the same register as reading its journal alone.
 
 mod util;
 
 use loopside::journal::{Entry, Kind};
 use loopside::scale::Scale;
-use loopside::store::{FileStore, Store};
+use loopside::store::{FileStore, Store, JOURNAL_FILE};
 use loopside::tag::Tag;
 use std::collections::HashSet;
 use std::io::{BufRead, BufReader, Write};
@@ -22,6 +24,18 @@ const CHILD_ENV: &str = "LOOPSIDE_CRASH_CHILD_DIR";
 #[test]
 #[ignore = "run as a child process by killed_appends_lose_nothing_acknowledged"]
 fn crash_child() {
+    append_until_killed(false);
+}
+
+/// Like `crash_child`, also writing a snapshot after every other append. Run only by
+/// `killed_snapshot_writes_lose_nothing`.
+#[test]
+#[ignore = "run as a child process by killed_snapshot_writes_lose_nothing"]
+fn crash_child_snapshots() {
+    append_until_killed(true);
+}
+
+fn append_until_killed(snapshots: bool) {
     let Some(dir) = std::env::var_os(CHILD_ENV) else {
         panic!("{CHILD_ENV} must name the data folder");
     };
@@ -41,11 +55,24 @@ fn crash_child() {
         let id = store.append(e).expect("append");
         writeln!(out, "ID {id}").expect("print");
         out.flush().expect("flush");
+        if snapshots && i % 2 == 1 {
+            store.write_snapshot().expect("snapshot");
+        }
     }
 }
 
 #[test]
 fn killed_appends_lose_nothing_acknowledged() {
+    kill_and_reopen("crash_child", 40);
+}
+
+#[test]
+fn killed_snapshot_writes_lose_nothing() {
+    kill_and_reopen("crash_child_snapshots", 30);
+}
+
+/// Run `child` and kill it `rounds` times; check the store after each kill.
+fn kill_and_reopen(child_test: &str, rounds: usize) {
     let dir = TempDir::new("crash");
     {
         let mut s = FileStore::open(dir.path()).unwrap();
@@ -56,13 +83,12 @@ fn killed_appends_lose_nothing_acknowledged() {
     let mut rng = Rng::from_clock("crash");
     let mut printed: HashSet<String> = HashSet::new();
     let mut unacknowledged = 0;
-    let rounds = 40;
     for round in 0..rounds {
         let mut child = Command::new(&me)
             .args([
                 "--ignored",
                 "--exact",
-                "crash_child",
+                child_test,
                 "--nocapture",
                 "--test-threads=1",
             ])
@@ -104,6 +130,21 @@ fn killed_appends_lose_nothing_acknowledged() {
         for r in s.recoveries() {
             eprintln!("round {round}: {}", r.message);
         }
+        // Whatever state the snapshot was left in, the register is the journal's.
+        let copy = TempDir::new("crash-full");
+        std::fs::copy(
+            dir.path().join(JOURNAL_FILE),
+            copy.path().join(JOURNAL_FILE),
+        )
+        .unwrap();
+        let full = FileStore::open(copy.path()).unwrap();
+        assert_eq!(s.tags(), full.tags(), "round {round}");
+        assert_eq!(s.entries(), full.entries(), "round {round}");
+        let leftovers: Vec<String> = util::files_under(dir.path())
+            .into_iter()
+            .filter(|f| f.contains(".tmp-"))
+            .collect();
+        assert!(leftovers.is_empty(), "round {round}: {leftovers:?}");
     }
     eprintln!(
         "{} entries, {unacknowledged} saved in flight",

@@ -11,6 +11,7 @@ use loopside::store::{
     FileStore, MemoryStore, RecoveryKind, Store, StoreError, JOURNAL_FILE, LOCK_FILE,
 };
 use loopside::tag::Tag;
+use std::time::Duration;
 use util::{files_under, TempDir};
 
 fn t(s: &str) -> DateTime<FixedOffset> {
@@ -99,6 +100,32 @@ fn a_second_writer_is_told_the_folder_is_in_use() {
     assert!(err.to_string().contains("in use by another loopside"));
     drop(first);
     FileStore::open(dir.path()).expect("free again once the first store is closed");
+}
+
+#[test]
+fn a_second_writer_can_wait_for_the_first_to_close() {
+    let dir = TempDir::new("lock-wait");
+    let first = FileStore::open(dir.path()).unwrap();
+    let (tx, rx) = std::sync::mpsc::channel();
+    let closer = std::thread::spawn(move || {
+        // Close the first store once the second has started waiting.
+        rx.recv().unwrap();
+        std::thread::sleep(Duration::from_millis(200));
+        drop(first);
+    });
+    tx.send(()).unwrap();
+    let second = FileStore::open_waiting(dir.path(), Duration::from_secs(30));
+    closer.join().unwrap();
+    assert!(second.is_ok(), "{:?}", second.err());
+}
+
+#[test]
+fn a_second_writer_gives_up_when_the_first_stays_open() {
+    let dir = TempDir::new("lock-held");
+    let _first = FileStore::open(dir.path()).unwrap();
+    let err = FileStore::open_waiting(dir.path(), Duration::from_millis(200)).unwrap_err();
+    assert!(matches!(err, StoreError::InUse { .. }), "{err}");
+    assert!(err.to_string().contains("in use by another loopside"));
 }
 
 #[test]

@@ -3,7 +3,9 @@
 //! Every one works on a data folder: `--data-dir DIR`, else the `LOOPSIDE_DATA`
 //! environment variable, else the platform's data folder (found here, at the edge; the
 //! core is always handed a path). Recovery notices from opening the store are printed on
-//! stderr as `warning:` lines and do not stop the command.
+//! stderr as `warning:` lines and do not stop the command. A folder another loopside has
+//! open (the app, say) is waited for up to [`LOCK_WAIT`], then the command stops saying
+//! the folder is in use.
 
 use super::calc::{LoopArgs, RangeArgs};
 use super::{print_json, print_lines, CliError, CliResult};
@@ -22,6 +24,9 @@ use std::path::PathBuf;
 
 /// Environment variable naming the data folder.
 pub const DATA_ENV: &str = "LOOPSIDE_DATA";
+
+/// How long a command waits for a data folder another loopside has open.
+pub const LOCK_WAIT: std::time::Duration = std::time::Duration::from_millis(2500);
 
 /// Where the data folder is, as given on the command line.
 #[derive(Debug, Clone, Args)]
@@ -48,9 +53,15 @@ impl DataArgs {
             })
     }
 
-    /// Open the data folder's store, reporting any recovery on stderr.
+    /// Open the data folder's store, reporting any recovery on stderr. When another
+    /// loopside (the app, say) has the folder open, wait up to [`LOCK_WAIT`] for it.
     pub(crate) fn open(&self) -> Result<FileStore, CliError> {
-        let store = FileStore::open(&self.folder()?).map_err(store_error)?;
+        let store = FileStore::open_waiting(&self.folder()?, LOCK_WAIT).map_err(|e| match e {
+            StoreError::InUse { .. } => {
+                CliError::Failure(format!("{e} (waited {} s)", LOCK_WAIT.as_secs_f64()))
+            }
+            other => store_error(other),
+        })?;
         for r in store.recoveries() {
             eprintln!("warning: {}", r.message);
         }

@@ -5,13 +5,20 @@
 //! - `loopside.journal` — header line, then one line per saved record (see
 //!   [`super::record`]). Appends write the new lines and sync the file before returning.
 //! - `loopside.lock` — held with an exclusive lock while a store is open, so a second
-//!   process gets a clear "in use" error instead of interleaving writes.
+//!   process gets a clear "in use" error (after waiting, if asked to) instead of
+//!   interleaving writes.
+//! - `loopside.snapshot` — a cache of the register for a quick open (see
+//!   [`super::snapshot`]); written when much of the journal is not covered by it, on open
+//!   and on close. It may be deleted at any time; the journal is the record.
 //! - `loopside.journal.torn-…`, `…damaged-…`, `…v0-backup-…` — copies set aside by
 //!   recovery or migration; never deleted by loopside.
 //!
 //! Tag numbers never become file names; every file name here is fixed.
 //!
-//! On open the journal is read once. A torn last record (power cut mid-append) is cut
+//! On open, when the snapshot fits the journal, the tags come from it and only the journal
+//! after the part it covers is read; the entries are read from the snapshot the first
+//! time the log is needed. Otherwise (and whenever that tail is not perfectly clean) the
+//! whole journal is read once. A torn last record (power cut mid-append) is cut
 //! off into a `torn` file and reported; every complete record before it is kept. Damage
 //! elsewhere (unreadable lines, a foreign file) makes a `damaged` copy of the whole file
 //! first, then the file is rewritten with the readable records only, and the count of
@@ -21,10 +28,14 @@ use super::record::{
     decode_line, encode_line, sync_folder, verified_json, write_aside, write_atomically, Header,
     Record, SCHEMA_VERSION,
 };
-use super::{Register, Store, StoreError, StoreResult};
+use super::snapshot::{self, SNAPSHOT_FILE, SNAPSHOT_TAIL_BYTES};
+use super::{EntryLoader, Register, Store, StoreError, StoreResult};
 use std::fs::{self, File, OpenOptions, TryLockError};
-use std::io::{self, Write};
+use std::io::{self, Read, Seek, SeekFrom, Write};
 use std::path::{Path, PathBuf};
+use std::sync::atomic::{AtomicBool, Ordering};
+use std::sync::Arc;
+use std::time::{Duration, Instant};
 
 /// Name of the journal file in the data folder.
 pub const JOURNAL_FILE: &str = "loopside.journal";
@@ -65,6 +76,11 @@ pub struct FileStore {
     journal_path: PathBuf,
     journal: File,
     len: u64,
+    /// Journal bytes the snapshot on disk covers (0: no snapshot known to fit).
+    covered: u64,
+    from_snapshot: bool,
+    /// Set when the snapshot's entries turned out unreadable and the journal was read.
+    snapshot_failed: Arc<AtomicBool>,
     register: Register,
     recoveries: Vec<Recovery>,
     _lock: File,
@@ -168,8 +184,14 @@ fn scan(bytes: &[u8]) -> Scan {
 impl FileStore {
     /// Open (or create) the store in `folder`, taking its lock. Recovery actions taken on
     /// the way are listed by [`FileStore::recoveries`]; none of them loses a readable
-    /// record. Fails with [`StoreError::InUse`] when another process has it open.
+    /// record. Fails at once with [`StoreError::InUse`] when another store has it open.
     pub fn open(folder: &Path) -> StoreResult<FileStore> {
+        FileStore::open_waiting(folder, Duration::ZERO)
+    }
+
+    /// Like [`FileStore::open`], but when another store has the folder open, try again
+    /// every 50 ms for up to `wait` before failing with [`StoreError::InUse`].
+    pub fn open_waiting(folder: &Path, wait: Duration) -> StoreResult<FileStore> {
         let folder = folder.to_path_buf();
         if !folder.is_dir() {
             fs::create_dir_all(&folder).map_err(io_err("create the data folder", &folder))?;
@@ -185,20 +207,52 @@ impl FileStore {
             .truncate(false)
             .open(&lock_path)
             .map_err(io_err("open", &lock_path))?;
-        match lock.try_lock() {
-            Ok(()) => {}
-            Err(TryLockError::WouldBlock) => return Err(StoreError::InUse { folder }),
-            Err(TryLockError::Error(e)) => return Err(io_err("lock", &lock_path)(e)),
+        let started = Instant::now();
+        loop {
+            match lock.try_lock() {
+                Ok(()) => break,
+                Err(TryLockError::WouldBlock) => {
+                    let left = wait.saturating_sub(started.elapsed());
+                    if left.is_zero() {
+                        return Err(StoreError::InUse { folder });
+                    }
+                    std::thread::sleep(left.min(LOCK_POLL));
+                }
+                Err(TryLockError::Error(e)) => return Err(io_err("lock", &lock_path)(e)),
+            }
         }
+        snapshot::remove_leftovers(&folder);
         let journal_path = folder.join(JOURNAL_FILE);
         let mut recoveries = Vec::new();
-        let existing = match fs::read(&journal_path) {
-            Ok(b) => Some(b),
+        let mut register = Register::default();
+        let mut covered = 0;
+        let mut from_snapshot = false;
+        let snapshot_failed = Arc::new(AtomicBool::new(false));
+        let mut reader = match File::open(&journal_path) {
+            Ok(f) => Some(f),
             Err(e) if e.kind() == io::ErrorKind::NotFound => None,
             Err(e) => return Err(io_err("read", &journal_path)(e)),
         };
-        let mut register = Register::default();
+        if let Some(f) = &mut reader {
+            if let Some((r, c)) =
+                open_from_snapshot(&folder, &journal_path, f, snapshot_failed.clone())?
+            {
+                (register, covered, from_snapshot) = (r, c, true);
+            }
+        }
+        let existing = match reader {
+            None => None,
+            Some(_) if from_snapshot => None,
+            Some(mut f) => {
+                let mut bytes = Vec::new();
+                f.seek(SeekFrom::Start(0))
+                    .and_then(|_| f.read_to_end(&mut bytes))
+                    .map_err(io_err("read", &journal_path))?;
+                Some(bytes)
+            }
+        };
         match existing {
+            None if from_snapshot => {}
             None => {
                 let mut buf = Vec::new();
                 encode_line(&Header::current(), &mut buf).map_err(io_err("encode", &folder))?;
@@ -303,15 +357,64 @@ impl FileStore {
             .metadata()
             .map_err(io_err("read", &journal_path))?
             .len();
-        Ok(FileStore {
+        let mut store = FileStore {
             folder,
             journal_path,
             journal,
             len,
+            covered,
+            from_snapshot,
+            snapshot_failed,
             register,
             recoveries,
             _lock: lock,
-        })
+        };
+        if store.snapshot_due() {
+            // Only a cache: if it cannot be written, the next open reads the journal.
+            let _ = store.write_snapshot();
+        }
+        Ok(store)
+    }
+
+    /// True when the snapshot leaves more than [`SNAPSHOT_TAIL_BYTES`] of journal to read,
+    /// or its entries could not be read.
+    fn snapshot_due(&self) -> bool {
+        (self.len.saturating_sub(self.covered) > SNAPSHOT_TAIL_BYTES
+            || self.snapshot_failed.load(Ordering::Relaxed))
+            && self.register.load_failure().is_none()
+    }
+
+    /// Write a snapshot of the register now, so the next open reads only what is saved
+    /// after this. loopside does this by itself when more than [`SNAPSHOT_TAIL_BYTES`] of
+    /// the journal are not covered, on open and on close; the app may also call it when
+    /// idle. A failure loses nothing: the journal is the record.
+    pub fn write_snapshot(&mut self) -> StoreResult<()> {
+        let path = self.folder.join(SNAPSHOT_FILE);
+        let entries = self.register.entries();
+        if let Some(why) = self.register.load_failure() {
+            return Err(StoreError::Io {
+                action: "write",
+                path,
+                source: io::Error::other(why.to_string()),
+            });
+        }
+        snapshot::write(
+            &self.folder,
+            &self.journal_path,
+            self.len,
+            self.register.tags(),
+            entries,
+        )
+        .map_err(io_err("write", &path))?;
+        self.covered = self.len;
+        self.snapshot_failed.store(false, Ordering::Relaxed);
+        Ok(())
+    }
+
+    /// True when this store was opened from the snapshot (and the journal after it)
+    /// rather than by reading the whole journal.
+    pub fn opened_from_snapshot(&self) -> bool {
+        self.from_snapshot
     }
 
     /// Recovery actions taken when the store was opened (empty for a healthy store).
@@ -328,6 +431,79 @@ impl FileStore {
     pub fn journal_path(&self) -> &Path {
         &self.journal_path
     }
+}
+
+/// How often [`FileStore::open_waiting`] tries the lock again.
+const LOCK_POLL: Duration = Duration::from_millis(50);
+
+/// The register from the snapshot and the journal after it, and the journal length the
+/// snapshot covers; `None` when the snapshot does not fit or the journal after it is not
+/// a clean run of whole records (the caller then reads the whole journal, which also
+/// repairs what needs repair).
+fn open_from_snapshot(
+    folder: &Path,
+    journal_path: &Path,
+    journal: &mut File,
+    failed: Arc<AtomicBool>,
+) -> StoreResult<Option<(Register, u64)>> {
+    let len = journal
+        .metadata()
+        .map_err(io_err("read", journal_path))?
+        .len();
+    let Some(loaded) = snapshot::load(folder, journal, len) else {
+        return Ok(None);
+    };
+    let mut tail = Vec::new();
+    journal
+        .seek(SeekFrom::Start(loaded.covered))
+        .and_then(|_| journal.read_to_end(&mut tail))
+        .map_err(io_err("read", journal_path))?;
+    let Some(records) = clean_records(&tail) else {
+        return Ok(None);
+    };
+    let covered = loaded.covered;
+    let pending = loaded.entries;
+    let path = journal_path.to_path_buf();
+    let load: EntryLoader = Box::new(move || {
+        if let Some(entries) = pending.read() {
+            return Ok(entries);
+        }
+        // The snapshot's entries are damaged or gone: read them from the journal (and
+        // write a new snapshot on close).
+        failed.store(true, Ordering::Relaxed);
+        let mut bytes = Vec::new();
+        File::open(&path)
+            .and_then(|f| f.take(covered).read_to_end(&mut bytes))
+            .map_err(|e| {
+                format!("{e}; the log could not be read back; close loopside and open it again")
+            })?;
+        Ok(scan(&bytes)
+            .records
+            .into_iter()
+            .filter_map(|r| match r {
+                Record::Entry(e) => Some(e),
+                Record::Tag(_) => None,
+            })
+            .collect())
+    });
+    let mut register = Register::deferred(loaded.tags, load);
+    for r in records {
+        register.apply(r);
+    }
+    Ok(Some((register, covered)))
+}
+
+/// The records in `bytes` if it is nothing but whole, intact record lines.
+fn clean_records(bytes: &[u8]) -> Option<Vec<Record>> {
+    let mut out = Vec::new();
+    let mut rest = bytes;
+    while !rest.is_empty() {
+        let end = rest.iter().position(|&b| b == b'\n')?;
+        let json = verified_json(&rest[..end])?;
+        out.push(serde_json::from_slice(json).ok()?);
+        rest = &rest[end + 1..];
+    }
+    Some(out)
 }
 
 /// Rewrite the journal with a current header and the good lines, byte for byte.
@@ -354,12 +530,30 @@ fn cut(path: &Path, len: u64) -> StoreResult<()> {
         .map_err(io_err("cut", path))
 }
 
+impl Drop for FileStore {
+    fn drop(&mut self) {
+        if self.snapshot_due() {
+            // Only a cache: if it cannot be written, the next open reads the journal.
+            let _ = self.write_snapshot();
+        }
+    }
+}
+
 impl Store for FileStore {
     fn register(&self) -> &Register {
         &self.register
     }
 
     fn persist(&mut self, records: Vec<Record>) -> StoreResult<()> {
+        if let Some(why) = self.register.load_failure() {
+            // Saving on top of a log that could not be read back would check new entries
+            // against part of it only.
+            return Err(StoreError::Io {
+                action: "read",
+                path: self.journal_path.clone(),
+                source: io::Error::other(why.to_string()),
+            });
+        }
         let mut buf = Vec::new();
         for r in &records {
             encode_line(r, &mut buf).map_err(io_err("encode", &self.journal_path))?;

@@ -3,7 +3,8 @@
 //! [`Store`] is the contract the command line, the app and the tests use. Two stores
 //! implement it: [`MemoryStore`] (tests, previews) and [`FileStore`] (a data folder handed
 //! in by the caller — the core never looks a folder up itself). Both keep the whole
-//! register in memory; they differ only in how [`Store::persist`] saves records.
+//! register in memory; they differ only in how [`Store::persist`] saves records (and a
+//! file store opened from its snapshot reads the log's entries when first asked for).
 //!
 //! Everything is append-only: adding, editing, renaming, archiving a tag and writing an
 //! entry each save one new record; the last record for a tag id is its current
@@ -12,8 +13,10 @@
 
 mod file;
 pub mod record;
+mod snapshot;
 
 pub use file::{FileStore, Recovery, RecoveryKind, JOURNAL_FILE, LOCK_FILE};
+pub use snapshot::{SNAPSHOT_FILE, SNAPSHOT_TAIL_BYTES};
 
 use crate::error::FieldError;
 use crate::journal::{self, Entry, EntryId, Query, TagId};
@@ -22,8 +25,8 @@ use crate::tag::{clean_number, Tag};
 use chrono::Utc;
 use record::Record;
 use serde::{Deserialize, Serialize};
-use std::cell::OnceCell;
-use std::collections::HashMap;
+use std::cell::{Cell, OnceCell};
+use std::collections::{HashMap, HashSet};
 use std::path::PathBuf;
 
 /// A tag as the register keeps it: its stable id and its current definition.
@@ -72,47 +75,215 @@ pub enum StoreError {
 /// A store operation's result.
 pub type StoreResult<T> = std::result::Result<T, StoreError>;
 
+/// Reads the entries a [`Register`] was opened without: those a snapshot covers. An
+/// `Err` says why they could not be read at all.
+pub(crate) type EntryLoader = Box<dyn FnOnce() -> Result<Vec<Entry>, String> + Send>;
+
+/// Entries not read yet, and the ones applied since, which follow them.
+struct Deferred {
+    load: EntryLoader,
+    later: Vec<Entry>,
+}
+
 /// The in-memory register both stores share: tags, entries and their indexes.
-#[derive(Debug, Default)]
+///
+/// A register opened from a snapshot has its tags at once and reads its entries the
+/// first time anything asks for them, so listing tags does not wait for the whole log.
+#[derive(Default)]
 pub struct Register {
     tags: Vec<TagRecord>,
-    tag_pos: HashMap<TagId, usize>,
-    entries: Vec<Entry>,
+    tag_pos: OnceCell<HashMap<TagId, usize>>,
+    entries: OnceCell<Vec<Entry>>,
+    deferred: Cell<Option<Deferred>>,
+    load_failure: OnceCell<String>,
     entry_pos: OnceCell<HashMap<EntryId, usize>>,
+    folded: OnceCell<Folded>,
+}
+
+impl std::fmt::Debug for Register {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.debug_struct("Register")
+            .field("tags", &self.tags.len())
+            .field("entries", &self.entries.get().map(Vec::len))
+            .field("load_failure", &self.load_failure.get())
+            .finish_non_exhaustive()
+    }
+}
+
+/// Every entry's text in lower case, one after another with a NUL after each, so one
+/// substring search covers the whole log. A needle without NUL never matches across two
+/// entries.
+#[derive(Debug, Default)]
+struct Folded {
+    text: Vec<u8>,
+    /// Where each entry's text starts in `text`, in entry order.
+    starts: Vec<usize>,
+}
+
+impl Folded {
+    fn push(&mut self, text: &str) {
+        self.starts.push(self.text.len());
+        if text.is_ascii() {
+            // The same as `to_lowercase` for ASCII, without a string per entry.
+            self.text
+                .extend(text.bytes().map(|b| b.to_ascii_lowercase()));
+        } else {
+            self.text.extend_from_slice(text.to_lowercase().as_bytes());
+        }
+        self.text.push(0);
+    }
 }
 
 impl Register {
+    /// A register with `tags`, whose entries `load` reads when first needed.
+    pub(crate) fn deferred(tags: Vec<TagRecord>, load: EntryLoader) -> Register {
+        Register {
+            tags,
+            deferred: Cell::new(Some(Deferred {
+                load,
+                later: Vec::new(),
+            })),
+            ..Register::default()
+        }
+    }
+
     /// Apply one saved record.
     pub fn apply(&mut self, record: Record) {
         match record {
-            Record::Tag(t) => match self.tag_pos.get(&t.id) {
-                Some(&i) => self.tags[i] = t,
-                None => {
-                    self.tag_pos.insert(t.id.clone(), self.tags.len());
-                    self.tags.push(t);
+            Record::Tag(t) => {
+                self.tag_index();
+                let Some(index) = self.tag_pos.get_mut() else {
+                    return;
+                };
+                match index.get(&t.id) {
+                    Some(&i) => self.tags[i] = t,
+                    None => {
+                        index.insert(t.id.clone(), self.tags.len());
+                        self.tags.push(t);
+                    }
                 }
-            },
+            }
             Record::Entry(e) => {
+                if self.entries.get().is_none() {
+                    if let Some(d) = self.deferred.get_mut() {
+                        d.later.push(e);
+                        return;
+                    }
+                    let _ = self.entries.set(Vec::new());
+                }
+                let Some(entries) = self.entries.get_mut() else {
+                    return;
+                };
                 if let Some(index) = self.entry_pos.get_mut() {
                     if index.contains_key(&e.id) {
                         return;
                     }
-                    index.insert(e.id.clone(), self.entries.len());
+                    index.insert(e.id.clone(), entries.len());
                 }
-                self.entries.push(e);
+                if let Some(f) = self.folded.get_mut() {
+                    f.push(&e.text);
+                }
+                entries.push(e);
             }
         }
+    }
+
+    /// Every tag, archived ones included, in the order they were first added.
+    pub fn tags(&self) -> &[TagRecord] {
+        &self.tags
+    }
+
+    /// Every entry in the order it was saved (read now if it was deferred).
+    pub fn entries(&self) -> &[Entry] {
+        self.entries.get_or_init(|| match self.deferred.take() {
+            None => Vec::new(),
+            Some(d) => {
+                let mut all = match (d.load)() {
+                    Ok(v) => v,
+                    Err(why) => {
+                        let _ = self.load_failure.set(why);
+                        Vec::new()
+                    }
+                };
+                all.extend(d.later);
+                all
+            }
+        })
+    }
+
+    /// Why deferred entries could not be read, if that was tried and failed. The register
+    /// then holds only the entries saved since it was opened.
+    pub fn load_failure(&self) -> Option<&str> {
+        self.load_failure.get().map(String::as_str)
+    }
+
+    fn tag_index(&self) -> &HashMap<TagId, usize> {
+        // Built on first use, like the entry index.
+        self.tag_pos.get_or_init(|| {
+            let mut m = HashMap::with_capacity(self.tags.len());
+            for (i, t) in self.tags.iter().enumerate() {
+                m.entry(t.id.clone()).or_insert(i);
+            }
+            m
+        })
     }
 
     fn entry_index(&self) -> &HashMap<EntryId, usize> {
         // Built on first use so that opening a large store does not pay for it.
         self.entry_pos.get_or_init(|| {
-            let mut m = HashMap::with_capacity(self.entries.len());
-            for (i, e) in self.entries.iter().enumerate() {
+            let entries = self.entries();
+            let mut m = HashMap::with_capacity(entries.len());
+            for (i, e) in entries.iter().enumerate() {
                 m.entry(e.id.clone()).or_insert(i);
             }
             m
         })
+    }
+
+    /// Entries matching `query`, in log order: the same answer as [`journal::search`]
+    /// over [`Register::entries`]. A text query searches a lower-cased copy of every
+    /// entry's text, made on first use and kept up to date.
+    pub fn search(&self, query: &Query) -> Vec<&Entry> {
+        let entries = self.entries();
+        let Some(needle) = journal::needle(query).filter(|n| !n.contains('\0')) else {
+            return journal::search(entries, query);
+        };
+        let folded = self.folded.get_or_init(|| {
+            let mut f = Folded {
+                text: Vec::with_capacity(entries.iter().map(|e| e.text.len() + 1).sum()),
+                starts: Vec::with_capacity(entries.len()),
+            };
+            for e in entries {
+                f.push(&e.text);
+            }
+            f
+        });
+        let closed = if query.open_only {
+            journal::closed_follow_ups(entries)
+        } else {
+            HashSet::new()
+        };
+        let finder = memchr::memmem::Finder::new(needle.as_bytes());
+        let mut found = Vec::new();
+        let mut from = 0;
+        while let Some(hit) = folded.text.get(from..).and_then(|t| finder.find(t)) {
+            let at = from + hit;
+            // The entry whose text holds the hit; then go on from the next entry's text.
+            let i = folded
+                .starts
+                .partition_point(|&s| s <= at)
+                .saturating_sub(1);
+            let Some(e) = entries.get(i) else { break };
+            if journal::passes_filters(e, query, &closed) {
+                found.push(e);
+            }
+            from = folded
+                .starts
+                .get(i + 1)
+                .copied()
+                .unwrap_or(folded.text.len());
+        }
+        found
     }
 }
 
@@ -152,12 +323,12 @@ pub trait Store {
 
     /// Every tag, archived ones included, in the order they were first added.
     fn tags(&self) -> &[TagRecord] {
-        &self.register().tags
+        self.register().tags()
     }
 
     /// Every entry in the order it was saved.
     fn entries(&self) -> &[Entry] {
-        &self.register().entries
+        self.register().entries()
     }
 
     /// True when the store holds no tags and no entries.
@@ -198,7 +369,7 @@ pub trait Store {
     /// The tag with this id.
     fn tag_by_id(&self, id: &TagId) -> Option<&TagRecord> {
         let r = self.register();
-        r.tag_pos.get(id).map(|&i| &r.tags[i])
+        r.tag_index().get(id).and_then(|&i| r.tags.get(i))
     }
 
     /// The current number of the tag with this id (or the id itself if unknown).
@@ -211,7 +382,7 @@ pub trait Store {
     /// The entry with this id.
     fn entry(&self, id: &EntryId) -> Option<&Entry> {
         let r = self.register();
-        r.entry_index().get(id).map(|&i| &r.entries[i])
+        r.entry_index().get(id).and_then(|&i| r.entries().get(i))
     }
 
     /// The entry whose id is `text` or starts with it (at least 6 characters, unique).
@@ -338,7 +509,7 @@ pub trait Store {
 
     /// Entries matching `query`, in log order.
     fn search(&self, query: &Query) -> Vec<&Entry> {
-        journal::search(self.entries(), query)
+        self.register().search(query)
     }
 
     /// Merge a bundle from another device. Entries are matched by id: ones already here
@@ -381,7 +552,7 @@ pub trait Store {
                 }
             }
         }
-        let mut seen = std::collections::HashSet::new();
+        let mut seen = HashSet::new();
         for e in &bundle.entries {
             if self.entry(&e.id).is_some() || !seen.insert(e.id.clone()) {
                 report.entries_already_here += 1;
