@@ -398,3 +398,59 @@ fn a_command_waits_briefly_for_a_folder_in_use_then_says_so() {
     );
     assert_eq!(String::from_utf8_lossy(&out.stdout).trim(), "[]");
 }
+
+#[test]
+fn a_tag_records_its_sensor_and_a_check_takes_applied_ohms() {
+    let dir = TempDir::new("sensor-flags");
+    run(
+        &dir,
+        &[
+            "tag", "add", "TT-415", "--range", "0..150", "--unit", "°C", "--rtd", "pt100",
+            "--wires", "3",
+        ],
+    );
+    let t = json(&dir, &["tag", "show", "TT-415", "--json"]);
+    assert_eq!(t["tag"]["sensor"]["kind"], "rtd");
+    assert_eq!(t["tag"]["sensor"]["wiring"], "three-wire");
+    // Pt100 at 0, 37.5, 75, 112.5, 150 °C: 100.00, 114.64, 128.99, 143.16, 157.33 Ω
+    // (IEC 60751 table values, rounded to 0.01 Ω); a good transmitter reads 4…20 mA.
+    let c = json(
+        &dir,
+        &[
+            "check",
+            "--tag",
+            "TT-415",
+            "--device",
+            "transmitter",
+            "--sensor-input",
+            "--applied",
+            "100;114.64;128.99;143.16;157.33;143.16;128.99;114.64;100",
+            "--measured",
+            "4;8;12;16;20;16;12;8;4",
+            "--json",
+        ],
+    );
+    assert_eq!(c["pass"], true, "{c}");
+    // A thermocouple replaces the RTD; --no-sensor forgets it.
+    run(
+        &dir,
+        &["tag", "edit", "TT-415", "--tc", "K", "--cj-c", "22"],
+    );
+    let t = json(&dir, &["tag", "show", "TT-415", "--json"]);
+    assert_eq!(t["tag"]["sensor"]["kind"], "thermocouple");
+    assert_eq!(t["tag"]["sensor"]["cj_c"], 22.0);
+    run(&dir, &["tag", "edit", "TT-415", "--no-sensor"]);
+    let t = json(&dir, &["tag", "show", "TT-415", "--json"]);
+    assert!(t["tag"].get("sensor").is_none() || t["tag"]["sensor"].is_null());
+    assert!(refuses(&dir, &["tag", "edit", "TT-415", "--rtd", "pt42"]).contains("rtd"));
+    assert!(refuses(
+        &dir,
+        &["tag", "edit", "TT-415", "--rtd", "pt100", "--wires", "5"]
+    )
+    .contains("wires"));
+    assert!(refuses(
+        &dir,
+        &["tag", "edit", "TT-415", "--tc", "K", "--cj-c", "400"]
+    )
+    .contains("cj-c"));
+}

@@ -14,8 +14,11 @@ use crate::error::FieldError;
 use crate::journal::{closed_follow_ups, is_open, Entry, FollowUpStatus, Kind, Query};
 use crate::number::parse_in;
 use crate::report;
+use crate::rtd::{RtdKind, Wiring};
+use crate::sensor::Sensor;
 use crate::store::{record::write_atomically, FileStore, Store, StoreError, TagRecord};
 use crate::tag::Tag;
+use crate::thermocouple::TcType;
 use chrono::{DateTime, Duration, FixedOffset, Local, NaiveDate, TimeZone, Utc};
 use clap::{Args, Subcommand};
 use serde_json::json;
@@ -128,9 +131,84 @@ pub struct DescribeArgs {
     /// Free notes.
     #[arg(long, value_name = "TEXT")]
     notes: Option<String>,
+    /// The sensor is an RTD: pt100, pt500 or pt1000 (checks then take applied ohms).
+    #[arg(long, value_name = "TYPE", conflicts_with_all = ["tc", "no_sensor"])]
+    rtd: Option<String>,
+    /// RTD connection: 2, 3 or 4 wires (default 3).
+    #[arg(long, value_name = "N", requires = "rtd")]
+    wires: Option<String>,
+    /// Resistance of both RTD leads in series, Ω (matters for 2-wire; default 0).
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "OHMS",
+        requires = "rtd"
+    )]
+    lead_ohms: Option<String>,
+    /// The sensor is a thermocouple: B, E, J, K, N, R, S or T (checks then take applied mV).
+    #[arg(long, value_name = "TYPE", conflicts_with = "no_sensor")]
+    tc: Option<String>,
+    /// The transmitter's cold-junction temperature for --tc, °C (default 20).
+    #[arg(long, allow_hyphen_values = true, value_name = "T", requires = "tc")]
+    cj_c: Option<String>,
+    /// Forget the sensor.
+    #[arg(long)]
+    no_sensor: bool,
 }
 
 impl DescribeArgs {
+    /// The sensor the flags describe: `Ok(None)` when none was given.
+    fn sensor(&self) -> Result<Option<Sensor>, FieldError> {
+        if let Some(kind) = &self.rtd {
+            let element = kind.parse::<RtdKind>().map_err(|e| e.renamed("rtd"))?;
+            let wiring = match &self.wires {
+                Some(w) => {
+                    let n = crate::number::parse_number("wires", w)?;
+                    if n.fract() != 0.0 || !(2.0..=4.0).contains(&n) {
+                        return Err(FieldError::new(
+                            "wires",
+                            format!("{} is not an RTD connection; use 2, 3 or 4", w.trim()),
+                        ));
+                    }
+                    Wiring::from_count(n as u32).map_err(|e| e.renamed("wires"))?
+                }
+                None => Wiring::ThreeWire,
+            };
+            let lead_ohms = match &self.lead_ohms {
+                Some(r) => parse_in("lead-ohms", r, "Ω")?,
+                None => 0.0,
+            };
+            if !(lead_ohms >= 0.0 && lead_ohms.is_finite()) {
+                return Err(FieldError::new(
+                    "lead-ohms",
+                    format!("must be 0 Ω or more, got {lead_ohms}"),
+                ));
+            }
+            return Ok(Some(Sensor::Rtd {
+                element,
+                wiring,
+                lead_ohms,
+            }));
+        }
+        if let Some(kind) = &self.tc {
+            let tc = kind.parse::<TcType>().map_err(|e| e.renamed("tc"))?;
+            let cj_c = match &self.cj_c {
+                Some(t) => parse_in("cj-c", t, "°C")?,
+                None => 20.0,
+            };
+            if !(-50.0..=100.0).contains(&cj_c) {
+                return Err(FieldError::new(
+                    "cj-c",
+                    format!(
+                        "{cj_c} °C is not a transmitter's terminal temperature; give −50 to 100 °C"
+                    ),
+                ));
+            }
+            return Ok(Some(Sensor::Thermocouple { tc, cj_c }));
+        }
+        Ok(None)
+    }
+
     fn apply(&self, tag: &mut Tag) -> Result<(), FieldError> {
         if let Some(s) = &self.service {
             tag.service = s.trim().to_string();
@@ -150,6 +228,12 @@ impl DescribeArgs {
         if let Some(n) = &self.notes {
             tag.notes = n.trim().to_string();
         }
+        if let Some(sensor) = self.sensor()? {
+            tag.sensor = Some(sensor);
+        }
+        if self.no_sensor {
+            tag.sensor = None;
+        }
         Ok(())
     }
 }
@@ -158,7 +242,8 @@ impl DescribeArgs {
 #[derive(Debug, Args)]
 #[command(after_help = "Examples:\n  \
     loopside tag add PT-204 --range 0..10 --unit bar --hart --supply 24 --min-volts 10,5 --load \"HART resistor=250\"\n  \
-    loopside tag add FT-310 --range 0..3000 --unit m3/h --sqrt --cutoff 1 --service \"Aeration air header flow\"")]
+    loopside tag add FT-310 --range 0..3000 --unit m3/h --sqrt --cutoff 1 --service \"Aeration air header flow\"\n  \
+    loopside tag add TT-415 --range 0..150 --unit °C --rtd pt100 --wires 3")]
 pub struct TagAddArgs {
     /// Tag number, e.g. LT-101 (any text; never used as a file name).
     number: String,
@@ -475,6 +560,29 @@ fn tag_show(store: &FileStore, a: TagShowArgs, out: &mut dyn Write) -> CliResult
             tag.tolerance_percent
         ),
     ];
+    if let Some(sensor) = &tag.sensor {
+        lines.push(format!(
+            "sensor     {}",
+            match sensor {
+                Sensor::Rtd {
+                    element,
+                    wiring,
+                    lead_ohms,
+                } => format!(
+                    "{element} RTD, {}-wire{}",
+                    wiring.count(),
+                    if *lead_ohms > 0.0 {
+                        format!(", leads {lead_ohms} Ω")
+                    } else {
+                        String::new()
+                    }
+                ),
+                Sensor::Thermocouple { tc, cj_c } =>
+                    format!("{tc} thermocouple, cold junction {cj_c} °C"),
+                Sensor::DpLevel { .. } => "DP level (see the tag's JSON for the setup)".to_string(),
+            }
+        ));
+    }
     if let Some(l) = &tag.loop_config {
         let parts: Vec<String> = l
             .elements
