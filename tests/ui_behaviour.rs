@@ -2,23 +2,15 @@
 //! tap, and read what the screen shows.
 #![cfg(feature = "ui")]
 
+mod util;
+
 use i_slint_backend_testing::{AccessibleRole, ElementHandle};
 use loopside::app::{App, AppState, ConvertAdapter, Screen};
 use slint::ComponentHandle;
-use std::cell::Cell;
-
-thread_local! {
-    static READY: Cell<bool> = const { Cell::new(false) };
-}
 
 /// The testing backend, once per test thread.
 fn app() -> App {
-    READY.with(|r| {
-        if !r.get() {
-            i_slint_backend_testing::init_no_event_loop();
-            r.set(true);
-        }
-    });
+    util::ui_backend();
     App::new(AppState::demo()).unwrap()
 }
 

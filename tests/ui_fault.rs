@@ -3,31 +3,18 @@
 //! being killed and started again.
 #![cfg(feature = "ui")]
 
+mod util;
+
 use i_slint_backend_testing::{AccessibleRole, ElementHandle};
 use loopside::app::state::Saved;
 use loopside::app::{App, AppState, FaultAdapter, LogAdapter, Screen};
 use loopside::journal::Kind;
 use slint::{ComponentHandle, Model};
-use std::cell::Cell;
-
-thread_local! {
-    static READY: Cell<bool> = const { Cell::new(false) };
-}
-
-/// The testing backend, once per test thread.
-fn init() {
-    READY.with(|r| {
-        if !r.get() {
-            i_slint_backend_testing::init_no_event_loop();
-            r.set(true);
-        }
-    });
-}
 
 /// The app on `state`, showing Find fault in a tall window (so the whole procedure is in
 /// view for the element search).
 fn app_with(state: AppState) -> App {
-    init();
+    util::ui_backend();
     let app = App::new(state).unwrap();
     app.window
         .window()

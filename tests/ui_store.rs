@@ -4,6 +4,8 @@
 //! testing backend, no display.
 #![cfg(feature = "ui")]
 
+mod util;
+
 use loopside::app::{
     clear_demo, load_or_demo, save, App, AppState, CheckAdapter, LogAdapter, Screen, TagForm,
     TagsAdapter, DEMO_DIR,
@@ -11,24 +13,10 @@ use loopside::app::{
 use loopside::journal::Kind;
 use loopside::store::{FileStore, MemoryStore};
 use slint::{ComponentHandle, Model};
-use std::cell::Cell;
 use std::path::PathBuf;
 
-thread_local! {
-    static READY: Cell<bool> = const { Cell::new(false) };
-}
-
-fn init() {
-    READY.with(|r| {
-        if !r.get() {
-            i_slint_backend_testing::init_no_event_loop();
-            r.set(true);
-        }
-    });
-}
-
 fn app_over(state: AppState) -> App {
-    init();
+    util::ui_backend();
     App::new(state).unwrap()
 }
 

@@ -143,3 +143,19 @@ impl Rng {
         self.next() % n.max(1)
     }
 }
+
+#[cfg(feature = "ui")]
+thread_local! {
+    static UI_READY: std::cell::Cell<bool> = const { std::cell::Cell::new(false) };
+}
+
+/// Slint's testing backend, set up once per test thread (UI tests only).
+#[cfg(feature = "ui")]
+pub fn ui_backend() {
+    UI_READY.with(|r| {
+        if !r.get() {
+            i_slint_backend_testing::init_no_event_loop();
+            r.set(true);
+        }
+    });
+}
