@@ -61,7 +61,6 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     });
     let weak = window.as_weak();
     let st = state.clone();
-    let table = rows.clone();
     adapter.on_save(move || {
         let Some(w) = weak.upgrade() else { return };
         let a = w.global::<CheckAdapter>();
@@ -86,8 +85,8 @@ pub fn connect(window: &AppWindow, state: &Shared) {
                     )
                     .into(),
                 );
+                // Refresh copies the new (as-left, empty) table in as well.
                 refresh(&w, &st.borrow());
-                update(&w, &st.borrow(), &table);
                 super::log::refresh(&w, &st.borrow());
                 super::tags::refresh(&w, &st.borrow());
             }

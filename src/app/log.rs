@@ -6,6 +6,7 @@ use super::{model, AppState, AppWindow, LogAdapter, Shared};
 use crate::error::FieldError;
 use crate::journal::{Entry, EntryId, Kind};
 use crate::report;
+use crate::store::record::write_atomically;
 use crate::store::{ImportReport, StoreError};
 use crate::view::log::{export_file_name, list, query, Row};
 use slint::ComponentHandle;
@@ -154,7 +155,7 @@ fn export_folder(state: &AppState, typed: &str) -> Result<PathBuf, FieldError> {
 
 /// Write what the Log shows (the open tag or all tags, with the search) as a handoff
 /// report in `format` (`md`, `csv`, `json`) into `folder`; returns the file written. The
-/// file is written whole to a temporary name, synced and renamed, so it is never half there.
+/// file is written crash-safely ([`write_atomically`]), so it is never half there.
 pub fn export(state: &AppState, format: &str, folder: &str) -> Result<PathBuf, StoreError> {
     let folder = export_folder(state, folder)?;
     let tag = if state.ui.log_all {
@@ -178,25 +179,14 @@ pub fn export(state: &AppState, format: &str, folder: &str) -> Result<PathBuf, S
         }
     };
     let path = folder.join(export_file_name(now, format));
-    write_whole(&path, text.as_bytes()).map_err(|source| StoreError::Io {
-        action: "write",
-        path: path.clone(),
-        source,
-    })?;
+    std::fs::create_dir_all(&folder)
+        .and_then(|()| write_atomically(&path, text.as_bytes()))
+        .map_err(|source| StoreError::Io {
+            action: "write",
+            path: path.clone(),
+            source,
+        })?;
     Ok(path)
-}
-
-fn write_whole(path: &Path, bytes: &[u8]) -> std::io::Result<()> {
-    use std::io::Write;
-    let dir = path.parent().unwrap_or(Path::new("."));
-    std::fs::create_dir_all(dir)?;
-    let tmp = path.with_extension("partial");
-    {
-        let mut f = std::fs::File::create(&tmp)?;
-        f.write_all(bytes)?;
-        f.sync_all()?;
-    }
-    std::fs::rename(&tmp, path)
 }
 
 /// Merge a JSON bundle from another device into the store.

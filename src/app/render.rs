@@ -217,35 +217,29 @@ pub fn render_all(
         "4.09", "8.08", "12.10", "16.07", "20.06", "16.09", "12.11", "8.10", "4.10",
     ]);
     let mut written = Vec::new();
+    let mut shoot = |screen: Screen, work: &str, dark: bool| -> std::io::Result<()> {
+        let frame = headless.render(size);
+        let path = out.join(format!(
+            "{}-{}{work}-{}.png",
+            size.name,
+            super::screen_name(screen),
+            if dark { "dark" } else { "light" }
+        ));
+        frame.write_png(&path)?;
+        written.push(path);
+        Ok(())
+    };
     for dark in [false, true] {
         headless.app.set_dark(dark);
         for screen in super::SCREENS {
             headless.show(screen);
-            let frame = headless.render(size);
-            let name = format!(
-                "{}-{}-{}.png",
-                size.name,
-                super::screen_name(screen),
-                if dark { "dark" } else { "light" }
-            );
-            let path = out.join(name);
-            frame.write_png(&path)?;
-            written.push(path);
+            shoot(screen, "", dark)?;
         }
         // Find fault and Check again past their cautions, to show the work itself.
         for screen in [Screen::Fault, Screen::Check] {
             headless.show(screen);
             headless.read_cautions(screen);
-            let frame = headless.render(size);
-            let name = format!(
-                "{}-{}-work-{}.png",
-                size.name,
-                super::screen_name(screen),
-                if dark { "dark" } else { "light" }
-            );
-            let path = out.join(name);
-            frame.write_png(&path)?;
-            written.push(path);
+            shoot(screen, "-work", dark)?;
         }
         headless.reset_cautions();
     }

@@ -8,9 +8,9 @@
 //! either the old state or the new one.
 
 use super::AppState;
+use crate::store::record::write_atomically;
 use serde::{Deserialize, Serialize};
 use std::fs;
-use std::io::Write;
 use std::path::Path;
 
 /// File name of the saved state in the data folder.
@@ -204,20 +204,11 @@ pub fn load(dir: &Path) -> std::io::Result<Option<Saved>> {
     }
 }
 
-/// Write the state crash-safely: temporary file, fsync, rename, fsync the folder.
+/// Write the state crash-safely (see [`write_atomically`]).
 pub fn save(dir: &Path, saved: &Saved) -> std::io::Result<()> {
     fs::create_dir_all(dir)?;
     let json = serde_json::to_vec_pretty(saved).map_err(std::io::Error::other)?;
-    let tmp = dir.join(format!("{STATE_FILE}.tmp"));
-    {
-        let mut f = fs::File::create(&tmp)?;
-        f.write_all(&json)?;
-        f.sync_all()?;
-    }
-    fs::rename(&tmp, dir.join(STATE_FILE))?;
-    #[cfg(unix)]
-    fs::File::open(dir)?.sync_all()?;
-    Ok(())
+    write_atomically(&dir.join(STATE_FILE), &json)
 }
 
 /// The Find fault screen as the technician left it: an unfinished session, the values
