@@ -13,17 +13,13 @@ const IN_RANGE: [u8; 3] = [0x14, 0x6b, 0x2a];
 fn distinct_colours(f: &Frame) -> usize {
     let mut seen = std::collections::HashSet::new();
     for p in f.pixels.iter().step_by(7) {
-        seen.insert((p.r, p.g, p.b));
+        seen.insert(p.rgb());
     }
     seen.len()
 }
 
 fn share_not(f: &Frame, background: [u8; 3]) -> f64 {
-    let n = f
-        .pixels
-        .iter()
-        .filter(|p| [p.r, p.g, p.b] != background)
-        .count();
+    let n = f.pixels.iter().filter(|p| p.rgb() != background).count();
     n as f64 / f.pixels.len() as f64
 }
 

@@ -6,10 +6,11 @@
 //! per thread (Slint's platform is per thread, so parallel tests each get their own).
 
 use super::{App, AppState, Screen};
-use slint::platform::software_renderer::{MinimalSoftwareWindow, RepaintBufferType};
+use slint::platform::software_renderer::{
+    MinimalSoftwareWindow, PremultipliedRgbaColor, RepaintBufferType, TargetPixel,
+};
 use slint::platform::{Platform, WindowAdapter, WindowEvent};
 use slint::PhysicalSize;
-use slint::Rgb8Pixel;
 use std::cell::RefCell;
 use std::path::Path;
 use std::rc::Rc;
@@ -76,7 +77,46 @@ pub fn init() -> Result<(), slint::PlatformError> {
     }
 }
 
-/// One rendered frame, RGB, row by row.
+/// One pixel as a window surface holds it: a 32-bit word `0x00RRGGBB`, the layout of the
+/// desktop window's buffer (and of Android's RGBX_8888 surfaces), so headless renders and
+/// the render bench cost what a real frame costs.
+#[repr(transparent)]
+#[derive(Debug, Clone, Copy, Default, PartialEq, Eq)]
+pub struct WindowPixel(pub u32);
+
+impl WindowPixel {
+    /// Red, green and blue, 0–255.
+    pub fn rgb(self) -> [u8; 3] {
+        [(self.0 >> 16) as u8, (self.0 >> 8) as u8, self.0 as u8]
+    }
+}
+
+impl TargetPixel for WindowPixel {
+    fn blend(&mut self, color: PremultipliedRgbaColor) {
+        // Source over, with the colour already multiplied by its alpha: each channel keeps
+        // (255 − alpha)/255 of what was there and adds the colour's.
+        // Most pixels of a glyph's box are either empty or solid: skip the arithmetic for
+        // them (the results are the same as the general case's).
+        match color.alpha {
+            0 if color.red | color.green | color.blue == 0 => return,
+            u8::MAX => {
+                *self = Self::from_rgb(color.red, color.green, color.blue);
+                return;
+            }
+            _ => {}
+        }
+        let keep = u32::from(u8::MAX - color.alpha);
+        let [r, g, b] = self.rgb();
+        let mix = |was: u8, add: u8| (u32::from(was) * keep / 255 + u32::from(add)).min(255);
+        self.0 = mix(r, color.red) << 16 | mix(g, color.green) << 8 | mix(b, color.blue);
+    }
+
+    fn from_rgb(red: u8, green: u8, blue: u8) -> Self {
+        WindowPixel(u32::from(red) << 16 | u32::from(green) << 8 | u32::from(blue))
+    }
+}
+
+/// One rendered frame, row by row.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Frame {
     /// Width, px.
@@ -84,14 +124,22 @@ pub struct Frame {
     /// Height, px.
     pub height: u32,
     /// `width × height` pixels.
-    pub pixels: Vec<Rgb8Pixel>,
+    pub pixels: Vec<WindowPixel>,
 }
 
 impl Frame {
+    /// A frame of `width × height` pixels, all black.
+    pub fn new(width: u32, height: u32) -> Frame {
+        Frame {
+            width,
+            height,
+            pixels: vec![WindowPixel::default(); (width * height) as usize],
+        }
+    }
+
     /// The pixel at (x, y) as `[r, g, b]`.
     pub fn at(&self, x: u32, y: u32) -> [u8; 3] {
-        let p = self.pixels[(y * self.width + x) as usize];
-        [p.r, p.g, p.b]
+        self.pixels[(y * self.width + x) as usize].rgb()
     }
 
     /// Write as an 8-bit RGB PNG.
@@ -101,7 +149,7 @@ impl Frame {
         encoder.set_color(png::ColorType::Rgb);
         encoder.set_depth(png::BitDepth::Eight);
         let mut writer = encoder.write_header().map_err(std::io::Error::other)?;
-        let bytes: Vec<u8> = self.pixels.iter().flat_map(|p| [p.r, p.g, p.b]).collect();
+        let bytes: Vec<u8> = self.pixels.iter().flat_map(|p| p.rgb()).collect();
         writer
             .write_image_data(&bytes)
             .map_err(std::io::Error::other)?;
@@ -140,11 +188,7 @@ impl Headless {
     /// Draw the current state at `size` into a new frame.
     pub fn render(&self, size: RenderSize) -> Frame {
         self.resize(size);
-        let mut frame = Frame {
-            width: size.width,
-            height: size.height,
-            pixels: vec![Rgb8Pixel::default(); (size.width * size.height) as usize],
-        };
+        let mut frame = Frame::new(size.width, size.height);
         self.draw_into(&mut frame);
         frame
     }
@@ -198,6 +242,17 @@ impl Headless {
             .set_cautions_read(false);
     }
 
+    /// Open the tag form on the open tag (Tags' Edit), or close it.
+    pub fn tag_form(&self, open: bool) {
+        use slint::ComponentHandle;
+        let tags = self.app.window.global::<super::TagsAdapter>();
+        if open {
+            tags.invoke_edit_open();
+        } else {
+            tags.invoke_cancel();
+        }
+    }
+
     /// Show a screen.
     pub fn show(&self, screen: Screen) {
         self.app.show_screen(screen);
@@ -242,6 +297,11 @@ pub fn render_all(
             shoot(screen, "-work", dark)?;
         }
         headless.reset_cautions();
+        // Tags with the open tag's form: range, transfer and the whole loop.
+        headless.show(Screen::Tags);
+        headless.tag_form(true);
+        shoot(Screen::Tags, "-work", dark)?;
+        headless.tag_form(false);
     }
     Ok(written)
 }
