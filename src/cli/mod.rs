@@ -11,6 +11,7 @@ mod calc;
 mod check;
 mod sensors;
 mod store;
+pub use store::default_data_dir;
 pub use store::DATA_ENV;
 
 use crate::error::FieldError;

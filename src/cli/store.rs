@@ -39,6 +39,19 @@ pub struct DataArgs {
     data_dir: Option<PathBuf>,
 }
 
+/// The platform's data folder for loopside (desktop systems only; on Android the folder
+/// comes from the activity and the command line must be given one).
+#[cfg(not(target_os = "android"))]
+pub fn default_data_dir() -> Option<PathBuf> {
+    directories::ProjectDirs::from("", "", "loopside").map(|p| p.data_dir().to_path_buf())
+}
+
+/// On Android there is no user data folder outside the app's own: none by default.
+#[cfg(target_os = "android")]
+pub fn default_data_dir() -> Option<PathBuf> {
+    None
+}
+
 impl DataArgs {
     fn folder(&self) -> Result<PathBuf, CliError> {
         if let Some(d) = &self.data_dir {
@@ -47,13 +60,11 @@ impl DataArgs {
         if let Some(d) = std::env::var_os(DATA_ENV).filter(|d| !d.is_empty()) {
             return Ok(PathBuf::from(d));
         }
-        directories::ProjectDirs::from("", "", "loopside")
-            .map(|p| p.data_dir().to_path_buf())
-            .ok_or_else(|| {
-                CliError::Failure(
-                    "no data folder could be found for this user; give --data-dir DIR".into(),
-                )
-            })
+        default_data_dir().ok_or_else(|| {
+            CliError::Failure(
+                "no data folder could be found for this user; give --data-dir DIR".into(),
+            )
+        })
     }
 
     /// Open the data folder's store, reporting any recovery on stderr. When another
