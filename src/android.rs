@@ -6,7 +6,7 @@
 //! the app is paused or stopped (Android may kill it in the background without another
 //! word), and when the window closes. The back button is handled in the UI (`Key.Back`).
 
-use crate::app::{load_or_demo, save, App, Shared};
+use crate::app::{load_or_demo, save_now, App, AppWindow, Shared};
 pub use slint::android::android_activity::AndroidApp;
 use slint::android::android_activity::{MainEvent, PollEvent};
 use std::cell::RefCell;
@@ -24,16 +24,20 @@ fn run(android: AndroidApp) -> Result<(), Box<dyn std::error::Error>> {
         .internal_data_path()
         .ok_or("Android gave the app no internal data folder")?;
     let for_exports = android.clone();
-    let shared: Rc<RefCell<Option<Shared>>> = Rc::new(RefCell::new(None));
+    // Filled once the window exists: the state and a handle on the window, whose fields
+    // hold what is typed but not yet saved.
+    type Running = (Shared, slint::Weak<AppWindow>);
+    let shared: Rc<RefCell<Option<Running>>> = Rc::new(RefCell::new(None));
     let for_events = shared.clone();
     slint::android::init_with_event_listener(android, move |event| {
         if let PollEvent::Main(MainEvent::SaveState { .. } | MainEvent::Pause | MainEvent::Stop) =
             event
         {
-            if let Some(state) = for_events.borrow().as_ref() {
-                // Never panic inside the event loop: a state busy elsewhere is saved next time.
-                if let Ok(s) = state.try_borrow() {
-                    if let Err(e) = save(&s) {
+            if let Some((state, weak)) = for_events.borrow().as_ref() {
+                // Never panic inside the event loop: a state busy elsewhere is saved by the
+                // autosave a moment later.
+                if let Some(window) = weak.upgrade() {
+                    if let Err(e) = save_now(&window, state) {
                         eprintln!("loopside: could not save state: {e}");
                     }
                 }
@@ -49,8 +53,11 @@ fn run(android: AndroidApp) -> Result<(), Box<dyn std::error::Error>> {
             .unwrap_or_else(|| data_dir.join("exports")),
     );
     let app = App::new(state)?;
-    *shared.borrow_mut() = Some(app.state.clone());
+    *shared.borrow_mut() = Some((
+        app.state.clone(),
+        slint::ComponentHandle::as_weak(&app.window),
+    ));
     app.window.run()?;
-    save(&app.state.borrow())?;
+    app.save_now()?;
     Ok(())
 }

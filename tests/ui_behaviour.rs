@@ -20,7 +20,25 @@ fn with_role(app: &App, label: &str, role: AccessibleRole) -> ElementHandle {
     let mut found: Vec<_> = ElementHandle::find_by_accessible_label(&app.window, label)
         .filter(|e| e.accessible_role() == Some(role))
         .collect();
-    assert_eq!(found.len(), 1, "expected one {role:?} labelled {label:?}");
+    if found.len() != 1 {
+        let all: Vec<String> = slint::ComponentHandle::as_weak(&app.window)
+            .upgrade()
+            .map(|w| {
+                use i_slint_backend_testing::ElementRoot;
+                w.root_element()
+            })
+            .unwrap()
+            .query_descendants()
+            .find_all()
+            .into_iter()
+            .filter(|e| e.accessible_role() == Some(role))
+            .filter_map(|e| e.accessible_label().map(|l| l.to_string()))
+            .collect();
+        panic!(
+            "expected one {role:?} labelled {label:?}, found {}; there are {all:?}",
+            found.len()
+        );
+    }
     found.remove(0)
 }
 
@@ -170,4 +188,88 @@ fn the_sensor_calculator_works_both_ways() {
     assert!((t - 300.0).abs() <= 0.05, "{t}");
     a.invoke_calc_edited("cj".into(), "cold".into());
     assert_eq!(a.get_calc_error_field(), "cold junction");
+}
+
+#[test]
+fn a_new_tag_is_entered_with_its_whole_loop() {
+    // A flow loop at the filter house: 24 V supply, transmitter needs 10,5 V, a 250 Ω card
+    // input, an isolating barrier dropping 8 V, 220 m of 18 AWG pair, and HART on it.
+    let app = app();
+    // A tall desktop window, so the whole form (beside the list) is in view: the testing
+    // backend finds only elements it counts as visible.
+    app.window
+        .window()
+        .set_size(slint::LogicalSize::new(1280.0, 3000.0));
+    app.show_screen(Screen::Tags);
+    button(&app, "New tag").invoke_accessible_default_action();
+    field(&app, "Tag number").set_accessible_value("FT-640");
+    field(&app, "Service").set_accessible_value("Backwash water flow");
+    field(&app, "URV").set_accessible_value("120");
+    field(&app, "Unit").set_accessible_value("m³/h");
+    field(&app, "Transfer").set_accessible_value("square root, cutoff 1 %");
+    field(&app, "Loop supply").set_accessible_value("24");
+    field(&app, "Transmitter minimum").set_accessible_value("10,5");
+    button(&app, "Add resistor").invoke_accessible_default_action();
+    field(&app, "Element 1 name").set_accessible_value("Card input");
+    field(&app, "Card input").set_accessible_value("250");
+    button(&app, "Add volt drop").invoke_accessible_default_action();
+    field(&app, "Element 2 name").set_accessible_value("Barrier");
+    field(&app, "Barrier").set_accessible_value("8");
+    field(&app, "Cable, one way").set_accessible_value("220");
+    field(&app, "Conductor").set_accessible_value("18 AWG");
+    with_role(&app, "HART on this loop", AccessibleRole::Checkbox)
+        .invoke_accessible_default_action();
+    button(&app, "Save").invoke_accessible_default_action();
+
+    let state = app.state.borrow();
+    let tag = state.open_tag().expect("the new tag is open");
+    assert_eq!(tag.number, "FT-640");
+    assert!(tag.hart);
+    let c = tag.loop_config.as_ref().expect("the loop is recorded");
+    assert_eq!(c.tx_min_volts, 10.5);
+    let names: Vec<_> = c.elements.iter().map(|e| e.name.as_str()).collect();
+    assert_eq!(names, ["Card input", "Barrier"]);
+    assert_eq!(c.cable.unwrap().one_way_m, 220.0);
+    drop(state);
+    // Power works on the loop as entered, HART verdict included.
+    app.show_screen(Screen::Power);
+    let power = app.window.global::<loopside::app::PowerAdapter>();
+    assert!(power.get_hart());
+    assert_ne!(power.get_hart_title(), "");
+}
+
+#[test]
+fn the_back_key_still_works_after_the_focused_field_has_gone() {
+    use slint::platform::{Key, WindowEvent};
+    let app = app();
+    app.window
+        .window()
+        .set_size(slint::LogicalSize::new(400.0, 860.0));
+    app.window.show().unwrap();
+    app.show_screen(Screen::Convert);
+    // The technician taps into the mA field, then goes to Log: the field goes with Convert.
+    let key = |e: fn(slint::SharedString) -> WindowEvent, text: slint::SharedString| {
+        app.window.window().dispatch_event(e(text));
+    };
+    let press = |text: slint::SharedString| {
+        key(|text| WindowEvent::KeyPressed { text }, text.clone());
+        key(|text| WindowEvent::KeyReleased { text }, text);
+    };
+    field(&app, "Loop current").set_accessible_value("");
+    field(&app, "Loop current").mock_single_click(slint::platform::PointerEventButton::Left);
+    press("7".into());
+    assert_eq!(
+        value_of(&app, "Loop current"),
+        "7",
+        "the tap put the focus in the field"
+    );
+    app.show_screen(Screen::Log);
+    press(Key::Back.into());
+    assert_eq!(
+        app.window
+            .global::<loopside::app::AppAdapter>()
+            .get_screen(),
+        Screen::Convert,
+        "the back button returns to Convert"
+    );
 }

@@ -282,3 +282,54 @@ fn a_loop_edited_on_power_is_saved_to_its_tag() {
         26.0
     );
 }
+
+#[test]
+fn a_half_typed_tag_a_note_and_the_reference_survive_a_restart() {
+    let dir = data_dir("drafts");
+    {
+        let app = app_over(load_or_demo(dir.clone()).unwrap());
+        let tags = app.window.global::<TagsAdapter>();
+        tags.invoke_new_tag();
+        let mut form = tags.get_form();
+        form.number = "PT-650".into();
+        form.service = "Clarifier drive torque".into();
+        tags.set_form(form);
+        tags.invoke_add_element("ohms".into());
+        app.window
+            .global::<LogAdapter>()
+            .set_note_text("Gland on JB-04 weeping".into());
+        app.window
+            .global::<CheckAdapter>()
+            .set_reference_text("Loop calibrator CAL-07, due 2027-03".into());
+        // As on close, or when Android pauses the app.
+        app.save_now().unwrap();
+    }
+    // (A global handle keeps the window alive, so each app lives in a block of its own.)
+    {
+        let app = app_over(load_or_demo(dir.clone()).unwrap());
+        let tags = app.window.global::<TagsAdapter>();
+        assert!(tags.get_editing(), "the form is open again");
+        assert!(tags.get_is_new());
+        let form = tags.get_form();
+        assert_eq!(form.number, "PT-650");
+        assert_eq!(form.service, "Clarifier drive torque");
+        assert_eq!(form.elements.row_count(), 1);
+        assert_eq!(
+            app.window.global::<LogAdapter>().get_note_text(),
+            "Gland on JB-04 weeping"
+        );
+        assert_eq!(
+            app.window.global::<CheckAdapter>().get_reference_text(),
+            "Loop calibrator CAL-07, due 2027-03"
+        );
+        // Once saved, the form is not brought back again.
+        tags.invoke_save(form);
+        assert_eq!(tags.get_error_text(), "");
+        app.save_now().unwrap();
+    }
+    let app = app_over(load_or_demo(dir.clone()).unwrap());
+    assert!(!app.window.global::<TagsAdapter>().get_editing());
+    assert!(app.state.borrow().store.tag("PT-650").is_some());
+    drop(app);
+    std::fs::remove_dir_all(&dir).unwrap();
+}

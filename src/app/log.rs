@@ -141,7 +141,7 @@ pub fn mark_done(state: &mut AppState, id: &str, who: &str) -> Result<EntryId, S
 }
 
 /// The folder reports go to: the one typed, else the state's default.
-fn export_folder(state: &AppState, typed: &str) -> Result<PathBuf, FieldError> {
+pub(crate) fn export_folder(state: &AppState, typed: &str) -> Result<PathBuf, FieldError> {
     let typed = typed.trim();
     if !typed.is_empty() {
         return Ok(PathBuf::from(typed));

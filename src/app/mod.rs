@@ -171,11 +171,18 @@ impl App {
         log::connect(&window, &state);
         about::connect(&window, &state);
         refresh_all(&window, &state.borrow());
+        restore_drafts(&window, &state.borrow());
         let autosave = slint::Timer::default();
         let st = state.clone();
+        let weak = window.as_weak();
         let mut last_saved = state::Saved::from_state(&state.borrow());
         autosave.start(slint::TimerMode::Repeated, AUTOSAVE_EVERY, move || {
-            let Ok(s) = st.try_borrow() else { return };
+            let Ok(mut s) = st.try_borrow_mut() else {
+                return;
+            };
+            if let Some(w) = weak.upgrade() {
+                collect(&w, &mut s);
+            }
             let now = state::Saved::from_state(&s);
             if now != last_saved && save(&s).is_ok() {
                 last_saved = now;
@@ -186,6 +193,12 @@ impl App {
             state,
             _autosave: autosave,
         })
+    }
+
+    /// Take what is typed on screen into the state and save it (on close, and when Android
+    /// pauses or asks for the state).
+    pub fn save_now(&self) -> std::io::Result<()> {
+        save_now(&self.window, &self.state)
     }
 
     /// Go to a screen (as the navigation does).
@@ -394,6 +407,55 @@ pub fn load_or_demo(data_dir: PathBuf) -> Result<AppState, StoreError> {
     Ok(state)
 }
 
+/// Copy what is typed in fields that are not saved as they change (the tag form, the Log
+/// note, the Check reference, the initials, the report folder) into the state, so the next
+/// save keeps it.
+pub fn collect(window: &AppWindow, state: &mut AppState) {
+    let tags = window.global::<TagsAdapter>();
+    state.ui.tag_draft = tags
+        .get_editing()
+        .then(|| tags::draft_of(&tags.get_form(), tags.get_is_new()));
+    let log = window.global::<LogAdapter>();
+    state.ui.log_note = log.get_note_text().to_string();
+    state.ui.import_path = log.get_import_path().to_string();
+    let typed_dir = log.get_export_dir().to_string();
+    let shown_dir = log::export_folder(state, &state.ui.export_dir)
+        .map(|p| p.display().to_string())
+        .unwrap_or_default();
+    if typed_dir != shown_dir {
+        state.ui.export_dir = typed_dir;
+    }
+    let check = window.global::<CheckAdapter>();
+    state.ui.check.reference = check.get_reference_text().to_string();
+    // Initials are typed on Log and on Check; the one that was changed is the one kept.
+    let on_check = check.get_initials_text().to_string();
+    let on_log = log.get_initials_text().to_string();
+    if on_check != state.ui.initials {
+        state.ui.initials = on_check;
+    } else if on_log != state.ui.initials {
+        state.ui.initials = on_log;
+    }
+}
+
+/// Put back what [`collect`] kept that the screens' refresh does not show (start-up).
+fn restore_drafts(window: &AppWindow, state: &AppState) {
+    tags::restore_draft(window, state);
+    let log = window.global::<LogAdapter>();
+    if log.get_note_text().is_empty() {
+        log.set_note_text(state.ui.log_note.clone().into());
+    }
+}
+
+/// [`collect`], then [`save`].
+pub fn save_now(window: &AppWindow, state: &Shared) -> std::io::Result<()> {
+    let Ok(mut s) = state.try_borrow_mut() else {
+        // Busy in a callback: the autosave takes it a moment later.
+        return Ok(());
+    };
+    collect(window, &mut s);
+    save(&s)
+}
+
 /// Save what must survive into the state's data folder (nothing when it has none).
 pub fn save(state: &AppState) -> std::io::Result<()> {
     match &state.data_dir {
@@ -408,9 +470,9 @@ pub fn save(state: &AppState) -> std::io::Result<()> {
 pub fn run_desktop() -> Result<(), Box<dyn std::error::Error>> {
     let data_dir = match std::env::var_os(crate::cli::DATA_ENV).filter(|d| !d.is_empty()) {
         Some(d) => PathBuf::from(d),
-        None => directories::ProjectDirs::from("", "", "loopside")
-            .map(|d| d.data_dir().to_path_buf())
-            .ok_or("no home folder to keep loopside's data in")?,
+        None => {
+            crate::cli::default_data_dir().ok_or("no home folder to keep loopside's data in")?
+        }
     };
     let mut state = load_or_demo(data_dir.clone())?;
     state.export_dir = directories::UserDirs::new()
@@ -418,6 +480,6 @@ pub fn run_desktop() -> Result<(), Box<dyn std::error::Error>> {
         .or_else(|| Some(data_dir.join("exports")));
     let app = App::new(state)?;
     app.window.run()?;
-    save(&app.state.borrow())?;
+    app.save_now()?;
     Ok(())
 }

@@ -65,13 +65,9 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         {
             let mut s = st.borrow_mut();
             let n = s.ui.power.elements.len() + 1;
-            let drop = kind.as_str() == "volts";
-            let (name, value) = if drop {
-                (format!("Drop {n}"), "2.5")
-            } else {
-                (format!("Resistor {n}"), "250")
-            };
-            s.ui.power.elements.push((name, value.to_string(), drop));
+            s.ui.power
+                .elements
+                .push(new_element(n, kind.as_str() == "volts"));
         }
         refresh(&w, &st.borrow());
     });
@@ -86,6 +82,14 @@ pub fn connect(window: &AppWindow, state: &Shared) {
             }
         }
         refresh(&w, &st.borrow());
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_hart_toggled(move |on| {
+        let Some(w) = weak.upgrade() else { return };
+        st.borrow_mut().ui.power.hart = on;
+        w.global::<PowerAdapter>().set_hart(on);
+        update(&w, &st.borrow());
     });
     let weak = window.as_weak();
     let st = state.clone();
@@ -114,6 +118,44 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     });
 }
 
+/// A new series element, numbered `n`: a 250 Ω resistor (the common receiver input), or a
+/// 2.5 V drop (a typical loop-powered indicator; common practice, check its data sheet).
+pub fn new_element(n: usize, drop: bool) -> (String, String, bool) {
+    if drop {
+        (format!("Drop {n}"), "2.5".to_string(), true)
+    } else {
+        (format!("Resistor {n}"), "250".to_string(), false)
+    }
+}
+
+/// Elements as the screens show them (name, value as typed, unit).
+pub fn element_rows(elements: &[(String, String, bool)]) -> slint::ModelRc<super::ElementRow> {
+    model(
+        elements
+            .iter()
+            .map(|(name, value, drop)| super::ElementRow {
+                name: name.clone().into(),
+                value: value.clone().into(),
+                unit: if *drop { "V" } else { "Ω" }.into(),
+            })
+            .collect(),
+    )
+}
+
+/// Elements read back from the screen's rows (a unit of V marks a volt drop).
+pub fn elements_of(rows: &slint::ModelRc<super::ElementRow>) -> Vec<(String, String, bool)> {
+    use slint::Model;
+    rows.iter()
+        .map(|r| {
+            (
+                r.name.to_string(),
+                r.value.to_string(),
+                r.unit.as_str() == "V",
+            )
+        })
+        .collect()
+}
+
 /// The form filled from a loop configuration.
 pub fn form_from(tag: &str, c: &LoopConfig) -> PowerForm {
     PowerForm {
@@ -132,6 +174,17 @@ pub fn form_from(tag: &str, c: &LoopConfig) -> PowerForm {
                 ElementKind::Drop { volts } => (e.name.clone(), plain(volts), true),
             })
             .collect(),
+        hart: false,
+    }
+}
+
+/// Keep what the screens do not show (the HART resistance window, the cable's
+/// temperature) from the loop as it was saved.
+pub fn keep_unshown(config: &mut LoopConfig, saved: Option<&LoopConfig>) {
+    let Some(saved) = saved else { return };
+    config.hart_window_ohms = saved.hart_window_ohms;
+    if let (Some(cable), Some(old)) = (config.cable.as_mut(), saved.cable) {
+        cable.temp_c = old.temp_c;
     }
 }
 
@@ -155,7 +208,7 @@ pub fn config_from(form: &PowerForm) -> Result<LoopConfig> {
     let mut c = LoopConfig::new(supply, tx_min);
     if !form.tolerance.trim().is_empty() {
         c.supply_tolerance_percent =
-            parse_number("tolerance", form.tolerance.trim_end_matches('%'))?;
+            parse_number("supply sag", form.tolerance.trim_end_matches('%'))?;
     }
     c.fault_ma = if form.fault.trim().is_empty() {
         DEFAULT_FAULT_MA
@@ -190,7 +243,7 @@ pub fn config_from(form: &PowerForm) -> Result<LoopConfig> {
     }
     c.validate().map_err(|e| match e.field.as_str() {
         "supply_volts" => e.renamed("supply"),
-        "supply_tolerance_percent" => e.renamed("tolerance"),
+        "supply_tolerance_percent" => e.renamed("supply sag"),
         "tx_min_volts" => e.renamed("transmitter minimum"),
         "fault_ma" => e.renamed("fault current"),
         "cable_m" => e.renamed("cable length"),
@@ -209,16 +262,8 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     adapter.set_fault_text(f.fault.clone().into());
     adapter.set_cable_m_text(f.cable_m.clone().into());
     adapter.set_cable_size_text(f.cable_size.clone().into());
-    adapter.set_elements(model(
-        f.elements
-            .iter()
-            .map(|(name, value, drop)| super::ElementRow {
-                name: name.clone().into(),
-                value: value.clone().into(),
-                unit: if *drop { "V" } else { "Ω" }.into(),
-            })
-            .collect(),
-    ));
+    adapter.set_elements(element_rows(&f.elements));
+    adapter.set_hart(f.hart);
     update(window, state);
 }
 
@@ -229,9 +274,11 @@ pub fn save_to_tag(state: &mut AppState) -> std::result::Result<String, StoreErr
         .open_record()
         .cloned()
         .ok_or_else(|| FieldError::new("tag", "no tag is open; open one on Tags first"))?;
-    let config = config_from(&state.ui.power)?;
+    let mut config = config_from(&state.ui.power)?;
     let mut tag = record.tag;
+    keep_unshown(&mut config, tag.loop_config.as_ref());
     tag.loop_config = Some(config);
+    tag.hart = state.ui.power.hart;
     state.store.update_tag(&record.id, tag.clone())?;
     Ok(tag.number)
 }
@@ -249,6 +296,7 @@ pub fn sync_form(state: &mut AppState) {
         .clone()
         .unwrap_or_else(|| LoopConfig::new(24.0, 12.0));
     state.ui.power = form_from(&tag.number, &config);
+    state.ui.power.hart = tag.hart;
 }
 
 fn update(window: &AppWindow, state: &AppState) {
@@ -262,8 +310,7 @@ fn update(window: &AppWindow, state: &AppState) {
     adapter.set_tag_detail(tag.map(|t| t.service.clone()).unwrap_or_default().into());
     adapter.set_can_save(tag.is_some());
     adapter.set_message("".into());
-    let hart = tag.is_some_and(|t| t.hart);
-    match config_from(&state.ui.power).and_then(|c| view(&c, hart)) {
+    match config_from(&state.ui.power).and_then(|c| view(&c, state.ui.power.hart)) {
         Ok(v) => map_power(&adapter, &v),
         Err(e) => {
             adapter.set_error_field(e.field.clone().into());

@@ -82,6 +82,34 @@ pub struct PowerForm {
     pub cable_size: String,
     /// Series elements: name, value as typed, and whether it is a volt drop.
     pub elements: Vec<(String, String, bool)>,
+    /// The loop carries HART, so the 230 Ω minimum and the 250 Ω rule are checked.
+    pub hart: bool,
+}
+
+/// A tag form being filled in on Tags, as typed, so a half-typed tag survives.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct TagDraft {
+    /// A new tag (not an edit of the open one).
+    pub is_new: bool,
+    /// Tag number.
+    pub number: String,
+    /// Service.
+    pub service: String,
+    /// Area.
+    pub area: String,
+    /// LRV, in the tag's unit.
+    pub lrv: String,
+    /// URV, in the tag's unit.
+    pub urv: String,
+    /// Engineering unit.
+    pub unit: String,
+    /// Transfer, in words.
+    pub transfer: String,
+    /// Check tolerance, ± % of span.
+    pub tolerance: String,
+    /// The loop, in the same fields as on Power.
+    pub loop_form: PowerForm,
 }
 
 /// The Check screen as the technician left it: an unfinished check survives a restart.
@@ -147,6 +175,10 @@ pub struct UiState {
     pub import_path: String,
     /// The demo plant was cleared: do not load it again on an empty store.
     pub demo_cleared: bool,
+    /// The tag form, while it is open.
+    pub tag_draft: Option<TagDraft>,
+    /// A note typed on Log and not yet saved.
+    pub log_note: String,
 }
 
 impl Default for UiState {
@@ -167,6 +199,8 @@ impl Default for UiState {
             export_dir: String::new(),
             import_path: String::new(),
             demo_cleared: false,
+            tag_draft: None,
+            log_note: String::new(),
         }
     }
 }

@@ -1,9 +1,11 @@
 //! Tags screen glue: search the register, open a tag, add or edit one through
 //! [`crate::tag::Tag::validate`]. Every change is saved to the store before it is shown.
 
+use super::state::{PowerForm, TagDraft};
 use super::{
     model, navigate, refresh_all, screen_from_name, AppState, AppWindow, Shared, TagsAdapter,
 };
+use crate::budget::LoopConfig;
 use crate::display;
 use crate::error::{FieldError, Result};
 use crate::journal::{Entry, TagId};
@@ -55,9 +57,44 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         }
     });
     let weak = window.as_weak();
+    adapter.on_element_renamed(move |i, text| {
+        edit_elements(&weak, |e| {
+            if let Some(row) = usize::try_from(i).ok().and_then(|i| e.get_mut(i)) {
+                row.0 = text.to_string();
+            }
+        })
+    });
+    let weak = window.as_weak();
+    adapter.on_element_edited(move |i, text| {
+        edit_elements(&weak, |e| {
+            if let Some(row) = usize::try_from(i).ok().and_then(|i| e.get_mut(i)) {
+                row.1 = text.to_string();
+            }
+        })
+    });
+    let weak = window.as_weak();
+    adapter.on_add_element(move |kind| {
+        edit_elements(&weak, |e| {
+            e.push(super::power::new_element(
+                e.len() + 1,
+                kind.as_str() == "volts",
+            ))
+        })
+    });
+    let weak = window.as_weak();
+    adapter.on_remove_element(move |i| {
+        edit_elements(&weak, |e| {
+            if let Some(i) = usize::try_from(i).ok().filter(|&i| i < e.len()) {
+                e.remove(i);
+            }
+        })
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
     adapter.on_cancel(move || {
         if let Some(w) = weak.upgrade() {
             w.global::<TagsAdapter>().set_editing(false);
+            st.borrow_mut().ui.tag_draft = None;
         }
     });
     let weak = window.as_weak();
@@ -70,6 +107,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         match result {
             Ok(()) => {
                 a.set_editing(false);
+                st.borrow_mut().ui.tag_draft = None;
                 refresh_all(&w, &st.borrow());
             }
             Err(e) => {
@@ -82,6 +120,21 @@ pub fn connect(window: &AppWindow, state: &Shared) {
             }
         }
     });
+}
+
+/// Change the form's series elements: read the form back (with what is typed in its other
+/// fields), change the rows, set it again.
+fn edit_elements(
+    weak: &slint::Weak<AppWindow>,
+    change: impl FnOnce(&mut Vec<(String, String, bool)>),
+) {
+    let Some(w) = weak.upgrade() else { return };
+    let a = w.global::<TagsAdapter>();
+    let mut form = a.get_form();
+    let mut rows = super::power::elements_of(&form.elements);
+    change(&mut rows);
+    form.elements = super::power::element_rows(&rows);
+    a.set_form(form);
 }
 
 /// Save the form: a new tag, or the open tag edited (a changed number renames it and its
@@ -130,42 +183,123 @@ pub fn open(window: &AppWindow, state: &Shared, number: &str) {
     }
 }
 
-fn empty_form() -> super::TagForm {
-    super::TagForm {
-        number: "".into(),
-        service: "".into(),
-        area: "".into(),
-        lrv: "0".into(),
-        urv: "100".into(),
-        unit: "%".into(),
-        transfer: "linear".into(),
-        supply: "24".into(),
-        tx_min: "12".into(),
-        tolerance: display::fixed(crate::tag::DEFAULT_TOLERANCE_PERCENT, 2).into(),
-    }
+/// A new tag's form: 0–100 %, linear, and a common 24 V loop with a 12 V transmitter
+/// minimum to start from (emptied when the loop is not known).
+pub fn empty_form() -> super::TagForm {
+    let loop_part = super::power::form_from("", &LoopConfig::new(24.0, 12.0));
+    let mut f = with_loop(
+        super::TagForm {
+            number: "".into(),
+            service: "".into(),
+            area: "".into(),
+            lrv: "0".into(),
+            urv: "100".into(),
+            unit: "%".into(),
+            transfer: "linear".into(),
+            tolerance: display::fixed(crate::tag::DEFAULT_TOLERANCE_PERCENT, 2).into(),
+            ..Default::default()
+        },
+        &loop_part,
+    );
+    f.supply = "24".into();
+    f
 }
 
 /// The form filled from a tag.
 pub fn form_of(tag: &Tag) -> super::TagForm {
     let transfer = transfer_text(&tag.scale.transfer);
-    let lc = tag.loop_config.as_ref();
-    super::TagForm {
-        number: tag.number.clone().into(),
-        service: tag.service.clone().into(),
-        area: tag.area.clone().into(),
-        lrv: crate::view::plain(tag.scale.lrv).into(),
-        urv: crate::view::plain(tag.scale.urv).into(),
-        unit: tag.scale.unit.clone().into(),
-        transfer: transfer.into(),
-        supply: lc
-            .map(|c| crate::view::plain(c.supply_volts))
-            .unwrap_or_default()
-            .into(),
-        tx_min: lc
-            .map(|c| crate::view::plain(c.tx_min_volts))
-            .unwrap_or_default()
-            .into(),
-        tolerance: crate::view::plain(tag.tolerance_percent).into(),
+    let loop_part = match &tag.loop_config {
+        Some(c) => super::power::form_from(&tag.number, c),
+        None => PowerForm::default(),
+    };
+    let mut f = with_loop(
+        super::TagForm {
+            number: tag.number.clone().into(),
+            service: tag.service.clone().into(),
+            area: tag.area.clone().into(),
+            lrv: crate::view::plain(tag.scale.lrv).into(),
+            urv: crate::view::plain(tag.scale.urv).into(),
+            unit: tag.scale.unit.clone().into(),
+            transfer: transfer.into(),
+            tolerance: crate::view::plain(tag.tolerance_percent).into(),
+            ..Default::default()
+        },
+        &loop_part,
+    );
+    f.hart = tag.hart;
+    f
+}
+
+/// The form as typed, to be saved with the screen state.
+pub fn draft_of(f: &super::TagForm, is_new: bool) -> TagDraft {
+    TagDraft {
+        is_new,
+        number: f.number.to_string(),
+        service: f.service.to_string(),
+        area: f.area.to_string(),
+        lrv: f.lrv.to_string(),
+        urv: f.urv.to_string(),
+        unit: f.unit.to_string(),
+        transfer: f.transfer.to_string(),
+        tolerance: f.tolerance.to_string(),
+        loop_form: loop_form_of(f),
+    }
+}
+
+/// The form as it was typed before the app closed.
+pub fn form_of_draft(d: &TagDraft) -> super::TagForm {
+    with_loop(
+        super::TagForm {
+            number: d.number.clone().into(),
+            service: d.service.clone().into(),
+            area: d.area.clone().into(),
+            lrv: d.lrv.clone().into(),
+            urv: d.urv.clone().into(),
+            unit: d.unit.clone().into(),
+            transfer: d.transfer.clone().into(),
+            tolerance: d.tolerance.clone().into(),
+            ..Default::default()
+        },
+        &d.loop_form,
+    )
+}
+
+/// Show a tag form left open when the app closed (called once at start-up).
+pub fn restore_draft(window: &AppWindow, state: &AppState) {
+    if let Some(d) = &state.ui.tag_draft {
+        let a = window.global::<TagsAdapter>();
+        a.set_form(form_of_draft(d));
+        a.set_is_new(d.is_new);
+        a.set_editing(true);
+    }
+}
+
+/// The form's loop fields set from a Power form (the two share the loop's wording).
+fn with_loop(mut f: super::TagForm, p: &PowerForm) -> super::TagForm {
+    f.supply = p.supply.clone().into();
+    f.sag = p.tolerance.clone().into();
+    f.tx_min = p.tx_min.clone().into();
+    f.fault = p.fault.clone().into();
+    f.cable_m = p.cable_m.clone().into();
+    f.cable_size = p.cable_size.clone().into();
+    f.elements = super::power::element_rows(&p.elements);
+    f.hart = p.hart;
+    f
+}
+
+/// The form's loop as a Power form, so one reader ([`super::power::config_from`]) checks
+/// both screens' loops.
+pub fn loop_form_of(f: &super::TagForm) -> PowerForm {
+    PowerForm {
+        tag: f.number.to_string(),
+        supply: f.supply.to_string(),
+        tolerance: f.sag.to_string(),
+        tx_min: f.tx_min.to_string(),
+        fault: f.fault.to_string(),
+        cable_m: f.cable_m.to_string(),
+        cable_size: f.cable_size.to_string(),
+        elements: super::power::elements_of(&f.elements),
+        hart: f.hart,
     }
 }
 
@@ -275,19 +409,17 @@ pub fn tag_from_form(form: &super::TagForm, base: Option<&Tag>) -> Result<Tag> {
     tag.service = form.service.trim().to_string();
     tag.area = form.area.trim().to_string();
     tag.tolerance_percent = parse_number("tolerance", form.tolerance.trim_end_matches('%'))?;
-    let supply = form.supply.trim();
-    let tx_min = form.tx_min.trim();
-    if !supply.is_empty() || !tx_min.is_empty() {
-        let supply = parse_number("supply", supply)?;
-        let tx_min = parse_number("transmitter minimum", tx_min)?;
-        let mut config = tag
-            .loop_config
-            .clone()
-            .unwrap_or_else(|| crate::budget::LoopConfig::new(supply, tx_min));
-        config.supply_volts = supply;
-        config.tx_min_volts = tx_min;
-        tag.loop_config = Some(config);
-    }
+    tag.hart = form.hart;
+    let lf = loop_form_of(form);
+    let unknown = lf.supply.trim().is_empty() && lf.tx_min.trim().is_empty();
+    let described = !lf.elements.is_empty() || !lf.cable_m.trim().is_empty();
+    tag.loop_config = if unknown && !described {
+        None
+    } else {
+        let mut config = super::power::config_from(&lf)?;
+        super::power::keep_unshown(&mut config, base.and_then(|b| b.loop_config.as_ref()));
+        Some(config)
+    };
     tag.validate().map_err(|e| match e.field.as_str() {
         "supply_volts" => e.renamed("supply"),
         "tx_min_volts" => e.renamed("transmitter minimum"),
@@ -396,6 +528,58 @@ mod tests {
         let mut f = form("LT-102", "0");
         f.tolerance = "0".into();
         assert_eq!(tag_from_form(&f, None).unwrap_err().field, "tolerance");
+    }
+
+    #[test]
+    fn the_whole_loop_is_recorded_from_the_tag_form() {
+        // A level loop: 24 V card supply that may sag 5 %, a transmitter needing 10,5 V, a
+        // 250 Ω card input, an isolating barrier dropping 8 V, and 180 m of 1.0 mm² pair.
+        let mut f = form("LT-110", "0");
+        f.supply = "24".into();
+        f.sag = "5".into();
+        f.tx_min = "10,5".into();
+        f.fault = "21".into();
+        f.elements = super::super::power::element_rows(&[
+            ("Card input".into(), "250".into(), false),
+            ("Barrier".into(), "8".into(), true),
+        ]);
+        f.cable_m = "180".into();
+        f.cable_size = "1.0 mm²".into();
+        f.hart = true;
+        let tag = tag_from_form(&f, None).unwrap();
+        assert!(tag.hart);
+        let c = tag.loop_config.clone().unwrap();
+        assert_eq!(c.supply_volts, 24.0);
+        assert_eq!(c.supply_tolerance_percent, 5.0);
+        assert_eq!(c.tx_min_volts, 10.5);
+        assert_eq!(c.fault_ma, 21.0);
+        assert_eq!(c.elements.len(), 2);
+        assert_eq!(c.elements[0].name, "Card input");
+        assert_eq!(c.cable.unwrap().one_way_m, 180.0);
+        // The form filled from the tag reads back as the same tag.
+        assert_eq!(tag_from_form(&form_of(&tag), Some(&tag)).unwrap(), tag);
+    }
+
+    #[test]
+    fn an_unknown_loop_is_left_empty_and_a_half_loop_is_named() {
+        let mut f = form("LT-111", "0");
+        f.supply = " ".into();
+        f.tx_min = "".into();
+        assert_eq!(tag_from_form(&f, None).unwrap().loop_config, None);
+        // Elements without a supply: the supply is what is missing.
+        f.elements =
+            super::super::power::element_rows(&[("Card input".into(), "250".into(), false)]);
+        assert_eq!(tag_from_form(&f, None).unwrap_err().field, "supply");
+        // A bad element value names the element.
+        f.supply = "24".into();
+        f.tx_min = "12".into();
+        f.elements =
+            super::super::power::element_rows(&[("Card input".into(), "lots".into(), false)]);
+        assert_eq!(tag_from_form(&f, None).unwrap_err().field, "Card input");
+        // A bad supply sag is not taken for the check tolerance.
+        f.elements = Default::default();
+        f.sag = "-3".into();
+        assert_eq!(tag_from_form(&f, None).unwrap_err().field, "supply sag");
     }
 
     #[test]
