@@ -34,6 +34,14 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         open(&w, &st, number.as_str());
     });
     let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_go_to(move |name| {
+        let Some(w) = weak.upgrade() else { return };
+        if let Some(screen) = screen_from_name(name.as_str()) {
+            navigate(&w, &st, screen, true);
+        }
+    });
+    let weak = window.as_weak();
     adapter.on_new_tag(move || {
         let Some(w) = weak.upgrade() else { return };
         let a = w.global::<TagsAdapter>();
@@ -457,6 +465,50 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     adapter.set_rows(model(rows));
     adapter.set_search_text(state.ui.tag_search.clone().into());
     adapter.set_open_tag(state.ui.open_tag.clone().unwrap_or_default().into());
+    map_sheet(&adapter, state);
+}
+
+/// The open tag's sheet into the adapter (empty when no tag is open).
+fn map_sheet(adapter: &TagsAdapter, state: &AppState) {
+    let sheet = state
+        .open_record()
+        .map(|r| crate::view::tag_sheet::sheet(state.store.as_ref(), r));
+    let entries = |rows: &[crate::view::log::Row]| {
+        model(
+            rows.iter()
+                .map(|r| super::SheetEntry {
+                    when: r.when.clone().into(),
+                    title: r.title.clone().into(),
+                    text: r.text.clone().into(),
+                    kind: r.kind.code(),
+                })
+                .collect(),
+        )
+    };
+    match sheet {
+        Some(s) => {
+            adapter.set_sheet_title(s.title.into());
+            adapter.set_sheet_facts(model(
+                s.facts
+                    .into_iter()
+                    .map(|f| super::SheetFact {
+                        label: f.label.into(),
+                        value: f.value.into(),
+                    })
+                    .collect(),
+            ));
+            adapter.set_sheet_open(entries(&s.open));
+            adapter.set_sheet_recent(entries(&s.recent));
+            adapter.set_sheet_summary(s.log_summary.into());
+        }
+        None => {
+            adapter.set_sheet_title("".into());
+            adapter.set_sheet_facts(model(Vec::new()));
+            adapter.set_sheet_open(model(Vec::new()));
+            adapter.set_sheet_recent(model(Vec::new()));
+            adapter.set_sheet_summary("".into());
+        }
+    }
 }
 
 /// Each tag's newest log entry (one pass over the log).

@@ -544,86 +544,12 @@ fn tag_show(store: &FileStore, a: TagShowArgs, out: &mut dyn Write) -> CliResult
         return print_json(out, &v);
     }
     let tag = &t.tag;
-    let mut lines = vec![
-        format!("{}  {}", tag.number, tag.service),
-        format!("area       {}", tag.area),
-        format!(
-            "range      {}..{} {}{}",
-            tag.scale.lrv,
-            tag.scale.urv,
-            tag.scale.unit,
-            match &tag.scale.transfer {
-                crate::scale::Transfer::Linear => String::new(),
-                crate::scale::Transfer::SquareRoot { cutoff_percent, .. } =>
-                    format!(", square root, cutoff {cutoff_percent} %"),
-                crate::scale::Transfer::Table(t) => format!(
-                    ", table of {} points to {}",
-                    t.points().len(),
-                    t.output_unit()
-                ),
-            }
-        ),
-        format!(
-            "signal     {}..{} mA   HART {}   tolerance ±{} % of span",
-            tag.scale.signal.low_ma,
-            tag.scale.signal.high_ma,
-            if tag.hart { "yes" } else { "no" },
-            tag.tolerance_percent
-        ),
-    ];
-    if let Some(sensor) = &tag.sensor {
-        lines.push(format!(
-            "sensor     {}",
-            match sensor {
-                Sensor::Rtd {
-                    element,
-                    wiring,
-                    lead_ohms,
-                } => format!(
-                    "{element} RTD, {}-wire{}",
-                    wiring.count(),
-                    if *lead_ohms > 0.0 {
-                        format!(", leads {lead_ohms} Ω")
-                    } else {
-                        String::new()
-                    }
-                ),
-                Sensor::Thermocouple { tc, cj_c } =>
-                    format!("{tc} thermocouple, cold junction {cj_c} °C"),
-                Sensor::DpLevel { .. } => "DP level (see the tag's JSON for the setup)".to_string(),
-            }
-        ));
-    }
-    if let Some(l) = &tag.loop_config {
-        let parts: Vec<String> = l
-            .elements
-            .iter()
-            .map(|e| match e.kind {
-                crate::budget::ElementKind::Resistance { ohms } => format!("{} {ohms} Ω", e.name),
-                crate::budget::ElementKind::Drop { volts } => format!("{} {volts} V", e.name),
-            })
-            .collect();
-        lines.push(format!(
-            "loop       {} V supply, transmitter min {} V{}{}",
-            l.supply_volts,
-            l.tx_min_volts,
-            if parts.is_empty() {
-                String::new()
-            } else {
-                format!(", {}", parts.join(", "))
-            },
-            match &l.cable {
-                Some(c) => format!(", cable {} m {}", c.one_way_m, c.conductor.label()),
-                None => String::new(),
-            }
-        ));
-    }
-    if !tag.notes.is_empty() {
-        lines.push(format!("notes      {}", tag.notes));
-    }
-    if tag.archived {
-        lines.push("archived".into());
-    }
+    let mut lines = vec![format!("{}  {}", tag.number, tag.service)];
+    lines.extend(
+        crate::view::tag_sheet::facts(tag)
+            .into_iter()
+            .map(|f| format!("{:<10} {}", f.label.to_lowercase(), f.value)),
+    );
     lines.push(format!(
         "log        {} entries, {} open follow-up(s)",
         mine.len(),

@@ -12,6 +12,7 @@ pub mod fault;
 pub mod log;
 pub mod power;
 pub mod sensor_calc;
+pub mod tag_sheet;
 
 use crate::display;
 use crate::scale::Scale;

@@ -1,0 +1,235 @@
+//! A tag's sheet: what the register knows of one tag, in plain lines (range and transfer,
+//! signal and tolerance, sensor, loop), with its open follow-ups and latest log entries.
+//! Shown beside the register on a wide screen, and printed by `loopside tag show`.
+
+use crate::budget::ElementKind;
+use crate::journal::{self, Entry};
+use crate::scale::Transfer;
+use crate::sensor::Sensor;
+use crate::store::{Store, TagRecord};
+use crate::tag::Tag;
+use crate::view::log::{row, Row, RowKind};
+use crate::view::plain;
+
+/// How many of the tag's newest entries the sheet lists.
+pub const RECENT: usize = 5;
+
+/// One line of the sheet: what it is, and its value in words and numbers.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Fact {
+    /// `Range`, `Loop` …
+    pub label: String,
+    /// `0 – 4.5 m, linear` …
+    pub value: String,
+}
+
+/// The whole sheet.
+#[derive(Debug, Clone, PartialEq)]
+pub struct TagSheet {
+    /// `LT-101 · Inlet wet well level`.
+    pub title: String,
+    /// The tag's definition, line by line.
+    pub facts: Vec<Fact>,
+    /// Follow-ups on this tag still to do, oldest first.
+    pub open: Vec<Row>,
+    /// The newest entries on this tag, newest first (at most [`RECENT`]).
+    pub recent: Vec<Row>,
+    /// `12 entries, 1 open follow-up`.
+    pub log_summary: String,
+}
+
+fn fact(label: &str, value: String) -> Fact {
+    Fact {
+        label: label.to_string(),
+        value,
+    }
+}
+
+/// The transfer in words: `linear`, `square root, cutoff 1 %`, `table of 9 points to m³`.
+pub fn transfer_words(t: &Transfer) -> String {
+    match t {
+        Transfer::Linear => "linear".to_string(),
+        Transfer::SquareRoot { cutoff_percent, .. } => {
+            format!("square root, cutoff {} %", plain(*cutoff_percent))
+        }
+        Transfer::Table(table) => format!(
+            "table of {} points to {}",
+            table.points().len(),
+            table.output_unit()
+        ),
+    }
+}
+
+/// The sensor in words: `Pt100 RTD, 3-wire`, `K thermocouple, cold junction 22 °C`.
+pub fn sensor_words(sensor: &Sensor) -> String {
+    match sensor {
+        Sensor::Rtd {
+            element,
+            wiring,
+            lead_ohms,
+        } => format!(
+            "{element} RTD, {}-wire{}",
+            wiring.count(),
+            if *lead_ohms > 0.0 {
+                format!(", leads {} Ω", plain(*lead_ohms))
+            } else {
+                String::new()
+            }
+        ),
+        Sensor::Thermocouple { tc, cj_c } => {
+            format!("{tc} thermocouple, cold junction {} °C", plain(*cj_c))
+        }
+        Sensor::DpLevel { .. } => "DP level (the setup is in the tag's JSON)".to_string(),
+    }
+}
+
+/// The tag's definition as lines of the sheet.
+pub fn facts(tag: &Tag) -> Vec<Fact> {
+    let s = &tag.scale;
+    let mut out = vec![
+        fact("Area", tag.area.clone()),
+        fact(
+            "Range",
+            format!(
+                "{}, {}",
+                crate::view::range_text(s),
+                transfer_words(&s.transfer)
+            ),
+        ),
+        fact(
+            "Signal",
+            format!(
+                "{} – {} mA, HART {}",
+                plain(s.signal.low_ma),
+                plain(s.signal.high_ma),
+                if tag.hart { "yes" } else { "no" }
+            ),
+        ),
+        fact(
+            "Tolerance",
+            format!("± {} % of span", plain(tag.tolerance_percent)),
+        ),
+    ];
+    if let Some(sensor) = &tag.sensor {
+        out.push(fact("Sensor", sensor_words(sensor)));
+    }
+    match &tag.loop_config {
+        Some(l) => {
+            let mut parts = vec![format!(
+                "{} V supply{}, transmitter min {} V",
+                plain(l.supply_volts),
+                if l.supply_tolerance_percent > 0.0 {
+                    format!(" (may sag {} %)", plain(l.supply_tolerance_percent))
+                } else {
+                    String::new()
+                },
+                plain(l.tx_min_volts)
+            )];
+            parts.extend(l.elements.iter().map(|e| match e.kind {
+                ElementKind::Resistance { ohms } => format!("{} {} Ω", e.name, plain(ohms)),
+                ElementKind::Drop { volts } => format!("{} {} V", e.name, plain(volts)),
+            }));
+            if let Some(c) = &l.cable {
+                parts.push(format!(
+                    "cable {} m {}",
+                    plain(c.one_way_m),
+                    c.conductor.label()
+                ));
+            }
+            out.push(fact("Loop", parts.join(", ")));
+        }
+        None => out.push(fact("Loop", "not recorded".to_string())),
+    }
+    if !tag.notes.is_empty() {
+        out.push(fact("Notes", tag.notes.clone()));
+    }
+    if tag.archived {
+        out.push(fact("Archived", "yes".to_string()));
+    }
+    out
+}
+
+/// The sheet of one tag in `store`.
+pub fn sheet(store: &dyn Store, record: &TagRecord) -> TagSheet {
+    let entries = store.entries();
+    let closed = journal::closed_follow_ups(entries);
+    let mine: Vec<&Entry> = entries.iter().filter(|e| e.tag == record.id).collect();
+    let open: Vec<Row> = mine
+        .iter()
+        .map(|e| row(store, e, &closed))
+        .filter(|r| r.kind == RowKind::OpenFollowUp)
+        .collect();
+    let recent: Vec<Row> = mine
+        .iter()
+        .rev()
+        .take(RECENT)
+        .map(|e| row(store, e, &closed))
+        .collect();
+    let n = mine.len();
+    let log_summary = format!(
+        "{n} {}, {} open follow-up{}",
+        if n == 1 { "entry" } else { "entries" },
+        open.len(),
+        if open.len() == 1 { "" } else { "s" }
+    );
+    let tag = &record.tag;
+    TagSheet {
+        title: if tag.service.is_empty() {
+            tag.number.clone()
+        } else {
+            format!("{} · {}", tag.number, tag.service)
+        },
+        facts: facts(tag),
+        open,
+        recent,
+        log_summary,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::store::MemoryStore;
+
+    #[test]
+    fn the_demo_level_loop_reads_as_a_sheet() {
+        let mut store = MemoryStore::new();
+        let now = chrono::TimeZone::with_ymd_and_hms(
+            &chrono::FixedOffset::east_opt(3600).unwrap(),
+            2026,
+            12,
+            1,
+            16,
+            30,
+            0,
+        )
+        .unwrap();
+        crate::demo::fill(&mut store, now).unwrap();
+        let record = store.tag("LT-101").unwrap().clone();
+        let s = sheet(&store, &record);
+        assert_eq!(s.title, "LT-101 · Inlet wet well level");
+        let range = s.facts.iter().find(|f| f.label == "Range").unwrap();
+        assert_eq!(range.value, "0 – 4.5 m, linear");
+        let lp = s.facts.iter().find(|f| f.label == "Loop").unwrap();
+        assert_eq!(
+            lp.value,
+            "24 V supply, transmitter min 10.5 V, PLC input 250 Ω, cable 180 m 1 mm²"
+        );
+        assert!(s.recent.len() <= RECENT);
+        // Newest first.
+        assert!(s.recent.windows(2).all(|w| w[0].when >= w[1].when));
+        assert!(s.log_summary.contains("entr"));
+    }
+
+    #[test]
+    fn a_tag_without_a_loop_says_so() {
+        let tag = Tag::new(
+            "PT-9",
+            crate::scale::Scale::linear(0.0, 10.0, "bar").unwrap(),
+        )
+        .unwrap();
+        let f = facts(&tag);
+        assert_eq!(f.last().unwrap().value, "not recorded");
+        assert_eq!(f[2].value, "4 – 20 mA, HART no");
+    }
+}
