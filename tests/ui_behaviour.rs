@@ -8,10 +8,15 @@ use i_slint_backend_testing::{AccessibleRole, ElementHandle};
 use loopside::app::{App, AppState, ConvertAdapter, Screen};
 use slint::ComponentHandle;
 
-/// The testing backend, once per test thread.
+/// The app on the testing backend, in a tall desktop-size window so every screen fits
+/// without scrolling (the backend finds only elements it counts as visible).
 fn app() -> App {
     util::ui_backend();
-    App::new(AppState::demo()).unwrap()
+    let app = App::new(AppState::demo()).unwrap();
+    app.window
+        .window()
+        .set_size(slint::LogicalSize::new(1280.0, 3000.0));
+    app
 }
 
 /// The one element with this label and role (a field's or button's visible text carries
@@ -195,11 +200,6 @@ fn a_new_tag_is_entered_with_its_whole_loop() {
     // A flow loop at the filter house: 24 V supply, transmitter needs 10,5 V, a 250 Ω card
     // input, an isolating barrier dropping 8 V, 220 m of 18 AWG pair, and HART on it.
     let app = app();
-    // A tall desktop window, so the whole form (beside the list) is in view: the testing
-    // backend finds only elements it counts as visible.
-    app.window
-        .window()
-        .set_size(slint::LogicalSize::new(1280.0, 3000.0));
     app.show_screen(Screen::Tags);
     button(&app, "New tag").invoke_accessible_default_action();
     field(&app, "Tag number").set_accessible_value("FT-640");
