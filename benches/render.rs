@@ -19,6 +19,10 @@ use std::path::{Path, PathBuf};
 use std::time::{Duration, Instant};
 
 const FIRST_FRAME_MODE: &str = "LOOPSIDE_BENCH_FIRST_FRAME";
+/// Set to draw one round only and skip the start-up timing: for counting instructions
+/// under `valgrind --tool=callgrind`, which are the same from run to run whatever else the
+/// machine is doing (timings on a shared machine are not).
+const COUNT_MODE: &str = "LOOPSIDE_BENCH_COUNT";
 /// Rounds over all screens, and timed redraws of each screen per round.
 const ROUNDS: usize = 10;
 const PER_ROUND: usize = 5;
@@ -128,7 +132,9 @@ fn main() {
     // Screens are taken in turn, round after round, so a burst of load on a shared machine
     // falls on every screen alike instead of on whichever one was being measured.
     let mut times: Vec<Vec<Duration>> = vec![Vec::new(); SCREENS.len()];
-    for _ in 0..ROUNDS {
+    let count_only = std::env::var_os(COUNT_MODE).is_some();
+    let rounds = if count_only { 1 } else { ROUNDS };
+    for _ in 0..rounds {
         for (i, screen) in SCREENS.into_iter().enumerate() {
             h.show(screen);
             h.draw_into(&mut frame); // the first draw after showing lays the screen out
@@ -161,6 +167,9 @@ fn main() {
         );
     }
 
+    if count_only {
+        return;
+    }
     let exe = match std::env::current_exe() {
         Ok(e) => e,
         Err(e) => {
