@@ -321,6 +321,74 @@ pub struct Query {
     pub open_only: bool,
 }
 
+/// Read the start of a handover period as typed: `12 h` (or `12h`, `12 hours`: that long
+/// before `now`), `today` or `yesterday` (from local midnight), a date `2026-11-30` (from
+/// its local midnight), a local date and time `2026-11-30 06:00`, or a full time with its
+/// offset (`2026-11-30T06:00:00+01:00`). "Local" is `now`'s offset, so the caller decides
+/// the time zone. An empty text is `None`: no start.
+pub fn parse_since(text: &str, now: DateTime<FixedOffset>) -> Result<Option<DateTime<Utc>>> {
+    let t = text.trim();
+    if t.is_empty() {
+        return Ok(None);
+    }
+    let bad = || {
+        FieldError::new(
+            "since",
+            format!(
+                "'{t}' is not a start; type hours back (12 h), today, yesterday, a date \
+                 (2026-11-30) or a date and time (2026-11-30 06:00)"
+            ),
+        )
+    };
+    let local_midnight = |date: chrono::NaiveDate| {
+        date.and_hms_opt(0, 0, 0)
+            .and_then(|m| m.and_local_timezone(*now.offset()).single())
+            .map(|d| d.with_timezone(&Utc))
+            .ok_or_else(bad)
+    };
+    let lower = t.to_lowercase();
+    match lower.as_str() {
+        "today" => return local_midnight(now.date_naive()).map(Some),
+        "yesterday" => {
+            let day = now.date_naive().pred_opt().ok_or_else(bad)?;
+            return local_midnight(day).map(Some);
+        }
+        _ => {}
+    }
+    let hours_text = lower
+        .trim_end_matches("hours")
+        .trim_end_matches("hour")
+        .trim_end_matches('h')
+        .trim();
+    if hours_text.len() < lower.len() {
+        let hours = crate::number::parse_number("since", hours_text).map_err(|_| bad())?;
+        if !(0.0..=24.0 * 366.0).contains(&hours) {
+            return Err(FieldError::new(
+                "since",
+                format!("{hours} h is out of range; type 0 to 8784 hours back (one year)"),
+            ));
+        }
+        let back = chrono::Duration::milliseconds((hours * 3_600_000.0).round() as i64);
+        return Ok(Some((now - back).with_timezone(&Utc)));
+    }
+    if let Ok(dt) = DateTime::parse_from_rfc3339(t) {
+        return Ok(Some(dt.with_timezone(&Utc)));
+    }
+    if let Ok(date) = chrono::NaiveDate::parse_from_str(t, "%Y-%m-%d") {
+        return local_midnight(date).map(Some);
+    }
+    for format in ["%Y-%m-%d %H:%M", "%Y-%m-%dT%H:%M", "%Y-%m-%d %H:%M:%S"] {
+        if let Ok(local) = chrono::NaiveDateTime::parse_from_str(t, format) {
+            return local
+                .and_local_timezone(*now.offset())
+                .single()
+                .map(|d| Some(d.with_timezone(&Utc)))
+                .ok_or_else(bad);
+        }
+    }
+    Err(bad())
+}
+
 /// Ids of follow-ups that some entry has marked done.
 pub fn closed_follow_ups(entries: &[Entry]) -> HashSet<&EntryId> {
     entries
@@ -396,6 +464,51 @@ pub fn search<'a>(entries: &'a [Entry], query: &Query) -> Vec<&'a Entry> {
 
 #[cfg(test)]
 mod tests {
+
+    #[test]
+    fn a_handover_starts_when_the_technician_says() {
+        // Evening shift hand-over at 18:30 local time (UTC+1) on 1 December 2026.
+        let now = DateTime::parse_from_rfc3339("2026-12-01T18:30:00+01:00").unwrap();
+        let utc = |s: &str| Some(DateTime::parse_from_rfc3339(s).unwrap().with_timezone(&Utc));
+        assert_eq!(parse_since("", now).unwrap(), None);
+        assert_eq!(
+            parse_since("12 h", now).unwrap(),
+            utc("2026-12-01T06:30:00+01:00")
+        );
+        assert_eq!(
+            parse_since("12h", now).unwrap(),
+            utc("2026-12-01T06:30:00+01:00")
+        );
+        assert_eq!(
+            parse_since("1,5 hours", now).unwrap(),
+            utc("2026-12-01T17:00:00+01:00")
+        );
+        assert_eq!(
+            parse_since("Today", now).unwrap(),
+            utc("2026-12-01T00:00:00+01:00")
+        );
+        assert_eq!(
+            parse_since("yesterday", now).unwrap(),
+            utc("2026-11-30T00:00:00+01:00")
+        );
+        assert_eq!(
+            parse_since("2026-11-28", now).unwrap(),
+            utc("2026-11-28T00:00:00+01:00")
+        );
+        assert_eq!(
+            parse_since("2026-11-30 06:00", now).unwrap(),
+            utc("2026-11-30T06:00:00+01:00")
+        );
+        assert_eq!(
+            parse_since("2026-11-30T06:00:00Z", now).unwrap(),
+            utc("2026-11-30T07:00:00+01:00")
+        );
+        for bad in ["last week", "-3 h", "9000 h", "2026-13-01", "h"] {
+            let e = parse_since(bad, now).unwrap_err();
+            assert_eq!(e.field, "since", "{bad}");
+        }
+    }
+
     use super::*;
 
     fn t(s: &str) -> DateTime<FixedOffset> {
