@@ -190,7 +190,35 @@ fn handoff_reports_are_written_and_a_bundle_imports_once() {
     log2.set_import_path(md.display().to_string().into());
     log2.invoke_import_bundle();
     assert!(log2.get_message().starts_with("Nothing imported"));
+
+    // A shift's hand-over: only what was written since the shift began goes in the bundle.
+    let shift = data_dir("export-shift");
+    log.set_export_dir(shift.display().to_string().into());
+    log.invoke_export_dir_edited(shift.display().to_string().into());
+    log.invoke_since_edited("2026-11-30".into());
+    log.invoke_export_report("json".into());
+    let written = std::fs::read_dir(&shift)
+        .unwrap()
+        .next()
+        .unwrap()
+        .unwrap()
+        .path();
+    let b = loopside::report::parse_bundle(&std::fs::read_to_string(&written).unwrap()).unwrap();
+    assert!(!b.entries.is_empty() && b.entries.len() < demo_entries);
+    assert!(b
+        .entries
+        .iter()
+        .all(|e| e.time.date_naive().to_string().as_str() >= "2026-11-30"));
+    // A start that cannot be read writes nothing and says why.
+    log.invoke_since_edited("fortnight".into());
+    log.invoke_export_report("md".into());
+    assert!(
+        log.get_message().starts_with("Not written: since"),
+        "{}",
+        log.get_message()
+    );
     std::fs::remove_dir_all(&dir).unwrap();
+    std::fs::remove_dir_all(&shift).unwrap();
 }
 
 #[test]

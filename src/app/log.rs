@@ -4,7 +4,7 @@
 
 use super::{model, AppState, AppWindow, LogAdapter, Shared};
 use crate::error::FieldError;
-use crate::journal::{Entry, EntryId, Kind};
+use crate::journal::{Entry, EntryId, Kind, Query};
 use crate::report;
 use crate::store::record::write_atomically;
 use crate::store::{ImportReport, StoreError};
@@ -25,6 +25,17 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         st.borrow_mut().ui.log_search = text.to_string();
         refresh(&w, &st.borrow());
     });
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_since_edited(move |text| {
+        let Some(w) = weak.upgrade() else { return };
+        st.borrow_mut().ui.log_since = text.to_string();
+        refresh(&w, &st.borrow());
+    });
+    let st = state.clone();
+    adapter.on_export_dir_edited(move |text| st.borrow_mut().ui.export_dir = text.to_string());
+    let st = state.clone();
+    adapter.on_import_path_edited(move |text| st.borrow_mut().ui.import_path = text.to_string());
     let weak = window.as_weak();
     let st = state.clone();
     adapter.on_show_all(move |all| {
@@ -141,7 +152,7 @@ pub fn mark_done(state: &mut AppState, id: &str, who: &str) -> Result<EntryId, S
 }
 
 /// The folder reports go to: the one typed, else the state's default.
-pub(crate) fn export_folder(state: &AppState, typed: &str) -> Result<PathBuf, FieldError> {
+fn export_folder(state: &AppState, typed: &str) -> Result<PathBuf, FieldError> {
     let typed = typed.trim();
     if !typed.is_empty() {
         return Ok(PathBuf::from(typed));
@@ -153,17 +164,26 @@ pub(crate) fn export_folder(state: &AppState, typed: &str) -> Result<PathBuf, Fi
         .ok_or_else(|| FieldError::new("export folder", "is empty; type a folder to write to"))
 }
 
-/// Write what the Log shows (the open tag or all tags, with the search) as a handoff
-/// report in `format` (`md`, `csv`, `json`) into `folder`; returns the file written. The
-/// file is written crash-safely ([`write_atomically`]), so it is never half there.
-pub fn export(state: &AppState, format: &str, folder: &str) -> Result<PathBuf, StoreError> {
-    let folder = export_folder(state, folder)?;
+/// What the Log shows: the open tag's entries (or all tags' when asked, or when no tag is
+/// open), the search, and the start of the period; the error names `since` when the start
+/// cannot be read.
+pub fn shown_query(state: &AppState) -> Result<Query, FieldError> {
     let tag = if state.ui.log_all {
         None
     } else {
         state.open_tag_id()
     };
-    let q = query(tag, &state.ui.log_search);
+    let mut q = query(tag, &state.ui.log_search);
+    q.since = crate::journal::parse_since(&state.ui.log_since, state.now())?;
+    Ok(q)
+}
+
+/// Write what the Log shows ([`shown_query`]) as a handoff report in `format` (`md`,
+/// `csv`, `json`) into `folder`; returns the file written. The file is written
+/// crash-safely ([`write_atomically`]), so it is never half there.
+pub fn export(state: &AppState, format: &str, folder: &str) -> Result<PathBuf, StoreError> {
+    let folder = export_folder(state, folder)?;
+    let q = shown_query(state)?;
     let now = state.now();
     let bundle = report::select(state.store.as_ref(), &q, now);
     let text = match format {
@@ -232,12 +252,34 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     );
     adapter.set_all_tags(all);
     adapter.set_search_text(state.ui.log_search.clone().into());
-    let q = query(
-        if all { None } else { tag.map(|t| t.id.clone()) },
-        &state.ui.log_search,
-    );
+    adapter.set_since_text(state.ui.log_since.clone().into());
+    // A start that cannot be read is named under its field; the list then shows the
+    // whole period rather than nothing.
+    let q = match shown_query(state) {
+        Ok(q) => {
+            adapter.set_since_error("".into());
+            q
+        }
+        Err(e) => {
+            adapter.set_since_error(e.to_string().into());
+            query(
+                if all { None } else { tag.map(|t| t.id.clone()) },
+                &state.ui.log_search,
+            )
+        }
+    };
     let l = list(state.store.as_ref(), &q);
-    adapter.set_count_text(l.count_text.into());
+    let count = match q.since {
+        Some(since) => format!(
+            "{} since {}",
+            l.count_text,
+            since
+                .with_timezone(state.now().offset())
+                .format("%Y-%m-%d %H:%M")
+        ),
+        None => l.count_text,
+    };
+    adapter.set_count_text(count.into());
     adapter.set_rows(model(l.rows.iter().map(map_entry).collect()));
     if adapter.get_initials_text().is_empty() {
         adapter.set_initials_text(state.ui.initials.clone().into());

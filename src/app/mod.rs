@@ -408,8 +408,7 @@ pub fn load_or_demo(data_dir: PathBuf) -> Result<AppState, StoreError> {
 }
 
 /// Copy what is typed in fields that are not saved as they change (the tag form, the Log
-/// note, the Check reference, the initials, the report folder) into the state, so the next
-/// save keeps it.
+/// note, the Check reference, the initials) into the state, so the next save keeps it.
 pub fn collect(window: &AppWindow, state: &mut AppState) {
     let tags = window.global::<TagsAdapter>();
     state.ui.tag_draft = tags
@@ -417,14 +416,6 @@ pub fn collect(window: &AppWindow, state: &mut AppState) {
         .then(|| tags::draft_of(&tags.get_form(), tags.get_is_new()));
     let log = window.global::<LogAdapter>();
     state.ui.log_note = log.get_note_text().to_string();
-    state.ui.import_path = log.get_import_path().to_string();
-    let typed_dir = log.get_export_dir().to_string();
-    let shown_dir = log::export_folder(state, &state.ui.export_dir)
-        .map(|p| p.display().to_string())
-        .unwrap_or_default();
-    if typed_dir != shown_dir {
-        state.ui.export_dir = typed_dir;
-    }
     let check = window.global::<CheckAdapter>();
     state.ui.check.reference = check.get_reference_text().to_string();
     // Initials are typed on Log and on Check; the one that was changed is the one kept.

@@ -163,6 +163,9 @@ pub struct UiState {
     pub log_search: String,
     /// Log shows all tags.
     pub log_all: bool,
+    /// Log: the start of the period shown and handed over, as typed (`12 h`, `today`,
+    /// `2026-11-30 06:00`; empty: the whole log).
+    pub log_since: String,
     /// The screen to return to after a tag is picked.
     pub return_to: Option<String>,
     /// The technician's initials, kept for the next note or check.
@@ -193,6 +196,7 @@ impl Default for UiState {
             tag_search: String::new(),
             log_search: String::new(),
             log_all: false,
+            log_since: String::new(),
             return_to: None,
             initials: String::new(),
             check: CheckForm::default(),
