@@ -273,3 +273,70 @@ fn the_back_key_still_works_after_the_focused_field_has_gone() {
         "the back button returns to Convert"
     );
 }
+
+#[test]
+fn the_open_tags_sheet_sits_beside_the_list_on_a_wide_window() {
+    let app = app();
+    app.show_screen(Screen::Tags);
+    // LT-101 (demo): 0–4.5 m linear, a 24 V loop with a 250 Ω PLC input and 180 m of cable.
+    assert!(with_role(&app, "0 – 4.5 m, linear", AccessibleRole::Text).is_valid());
+    assert!(with_role(
+        &app,
+        "24 V supply, transmitter min 10.5 V, PLC input 250 Ω, cable 180 m 1 mm²",
+        AccessibleRole::Text
+    )
+    .is_valid());
+    // Opening another tag changes the sheet.
+    field(&app, "Search tags").set_accessible_value("204");
+    button(&app, "PT-204").invoke_accessible_default_action();
+    assert!(with_role(&app, "0 – 10 bar, linear", AccessibleRole::Text).is_valid());
+    // From the sheet straight to the tag's Power screen.
+    button(&app, "Power of PT-204").invoke_accessible_default_action();
+    assert_eq!(
+        app.window
+            .global::<loopside::app::AppAdapter>()
+            .get_screen(),
+        Screen::Power
+    );
+    assert_eq!(
+        app.window
+            .global::<loopside::app::PowerAdapter>()
+            .get_tag_title(),
+        "PT-204"
+    );
+}
+
+#[test]
+fn the_log_and_its_hand_over_start_when_the_technician_says() {
+    use slint::Model;
+    let app = app();
+    app.show_screen(Screen::Log);
+    button(&app, "All tags").invoke_accessible_default_action();
+    let log = app.window.global::<loopside::app::LogAdapter>();
+    let whens = |log: &loopside::app::LogAdapter| -> Vec<String> {
+        let rows = log.get_rows();
+        (0..rows.row_count())
+            .filter_map(|i| rows.row_data(i))
+            .map(|r| r.when.to_string())
+            .collect()
+    };
+    let everything = whens(&log);
+    assert!(everything.iter().any(|w| w.as_str() < "2026-11-30"));
+    // The demo log runs from late November; the shift being handed over began on the 30th.
+    field(&app, "Since").set_accessible_value("2026-11-30");
+    let since = whens(&log);
+    assert!(!since.is_empty() && since.len() < everything.len());
+    assert!(
+        since.iter().all(|w| w.as_str() >= "2026-11-30"),
+        "{since:?}"
+    );
+    assert!(
+        log.get_count_text().ends_with("since 2026-11-30 00:00"),
+        "{}",
+        log.get_count_text()
+    );
+    // What cannot be read is named, and the list falls back to the whole period.
+    field(&app, "Since").set_accessible_value("last week");
+    assert!(log.get_since_error().starts_with("since"));
+    assert_eq!(whens(&log).len(), everything.len());
+}
