@@ -361,3 +361,63 @@ fn a_half_typed_tag_a_note_and_the_reference_survive_a_restart() {
     drop(app);
     std::fs::remove_dir_all(&dir).unwrap();
 }
+
+#[test]
+fn a_plants_own_procedures_are_offered_on_find_fault() {
+    use loopside::app::FaultAdapter;
+    let dir = data_dir("procedures");
+    let folder = dir.join("procedures");
+    std::fs::create_dir_all(&folder).unwrap();
+    // The plant's own variant of the noisy-reading procedure (same steps, its own words),
+    // and a file that is not a procedure at all.
+    let mut own: serde_json::Value = serde_json::from_str(
+        &std::fs::read_to_string(concat!(
+            env!("CARGO_MANIFEST_DIR"),
+            "/procedures/noisy.json"
+        ))
+        .unwrap(),
+    )
+    .unwrap();
+    own["id"] = "mixer-noise".into();
+    own["symptom"] = "mixer-noise".into();
+    own["title"] = "Level jumps while the mixer runs".into();
+    std::fs::write(folder.join("mixer-noise.json"), own.to_string()).unwrap();
+    std::fs::write(folder.join("draft.json"), "{ \"format\": 1 }").unwrap();
+    {
+        let app = app_over(load_or_demo(dir.clone()).unwrap());
+        let fault = app.window.global::<FaultAdapter>();
+        let symptoms = fault.get_symptoms();
+        let titles: Vec<String> = (0..symptoms.row_count())
+            .filter_map(|i| symptoms.row_data(i))
+            .map(|s| s.title.to_string())
+            .collect();
+        assert_eq!(titles[0], "Level jumps while the mixer runs");
+        assert_eq!(titles.len(), 8, "the plant's one, then the seven built in");
+        assert!(
+            fault
+                .get_procedure_problems()
+                .contains("draft.json is not offered"),
+            "{}",
+            fault.get_procedure_problems()
+        );
+        fault.invoke_read_cautions();
+        fault.invoke_pick_symptom(0);
+        assert!(fault.get_running());
+        assert_eq!(
+            fault.get_procedure_title(),
+            "Level jumps while the mixer runs"
+        );
+        app.save_now().unwrap();
+    }
+    // The unfinished session on the plant's procedure resumes after a restart.
+    let app = app_over(load_or_demo(dir.clone()).unwrap());
+    let fault = app.window.global::<FaultAdapter>();
+    assert!(fault.get_running());
+    assert_eq!(
+        fault.get_procedure_title(),
+        "Level jumps while the mixer runs"
+    );
+    drop(fault);
+    drop(app);
+    std::fs::remove_dir_all(&dir).unwrap();
+}

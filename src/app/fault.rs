@@ -19,13 +19,64 @@ use crate::view::fault::{self as fv, Inputs};
 use slint::{ComponentHandle, Model};
 use std::sync::OnceLock;
 
+/// The sub-folder of the data folder that holds a plant's own procedures.
+pub const PROCEDURES_DIR: &str = "procedures";
+
 /// The built-in procedures, read and checked once.
-fn procedures() -> Result<&'static [Procedure]> {
+fn builtin() -> Result<&'static [Procedure]> {
     static BUILTIN: OnceLock<std::result::Result<Vec<Procedure>, FieldError>> = OnceLock::new();
     BUILTIN
         .get_or_init(procedure::builtin)
         .as_deref()
         .map_err(Clone::clone)
+}
+
+/// Every procedure the app offers, in menu order: the plant's own first, then the
+/// built-in ones (a plant file with a built-in's id takes its place).
+fn procedures(state: &AppState) -> Result<Vec<Procedure>> {
+    let plant = &state.plant_procedures;
+    let mut all = plant.clone();
+    all.extend(
+        builtin()?
+            .iter()
+            .filter(|b| !plant.iter().any(|p| p.id == b.id))
+            .cloned(),
+    );
+    Ok(all)
+}
+
+/// Read a plant's procedures: every `*.json` file in `folder`, in file-name order, each
+/// checked as the built-in ones are. A file that cannot be read or fails a check is left
+/// out and named in the second list, with why. A missing folder is no procedures.
+pub fn plant_procedures(folder: &std::path::Path) -> (Vec<Procedure>, Vec<String>) {
+    let Ok(dir) = std::fs::read_dir(folder) else {
+        return (Vec::new(), Vec::new());
+    };
+    let mut files: Vec<std::path::PathBuf> = dir
+        .filter_map(|e| e.ok().map(|e| e.path()))
+        .filter(|p| p.extension().is_some_and(|x| x == "json"))
+        .collect();
+    files.sort();
+    let mut found: Vec<Procedure> = Vec::new();
+    let mut problems = Vec::new();
+    for path in files {
+        let read = std::fs::read_to_string(&path)
+            .map_err(|e| e.to_string())
+            .and_then(|text| Procedure::from_json(&text).map_err(|e| e.to_string()));
+        match read {
+            Ok(p) if found.iter().any(|f| f.id == p.id) => problems.push(format!(
+                "Procedure file {} is not offered: another file already has the id '{}'.",
+                path.display(),
+                p.id
+            )),
+            Ok(p) => found.push(p),
+            Err(why) => problems.push(format!(
+                "Procedure file {} is not offered: {why}.",
+                path.display()
+            )),
+        }
+    }
+    (found, problems)
 }
 
 /// A session under way, read back from the saved state, with its procedure and tag.
@@ -50,14 +101,16 @@ pub fn current(state: &AppState) -> Result<Option<Run>> {
     let Some(json) = &f.session else {
         return Ok(None);
     };
-    let procedure = procedures()?
-        .iter()
+    let procedure = procedures(state)?
+        .into_iter()
         .find(|p| p.id == f.procedure)
-        .cloned()
         .ok_or_else(|| {
             FieldError::new(
                 "session",
-                format!("runs procedure '{}', which is not built in", f.procedure),
+                format!(
+                    "runs procedure '{}', which is neither built in nor in the data folder's {PROCEDURES_DIR}/",
+                    f.procedure
+                ),
             )
         })?;
     let session = Session::resume(json, &procedure)?;
@@ -98,9 +151,9 @@ pub fn start(state: &mut AppState, index: usize) -> Result<()> {
         .open_tag()
         .cloned()
         .ok_or_else(|| FieldError::new("tag", "none is open; open a tag on Tags first"))?;
-    let procedure = procedures()?
-        .get(index)
-        .cloned()
+    let procedure = procedures(state)?
+        .into_iter()
+        .nth(index)
         .ok_or_else(|| FieldError::new("symptom", "is not on the list; choose one shown"))?;
     let run = Run {
         session: Session::start(&procedure, &tag),
@@ -352,9 +405,10 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
             .collect(),
     ));
     a.set_cautions_read(f.cautions_read);
+    a.set_procedure_problems(state.procedure_problems.join(" ").into());
     a.set_symptoms(model(
-        procedures()
-            .map(fv::symptoms)
+        procedures(state)
+            .map(|all| fv::symptoms(&all))
             .unwrap_or_default()
             .into_iter()
             .map(|s| super::FaultSymptom {

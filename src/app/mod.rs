@@ -51,6 +51,12 @@ pub struct AppState {
     pub export_dir: Option<PathBuf>,
     /// What opening the store had to repair, in words (shown once on Log).
     pub notices: Vec<String>,
+    /// The plant's own fault-finding procedures (JSON files in the data folder's
+    /// `procedures/`), offered on Find fault before the built-in ones.
+    pub plant_procedures: Vec<crate::diagnose::procedure::Procedure>,
+    /// Procedure files in `procedures/` that are not offered, and why (shown on Find
+    /// fault).
+    pub procedure_problems: Vec<String>,
     /// Screens visited, for the back button.
     pub history: Vec<Screen>,
 }
@@ -91,6 +97,8 @@ impl AppState {
             data_dir: None,
             export_dir: None,
             notices: Vec::new(),
+            plant_procedures: Vec::new(),
+            procedure_problems: Vec::new(),
             history: Vec::new(),
         }
     }
@@ -399,6 +407,9 @@ pub fn load_or_demo(data_dir: PathBuf) -> Result<AppState, StoreError> {
     state.ui = ui;
     state.demo = demo;
     state.notices = notices;
+    let (plant, problems) = fault::plant_procedures(&data_dir.join(fault::PROCEDURES_DIR));
+    state.plant_procedures = plant;
+    state.procedure_problems = problems;
     if state.open_tag().is_none() {
         let first = state.tags().next().map(|t| t.number.clone());
         state.ui.open_tag = first;
