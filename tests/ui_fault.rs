@@ -308,3 +308,27 @@ fn a_saved_session_that_cannot_be_read_is_reported() {
     assert!(a.get_running());
     assert_eq!(a.get_step_number(), 1);
 }
+
+#[test]
+fn a_coarser_meter_widens_the_allowance_of_the_next_session() {
+    let app = app_with(AppState::demo());
+    let fault = app.window.global::<FaultAdapter>();
+    fault.invoke_read_cautions();
+    // A bad allowance is named with its range, and nothing starts.
+    fault.invoke_meter_edited("9".into());
+    fault.invoke_pick_symptom(0);
+    assert!(!fault.get_running());
+    assert_eq!(fault.get_error_field(), "meter tolerance");
+    assert!(
+        fault.get_error_text().contains("5"),
+        "{}",
+        fault.get_error_text()
+    );
+    // An older analogue meter read to ±0.2 mA: the session carries that allowance.
+    fault.invoke_meter_edited("0,2".into());
+    fault.invoke_pick_symptom(0);
+    assert!(fault.get_running());
+    let json = app.state.borrow().ui.fault.session.clone().unwrap();
+    let session: serde_json::Value = serde_json::from_str(&json).unwrap();
+    assert_eq!(session["settings"]["meter_tolerance_ma"], 0.2);
+}

@@ -10,9 +10,10 @@
 
 use super::state::FaultState;
 use super::{model, AppState, AppWindow, FaultAdapter, Shared};
-use crate::diagnose::{procedure, Answer, Measurement, Procedure, Progress, Session};
+use crate::diagnose::{procedure, Answer, Measurement, Procedure, Progress, Session, Settings};
 use crate::error::{FieldError, Result};
 use crate::journal::{Entry, EntryId, Kind};
+use crate::number::parse_in;
 use crate::store::StoreError;
 use crate::tag::Tag;
 use crate::view::fault::{self as fv, Inputs};
@@ -145,6 +146,18 @@ fn typed(f: &FaultState) -> Inputs {
         .collect()
 }
 
+/// The settings a new session runs with: the meter allowance as typed, else the default.
+/// The error names `meter tolerance` and its range.
+pub fn settings(f: &FaultState) -> Result<Settings> {
+    let mut s = Settings::default();
+    let typed = f.meter_tolerance.trim();
+    if !typed.is_empty() {
+        s.meter_tolerance_ma = parse_in("meter tolerance", typed, "mA")?;
+        s.validate().map_err(|e| e.renamed("meter tolerance"))?;
+    }
+    Ok(s)
+}
+
 /// Start the procedure for symptom `index` (in menu order) on the open tag.
 pub fn start(state: &mut AppState, index: usize) -> Result<()> {
     let tag = state
@@ -156,7 +169,7 @@ pub fn start(state: &mut AppState, index: usize) -> Result<()> {
         .nth(index)
         .ok_or_else(|| FieldError::new("symptom", "is not on the list; choose one shown"))?;
     let run = Run {
-        session: Session::start(&procedure, &tag),
+        session: Session::start_with(&procedure, &tag, settings(&state.ui.fault)?),
         procedure,
         tag,
     };
@@ -302,6 +315,10 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         st.borrow_mut().ui.fault.technician = text.to_string();
     });
     let st = state.clone();
+    a.on_meter_edited(move |text| {
+        st.borrow_mut().ui.fault.meter_tolerance = text.to_string();
+    });
+    let st = state.clone();
     a.on_initials_edited(move |text| {
         st.borrow_mut().ui.initials = text.to_string();
     });
@@ -343,10 +360,14 @@ fn after(window: &AppWindow, state: &Shared, result: Result<()>) {
     match result {
         Ok(()) => {
             a.set_error_text("".into());
+            a.set_error_field("".into());
             a.set_message("".into());
             refresh(window, &state.borrow());
         }
-        Err(e) => a.set_error_text(e.to_string().into()),
+        Err(e) => {
+            a.set_error_field(e.field.clone().into());
+            a.set_error_text(e.to_string().into());
+        }
     }
 }
 
@@ -418,6 +439,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
             .collect(),
     ));
     a.set_technician_text(f.technician.clone().into());
+    a.set_meter_text(f.meter_tolerance.clone().into());
     a.set_initials_text(state.ui.initials.clone().into());
     let run = current(state).ok().flatten();
     let Some(run) = run else {

@@ -264,6 +264,9 @@ pub struct FaultState {
     pub inputs: std::collections::BTreeMap<String, String>,
     /// The technician's own conclusion, as typed.
     pub technician: String,
+    /// Allowance between two mA readings for the next session, mA, as typed (empty: the
+    /// default, which suits a handheld meter on its mA range).
+    pub meter_tolerance: String,
 }
 
 #[cfg(test)]
