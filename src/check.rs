@@ -311,13 +311,14 @@ pub struct CheckResult {
 /// ```
 /// use loopside::check::{Device, LoopCheck};
 /// use loopside::scale::Scale;
-/// let scale = Scale::linear(0.0, 4.5, "m").unwrap();
-/// let date = chrono::NaiveDate::from_ymd_opt(2026, 12, 1).unwrap();
+/// # fn main() -> Result<(), Box<dyn std::error::Error>> {
+/// let scale = Scale::linear(0.0, 4.5, "m")?;
+/// let date = chrono::NaiveDate::from_ymd_opt(2026, 12, 1).ok_or("no such date")?;
 /// let check = LoopCheck::new(&scale, Device::Transmitter, date).tolerance(0.5);
-/// let result = check
-///     .run_planned(&[4.0, 8.0, 12.0, 16.0, 20.0, 16.0, 12.0, 8.0, 4.0])
-///     .unwrap();
+/// let result = check.run_planned(&[4.0, 8.0, 12.0, 16.0, 20.0, 16.0, 12.0, 8.0, 4.0])?;
 /// assert!(result.pass);
+/// # Ok(())
+/// # }
 /// ```
 #[derive(Debug, Clone, PartialEq)]
 pub struct LoopCheck {

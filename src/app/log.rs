@@ -168,14 +168,19 @@ fn export_folder(state: &AppState, typed: &str) -> Result<PathBuf, FieldError> {
 /// open), the search, and the start of the period; the error names `since` when the start
 /// cannot be read.
 pub fn shown_query(state: &AppState) -> Result<Query, FieldError> {
+    let mut q = whole_period_query(state);
+    q.since = crate::journal::parse_since(&state.ui.log_since, state.now())?;
+    Ok(q)
+}
+
+/// [`shown_query`] without the start of the period.
+fn whole_period_query(state: &AppState) -> Query {
     let tag = if state.ui.log_all {
         None
     } else {
         state.open_tag_id()
     };
-    let mut q = query(tag, &state.ui.log_search);
-    q.since = crate::journal::parse_since(&state.ui.log_since, state.now())?;
-    Ok(q)
+    query(tag, &state.ui.log_search)
 }
 
 /// Write what the Log shows ([`shown_query`]) as a handoff report in `format` (`md`,
@@ -262,10 +267,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
         }
         Err(e) => {
             adapter.set_since_error(e.to_string().into());
-            query(
-                if all { None } else { tag.map(|t| t.id.clone()) },
-                &state.ui.log_search,
-            )
+            whole_period_query(state)
         }
     };
     let l = list(state.store.as_ref(), &q);

@@ -25,7 +25,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     adapter.on_search(move |text| {
         let Some(w) = weak.upgrade() else { return };
         st.borrow_mut().ui.tag_search = text.to_string();
-        refresh(&w, &st.borrow());
+        refresh_list(&w, &st.borrow());
     });
     let weak = window.as_weak();
     let st = state.clone();
@@ -216,11 +216,12 @@ pub fn empty_form() -> super::TagForm {
 /// The form filled from a tag.
 pub fn form_of(tag: &Tag) -> super::TagForm {
     let transfer = transfer_text(&tag.scale.transfer);
-    let loop_part = match &tag.loop_config {
+    let mut loop_part = match &tag.loop_config {
         Some(c) => super::power::form_from(&tag.number, c),
         None => PowerForm::default(),
     };
-    let mut f = with_loop(
+    loop_part.hart = tag.hart;
+    with_loop(
         super::TagForm {
             number: tag.number.clone().into(),
             service: tag.service.clone().into(),
@@ -233,9 +234,7 @@ pub fn form_of(tag: &Tag) -> super::TagForm {
             ..Default::default()
         },
         &loop_part,
-    );
-    f.hart = tag.hart;
-    f
+    )
 }
 
 /// The form as typed, to be saved with the screen state.
@@ -445,8 +444,15 @@ pub fn matches(tag: &Tag, search: &str) -> bool {
             .any(|f| f.to_lowercase().contains(&q))
 }
 
-/// Copy the (filtered) register into the adapter.
+/// Copy the (filtered) register and the open tag's sheet into the adapter.
 pub fn refresh(window: &AppWindow, state: &AppState) {
+    refresh_list(window, state);
+    map_sheet(&window.global::<TagsAdapter>(), state);
+}
+
+/// Copy the (filtered) register into the adapter; the sheet does not depend on the search,
+/// so typing in the search box does not work it out again.
+fn refresh_list(window: &AppWindow, state: &AppState) {
     let adapter = window.global::<TagsAdapter>();
     let last = last_entries(state);
     let rows: Vec<super::TagRow> = state
@@ -465,7 +471,6 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     adapter.set_rows(model(rows));
     adapter.set_search_text(state.ui.tag_search.clone().into());
     adapter.set_open_tag(state.ui.open_tag.clone().unwrap_or_default().into());
-    map_sheet(&adapter, state);
 }
 
 /// The open tag's sheet into the adapter (empty when no tag is open).

@@ -12,14 +12,17 @@
 //! ```
 //! use loopside::diagnose::{procedure, session::{Answer, Progress, Session}, measure::Measurement};
 //! use loopside::{scale::Scale, tag::Tag};
-//! let tag = Tag::new("PT-204", Scale::linear(0.0, 10.0, "bar").unwrap()).unwrap();
-//! let p = procedure::find("stuck-low", &[]).unwrap();
+//! # fn main() -> Result<(), Box<dyn std::error::Error>> {
+//! let tag = Tag::new("PT-204", Scale::linear(0.0, 10.0, "bar")?)?;
+//! let p = procedure::find("stuck-low", &[])?;
 //! let mut s = Session::start(&p, &tag);
 //! assert_eq!(s.pending(&p), vec![Measurement::TxMa]);
 //! let values = [(Measurement::TxMa, 0.0)].into_iter().collect();
-//! let next = s.answer(&p, &tag, Answer::Values(values)).unwrap();
+//! let next = s.answer(&p, &tag, Answer::Values(values))?;
 //! assert!(matches!(next, Progress::Next(_)));
 //! assert_eq!(s.findings()[0].code, "band-no-loop-current");
+//! # Ok(())
+//! # }
 //! ```
 
 pub mod evaluate;

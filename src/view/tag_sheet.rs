@@ -8,7 +8,7 @@ use crate::scale::Transfer;
 use crate::sensor::Sensor;
 use crate::store::{Store, TagRecord};
 use crate::tag::Tag;
-use crate::view::log::{row, Row, RowKind};
+use crate::view::log::{row, row_kind, Row, RowKind};
 use crate::view::plain;
 
 /// How many of the tag's newest entries the sheet lists.
@@ -156,8 +156,8 @@ pub fn sheet(store: &dyn Store, record: &TagRecord) -> TagSheet {
     let mine: Vec<&Entry> = entries.iter().filter(|e| e.tag == record.id).collect();
     let open: Vec<Row> = mine
         .iter()
+        .filter(|e| row_kind(e, &closed) == RowKind::OpenFollowUp)
         .map(|e| row(store, e, &closed))
-        .filter(|r| r.kind == RowKind::OpenFollowUp)
         .collect();
     let recent: Vec<Row> = mine
         .iter()
