@@ -51,7 +51,7 @@ pub fn height_m_from_pa(sg: f64, pa: f64) -> Result<f64> {
 /// `mbar`, …).
 pub fn head_in(sg: f64, height_m: f64, unit: &str) -> Result<f64> {
     let pa = head_pa(sg, height_m)?;
-    units::convert(pa, "Pa", unit).map_err(|e| e.renamed("unit"))
+    units::difference_from_pa(pa, unit, "unit")
 }
 
 /// How the DP transmitter is connected to the vessel (see the module notes for where each
@@ -175,11 +175,11 @@ impl ZeroShift {
             ZeroShift::None => "zero-based (LRV = 0)".to_string(),
             ZeroShift::Elevated { by_pa } => format!(
                 "elevated zero by {} {unit} (LRV below 0)",
-                show_2(units::convert(*by_pa, "Pa", unit).map_err(|e| e.renamed("unit"))?)
+                show_2(units::difference_from_pa(*by_pa, unit, "unit")?)
             ),
             ZeroShift::Suppressed { by_pa } => format!(
                 "suppressed zero by {} {unit} (LRV above 0)",
-                show_2(units::convert(*by_pa, "Pa", unit).map_err(|e| e.renamed("unit"))?)
+                show_2(units::difference_from_pa(*by_pa, unit, "unit")?)
             ),
         })
     }
@@ -201,7 +201,7 @@ pub struct LevelRanging {
 impl LevelRanging {
     /// (LRV, URV, span) in a pressure unit of the units module.
     pub fn in_unit(&self, unit: &str) -> Result<(f64, f64, f64)> {
-        let to = |pa: f64| units::convert(pa, "Pa", unit).map_err(|e| e.renamed("unit"));
+        let to = |pa: f64| units::difference_from_pa(pa, unit, "unit");
         Ok((to(self.lrv_pa)?, to(self.urv_pa)?, to(self.span_pa)?))
     }
 }

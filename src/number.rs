@@ -60,7 +60,10 @@ pub fn parse_quantity(field: &str, text: &str) -> Result<(f64, Option<&'static U
 /// Read a number that may carry a unit suffix, and express it in `unit`.
 ///
 /// `parse_in("load", "0,25 kohm", "Ω")` gives 250. Without a suffix the number is taken
-/// to be in `unit` already. A suffix of another quantity is an error naming the field.
+/// to be in `unit` already. A suffix of another quantity is an error naming the field, and
+/// so is a gauge value typed into an absolute field or the reverse (`2 barg` where the
+/// range is in `bara`): a field has no atmosphere to add, so it asks for the field's own
+/// reference rather than assume the standard atmosphere.
 pub fn parse_in(field: &str, text: &str, unit: &str) -> Result<f64> {
     let (value, typed_unit) = parse_quantity(field, text)?;
     match typed_unit {
@@ -68,6 +71,19 @@ pub fn parse_in(field: &str, text: &str, unit: &str) -> Result<f64> {
         Some(typed) => {
             let target = units::lookup(unit)
                 .ok_or_else(|| FieldError::new(field, format!("unknown unit '{unit}'")))?;
+            if units::crosses_reference(typed, target) {
+                return Err(FieldError::new(
+                    field,
+                    format!(
+                        "{} is {} and this field is in {} ({}); type the value in {} or convert it first with the unit converter, which asks for the local atmosphere",
+                        typed.symbol,
+                        typed.reference.name(),
+                        target.symbol,
+                        target.reference.name(),
+                        target.symbol
+                    ),
+                ));
+            }
             units::convert_units(value, typed, target).map_err(|e| e.renamed(field))
         }
     }

@@ -13,6 +13,21 @@ pub const STANDARD_GRAVITY: f64 = 9.80665;
 /// Conventional density of water used by the "conventional" water-column units, kg/m³
 /// (NIST SP 811 B.8: mmH2O conventional = 9.806 65 Pa, i.e. 1000 kg/m³ × g_n × 1 mm).
 pub const WATER_DENSITY_KG_M3: f64 = 1000.0;
+/// Density of pure, air-free water at 20 °C (68 °F) and 101.325 kPa, kg/m³: 998.2071, from
+/// the CRC Handbook of Chemistry and Physics table "Properties of water in the range
+/// 0–100 °C" (Kell's 1975 formulation, ITS-90). It is the density behind the water-column
+/// units "at 20 °C / 68 °F" that many transmitters are ranged in.
+pub const WATER_DENSITY_20C_KG_M3: f64 = 998.2071;
+/// The standard atmosphere, Pa: 101 325 exactly (NIST SP 811 B.8; ISO 2533). loopside adds
+/// or subtracts it between gauge and absolute pressure unless the technician gives the
+/// local atmospheric pressure.
+pub const STANDARD_ATMOSPHERE_PA: f64 = 101_325.0;
+/// Lowest local atmospheric pressure accepted, Pa: about the pressure 9 km up (ISO 2533),
+/// higher than any plant stands.
+pub const ATMOSPHERE_MIN_PA: f64 = 30_000.0;
+/// Highest local atmospheric pressure accepted, Pa: above the highest sea-level pressure
+/// on record (about 108.4 kPa, from memory) and the lowest dry land's (about 106.7 kPa).
+pub const ATMOSPHERE_MAX_PA: f64 = 110_000.0;
 
 /// The physical quantity a unit measures; only units of the same quantity convert.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, serde::Serialize, serde::Deserialize)]
@@ -58,6 +73,34 @@ impl Quantity {
     }
 }
 
+/// What zero a pressure unit counts from.
+///
+/// `barg` counts from the atmosphere around the transmitter, `bara` from vacuum; the two
+/// differ by the atmospheric pressure, not by a factor. A plain `bar`, `kPa` or `inH2O`
+/// says neither: it is a differential pressure (across a DP cell), or a pressure whose
+/// reference the tag does not state. Units of other quantities are always `Plain`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, serde::Serialize, serde::Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum PressureRef {
+    /// No reference stated: a differential pressure, or any non-pressure unit.
+    Plain,
+    /// Gauge: above (or below) the local atmosphere.
+    Gauge,
+    /// Absolute: above a perfect vacuum.
+    Absolute,
+}
+
+impl PressureRef {
+    /// The plain word, for messages.
+    pub fn name(self) -> &'static str {
+        match self {
+            PressureRef::Plain => "without a stated reference",
+            PressureRef::Gauge => "gauge",
+            PressureRef::Absolute => "absolute",
+        }
+    }
+}
+
 /// One known unit: its display symbol, what it measures and how it maps to SI
 /// (`si = value × factor + offset`).
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -72,6 +115,11 @@ pub struct Unit {
     pub offset: f64,
     /// Other spellings a technician may type (matched without regard to case).
     pub aliases: &'static [&'static str],
+    /// For a pressure unit: gauge, absolute, or neither.
+    pub reference: PressureRef,
+    /// What the symbol alone does not say, e.g. `inch of water at 39.2 °F (4 °C)`; empty
+    /// when the symbol says it all.
+    pub note: &'static str,
 }
 
 impl Unit {
@@ -98,6 +146,48 @@ const fn u(
         factor,
         offset: 0.0,
         aliases,
+        reference: PressureRef::Plain,
+        note: "",
+    }
+}
+
+/// A pressure unit that states its reference (gauge or absolute).
+const fn p(
+    symbol: &'static str,
+    factor: f64,
+    reference: PressureRef,
+    aliases: &'static [&'static str],
+) -> Unit {
+    Unit {
+        symbol,
+        quantity: Quantity::Pressure,
+        factor,
+        offset: 0.0,
+        aliases,
+        reference,
+        note: match reference {
+            PressureRef::Gauge => "gauge: counted from the local atmosphere",
+            PressureRef::Absolute => "absolute: counted from vacuum",
+            PressureRef::Plain => "",
+        },
+    }
+}
+
+/// A water- or mercury-column unit, with the condition its factor belongs to.
+const fn column(
+    symbol: &'static str,
+    factor: f64,
+    note: &'static str,
+    aliases: &'static [&'static str],
+) -> Unit {
+    Unit {
+        symbol,
+        quantity: Quantity::Pressure,
+        factor,
+        offset: 0.0,
+        aliases,
+        reference: PressureRef::Plain,
+        note,
     }
 }
 
@@ -112,31 +202,76 @@ const US_GALLON_M3: f64 = 3.785_411_784e-3;
 const IMP_GALLON_M3: f64 = 4.546_09e-3;
 /// Cubic foot, m³ (NIST SP 811 B.8: 2.831 685 E-02, exact 0.3048³).
 const CUBIC_FOOT_M3: f64 = 0.028_316_846_592;
+/// Pound-force per square inch, Pa (NIST SP 811 B.8: 6.894 757 E+03; exact value
+/// 4.448 221 615 260 5 N / 0.0254² m²).
+const PSI_PA: f64 = 6_894.757_293_168_361;
 /// Avoirdupois pound, kg (NIST SP 811 B.8: 4.535 924 E-01, exact 0.453 592 37).
 const POUND_KG: f64 = 0.453_592_37;
 
 /// Every unit loopside converts. Order matters only for display lists.
 pub static UNITS: &[Unit] = &[
-    // Pressure — NIST SP 811 (2008) Appendix B.8 factors.
+    // Pressure — NIST SP 811 (2008) Appendix B.8 factors. A plain unit states no
+    // reference (a differential pressure, or one the tag does not mark); the g and a
+    // units are gauge and absolute and differ from each other by the atmosphere.
     u("Pa", Pressure, 1.0, &["pascal"]),
     u("kPa", Pressure, 1.0e3, &[]),
+    p(
+        "kPa(g)",
+        1.0e3,
+        PressureRef::Gauge,
+        &["kpag", "kpa g", "kpa(g)"],
+    ),
+    p(
+        "kPa(a)",
+        1.0e3,
+        PressureRef::Absolute,
+        &["kpaa", "kpa a", "kpa(a)", "kpa abs"],
+    ),
     u("MPa", Pressure, 1.0e6, &[]),
-    u("bar", Pressure, 1.0e5, &["barg", "bara"]),
-    u("mbar", Pressure, 1.0e2, &["mbarg", "mbara"]),
+    p(
+        "MPa(g)",
+        1.0e6,
+        PressureRef::Gauge,
+        &["mpag", "mpa g", "mpa(g)"],
+    ),
+    p(
+        "MPa(a)",
+        1.0e6,
+        PressureRef::Absolute,
+        &["mpaa", "mpa a", "mpa(a)", "mpa abs"],
+    ),
+    u("bar", Pressure, 1.0e5, &[]),
+    p("barg", 1.0e5, PressureRef::Gauge, &["bar g", "bar(g)"]),
+    p(
+        "bara",
+        1.0e5,
+        PressureRef::Absolute,
+        &["bar a", "bar(a)", "bar abs"],
+    ),
+    u("mbar", Pressure, 1.0e2, &[]),
+    p("mbarg", 1.0e2, PressureRef::Gauge, &["mbar g", "mbar(g)"]),
+    p(
+        "mbara",
+        1.0e2,
+        PressureRef::Absolute,
+        &["mbar a", "mbar(a)", "mbar abs"],
+    ),
     // psi: 6.894 757 E+03 Pa (exact value 4.448 221 615 260 5 N / 0.0254² m²).
-    u(
-        "psi",
-        Pressure,
-        6_894.757_293_168_361,
-        &["psig", "psia", "lbf/in2"],
+    u("psi", Pressure, PSI_PA, &["lbf/in2"]),
+    p("psig", PSI_PA, PressureRef::Gauge, &["psi g", "psi(g)"]),
+    p(
+        "psia",
+        PSI_PA,
+        PressureRef::Absolute,
+        &["psi a", "psi(a)", "psi abs"],
     ),
     // Standard atmosphere: 1.013 25 E+05 Pa (exact).
-    u("atm", Pressure, 101_325.0, &[]),
+    u("atm", Pressure, STANDARD_ATMOSPHERE_PA, &[]),
     // Inch of water at 39.2 °F (4 °C): 2.490 82 E+02 Pa.
-    u(
+    column(
         "inH2O",
-        Pressure,
         249.082,
+        "inch of water at 39.2 °F (4 °C)",
         &[
             "inwc",
             "in h2o",
@@ -148,24 +283,81 @@ pub static UNITS: &[Unit] = &[
         ],
     ),
     // Inch of water at 60 °F: 2.4884 E+02 Pa.
-    u("inH2O@60F", Pressure, 248.84, &["inh2o_60f", "inh2o(60f)"]),
+    column(
+        "inH2O@60F",
+        248.84,
+        "inch of water at 60 °F (15.6 °C)",
+        &["inh2o_60f", "inh2o(60f)"],
+    ),
+    // Inch of water at 68 °F (20 °C): 25.4 mm × 998.2071 kg/m³ × 9.806 65 m/s² = 248.642 Pa
+    // (density: CRC Handbook, see WATER_DENSITY_20C_KG_M3).
+    column(
+        "inH2O@20C",
+        INCH_M * WATER_DENSITY_20C_KG_M3 * STANDARD_GRAVITY,
+        "inch of water at 68 °F (20 °C)",
+        &[
+            "inh2o@68f",
+            "inh2o_20c",
+            "inh2o_68f",
+            "inh2o(20c)",
+            "inh2o(68f)",
+        ],
+    ),
     // Inch of water, conventional: 25.4 mm × 9.806 65 Pa/mm = 249.0889 Pa.
-    u(
+    column(
         "inH2O(conv)",
-        Pressure,
         249.088_91,
+        "inch of water, conventional (1000 kg/m³, standard gravity)",
         &["inh2o_conv", "inh2o@conv"],
     ),
     // Millimetre of water, conventional: 9.806 65 Pa.
-    u("mmH2O", Pressure, 9.806_65, &["mmwc", "mmh2o@conv", "mmwg"]),
+    column(
+        "mmH2O",
+        9.806_65,
+        "millimetre of water, conventional (1000 kg/m³, standard gravity)",
+        &["mmwc", "mmh2o@conv", "mmwg"],
+    ),
+    // Millimetre of water at 68 °F (20 °C): 1 mm × 998.2071 kg/m³ × 9.806 65 m/s² = 9.789 Pa.
+    column(
+        "mmH2O@20C",
+        1.0e-3 * WATER_DENSITY_20C_KG_M3 * STANDARD_GRAVITY,
+        "millimetre of water at 68 °F (20 °C)",
+        &[
+            "mmh2o@68f",
+            "mmh2o_20c",
+            "mmh2o_68f",
+            "mmh2o(20c)",
+            "mmh2o(68f)",
+        ],
+    ),
     // Metre of water, conventional: 9.806 65 E+03 Pa.
-    u("mH2O", Pressure, 9_806.65, &["mwc"]),
+    column(
+        "mH2O",
+        9_806.65,
+        "metre of water, conventional (1000 kg/m³, standard gravity)",
+        &["mwc"],
+    ),
     // Foot of water at 39.2 °F: 2.988 98 E+03 Pa.
-    u("ftH2O", Pressure, 2_988.98, &["ftwc", "fth2o@4c"]),
+    column(
+        "ftH2O",
+        2_988.98,
+        "foot of water at 39.2 °F (4 °C)",
+        &["ftwc", "fth2o@4c"],
+    ),
     // Inch of mercury at 32 °F: 3.386 38 E+03 Pa.
-    u("inHg", Pressure, 3_386.38, &["inhg@32f"]),
+    column(
+        "inHg",
+        3_386.38,
+        "inch of mercury at 32 °F (0 °C)",
+        &["inhg@32f"],
+    ),
     // Millimetre of mercury, conventional: 1.333 224 E+02 Pa.
-    u("mmHg", Pressure, 133.322_4, &["torr"]),
+    column(
+        "mmHg",
+        133.322_4,
+        "millimetre of mercury, conventional",
+        &["torr"],
+    ),
     // Kilogram-force per square centimetre: 9.806 65 E+04 Pa (exact).
     u(
         "kgf/cm²",
@@ -237,6 +429,8 @@ pub static UNITS: &[Unit] = &[
         factor: 1.0,
         offset: 273.15,
         aliases: &["c", "degc", "deg c", "celsius", "ºc"],
+        reference: PressureRef::Plain,
+        note: "",
     },
     // °F: K = (°F + 459.67) × 5/9 (NIST SP 811 B.9, exact).
     Unit {
@@ -245,6 +439,8 @@ pub static UNITS: &[Unit] = &[
         factor: 5.0 / 9.0,
         offset: 459.67 * 5.0 / 9.0,
         aliases: &["f", "degf", "deg f", "fahrenheit", "ºf"],
+        reference: PressureRef::Plain,
+        note: "",
     },
     u("K", Temperature, 1.0, &["kelvin"]),
 ];
@@ -303,19 +499,147 @@ impl EngUnit {
     }
 }
 
-/// Convert `value` from one unit to another of the same quantity.
+/// Convert `value` from one unit to another of the same quantity, with the standard
+/// atmosphere between gauge and absolute pressure.
 ///
 /// Errors name the field `from` or `to` when a unit is unknown, and `to` when the two
 /// units measure different things (bar to m³/h) — loopside never guesses a density.
 pub fn convert(value: f64, from: &str, to: &str) -> Result<f64> {
     crate::error::finite("value", value)?;
-    let from_unit = lookup(from).ok_or_else(|| unknown("from", from))?;
-    let to_unit = lookup(to).ok_or_else(|| unknown("to", to))?;
+    let from_unit = lookup(from).ok_or_else(|| unknown_unit("from", from))?;
+    let to_unit = lookup(to).ok_or_else(|| unknown_unit("to", to))?;
     convert_units(value, from_unit, to_unit)
 }
 
 /// Convert between two known units; errors if they measure different quantities.
+///
+/// Between a gauge and an absolute pressure unit the standard atmosphere (101.325 kPa) is
+/// added or subtracted; use [`convert_units_at`] to give the local one. A pressure unit
+/// that states no reference (`bar`, `kPa`, `inH2O`) does not convert to or from one that
+/// does (`barg`, `psia`): which zero it counts from is unknown, and a guess is wrong by
+/// one atmosphere. The error names the plain unit's side (`from` or `to`) and asks for
+/// the `g` or `a` unit.
 pub fn convert_units(value: f64, from: &Unit, to: &Unit) -> Result<f64> {
+    convert_units_at(value, from, to, STANDARD_ATMOSPHERE_PA)
+}
+
+/// As [`convert_units`], with the atmospheric pressure (Pa, absolute) used between gauge
+/// and absolute units.
+pub fn convert_units_at(value: f64, from: &Unit, to: &Unit, atmosphere_pa: f64) -> Result<f64> {
+    same_quantity(from, to)?;
+    let si = from.to_si(value);
+    let shift = match (from.reference, to.reference) {
+        (PressureRef::Gauge, PressureRef::Absolute) => atmosphere_pa,
+        (PressureRef::Absolute, PressureRef::Gauge) => -atmosphere_pa,
+        (a, b) if a == b => 0.0,
+        (PressureRef::Plain, marked) => return Err(unmarked("from", from, to, marked)),
+        (marked, _) => return Err(unmarked("to", to, from, marked)),
+    };
+    Ok(to.from_si(si + shift))
+}
+
+/// Convert a *difference* of two values (a span, an error, a hydrostatic head) from one
+/// unit to another: only the factor applies. A difference of two gauge pressures equals
+/// the difference of the same two absolute pressures, and 10 K of temperature rise is
+/// 18 °F, so neither the atmosphere nor a temperature offset enters.
+pub fn convert_difference(value: f64, from: &Unit, to: &Unit) -> Result<f64> {
+    same_quantity(from, to)?;
+    Ok(value * from.factor / to.factor)
+}
+
+/// True when a conversion between these two units adds or subtracts the atmosphere.
+pub fn crosses_reference(from: &Unit, to: &Unit) -> bool {
+    matches!(
+        (from.reference, to.reference),
+        (PressureRef::Gauge, PressureRef::Absolute) | (PressureRef::Absolute, PressureRef::Gauge)
+    )
+}
+
+/// Read the local atmospheric pressure as typed (`0,95 bar`, `95kPa`, `14.2 psia`) into
+/// pascals, for the field `field`.
+///
+/// The unit is required (a bare number could be bar or kPa) and must not be a gauge unit
+/// (the atmosphere is 0 in gauge units by definition). Allowed:
+/// [`ATMOSPHERE_MIN_PA`]–[`ATMOSPHERE_MAX_PA`] (30–110 kPa).
+pub fn parse_atmosphere(field: &str, text: &str) -> Result<f64> {
+    let (value, unit) = crate::number::parse_quantity(field, text)?;
+    let Some(unit) = unit else {
+        return Err(FieldError::new(
+            field,
+            format!(
+                "'{}' has no unit; give the local atmospheric pressure with its unit, such as 0,95 bar or 95 kPa (30 to 110 kPa)",
+                text.trim()
+            ),
+        ));
+    };
+    if unit.quantity != Quantity::Pressure {
+        return Err(FieldError::new(
+            field,
+            format!(
+                "{} is not a pressure unit; give the atmospheric pressure such as 0,95 bar or 95 kPa",
+                unit.symbol
+            ),
+        ));
+    }
+    if unit.reference == PressureRef::Gauge {
+        return Err(FieldError::new(
+            field,
+            format!(
+                "{} is a gauge unit, in which the atmosphere is 0 by definition; give it in an absolute or plain unit such as 95 kPa or 0,95 bar",
+                unit.symbol
+            ),
+        ));
+    }
+    let pa = unit.to_si(value);
+    if !(ATMOSPHERE_MIN_PA..=ATMOSPHERE_MAX_PA).contains(&pa) {
+        return Err(FieldError::new(
+            field,
+            format!(
+                "{} kPa is outside 30 to 110 kPa, the atmospheric pressures at which plants stand",
+                crate::display::fixed(pa / 1000.0, 3)
+            ),
+        ));
+    }
+    Ok(pa)
+}
+
+/// A pressure difference (a hydrostatic head, a DP across a cell), Pa, expressed in the
+/// pressure unit `unit` typed in `field`.
+///
+/// A head is what a gauge transmitter on an open tank reads, so a plain or a gauge unit
+/// (`kPa`, `inH2O`, `barg`) takes it as it is. An absolute unit is refused: a head is not
+/// counted from vacuum, and adding the atmosphere to it is not what a DP cell measures.
+pub fn difference_from_pa(pa: f64, unit: &str, field: &str) -> Result<f64> {
+    let to = difference_unit(unit, field)?;
+    Ok(pa / to.factor)
+}
+
+/// A pressure difference typed in `unit` (field `field`) in pascals; the rules of
+/// [`difference_from_pa`].
+pub fn difference_to_pa(value: f64, unit: &str, field: &str) -> Result<f64> {
+    let from = difference_unit(unit, field)?;
+    Ok(value * from.factor)
+}
+
+fn difference_unit(unit: &str, field: &str) -> Result<&'static Unit> {
+    let u = lookup(unit)
+        .filter(|u| u.quantity == Quantity::Pressure)
+        .ok_or_else(|| {
+            FieldError::new(field, format!("'{}' is not a pressure unit", unit.trim()))
+        })?;
+    if u.reference == PressureRef::Absolute {
+        return Err(FieldError::new(
+            field,
+            format!(
+                "{} is an absolute unit; a head or a differential pressure is not counted from vacuum: use a plain or gauge unit such as kPa, mbar, inH2O or barg",
+                u.symbol
+            ),
+        ));
+    }
+    Ok(u)
+}
+
+fn same_quantity(from: &Unit, to: &Unit) -> Result<()> {
     if from.quantity != to.quantity {
         return Err(FieldError::new(
             "to",
@@ -328,14 +652,42 @@ pub fn convert_units(value: f64, from: &Unit, to: &Unit) -> Result<f64> {
             ),
         ));
     }
-    Ok(to.from_si(from.to_si(value)))
+    Ok(())
 }
 
-fn unknown(field: &str, text: &str) -> FieldError {
+/// The refusal for a plain pressure unit against a gauge or absolute one.
+fn unmarked(field: &str, plain: &Unit, other: &Unit, marked: PressureRef) -> FieldError {
+    let (g, a) = marked_pair(plain).unwrap_or(("barg", "bara"));
     FieldError::new(
         field,
         format!(
-            "unknown unit '{}'; known units include Pa, kPa, bar, mbar, psi, inH2O, mmH2O, m, ft, °C, °F, m³/h, L/s, US gpm, kg/h, %",
+            "{} does not say whether it is gauge or absolute, and {} is {}; write {g} (gauge) or {a} (absolute) so loopside knows whether to add the atmosphere",
+            plain.symbol,
+            other.symbol,
+            marked.name()
+        ),
+    )
+}
+
+/// The gauge and absolute symbols of the same size as a plain pressure unit, if it has them.
+fn marked_pair(plain: &Unit) -> Option<(&'static str, &'static str)> {
+    let find = |r: PressureRef| {
+        UNITS
+            .iter()
+            .find(|u| {
+                u.quantity == Quantity::Pressure && u.factor == plain.factor && u.reference == r
+            })
+            .map(|u| u.symbol)
+    };
+    Some((find(PressureRef::Gauge)?, find(PressureRef::Absolute)?))
+}
+
+/// The error for a unit loopside does not know, typed in `field`, listing known ones.
+pub fn unknown_unit(field: &str, text: &str) -> FieldError {
+    FieldError::new(
+        field,
+        format!(
+            "unknown unit '{}'; known units include Pa, kPa, bar, barg, bara, mbar, psi, psig, psia, inH2O, inH2O@20C, mmH2O, m, ft, °C, °F, m³/h, L/s, US gpm, kg/h, %",
             text.trim()
         ),
     )

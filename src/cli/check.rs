@@ -321,9 +321,9 @@ fn parse_accuracy(text: &str, tag: &Tag, input_unit: Option<&str>) -> Result<Acc
                     ),
                 )
             })?;
-            let zero = crate::units::convert_units(0.0, u, to).map_err(|e| e.renamed(field))?;
-            let v = crate::units::convert_units(value, u, to).map_err(|e| e.renamed(field))?;
-            Accuracy::Units((v - zero).abs())
+            // An accuracy is a difference: only the factor applies (no atmosphere, no offset).
+            let v = crate::units::convert_difference(value, u, to).map_err(|e| e.renamed(field))?;
+            Accuracy::Units(v.abs())
         }
     })
 }

@@ -459,27 +459,30 @@ impl LevelArgs {
 
 pub(super) fn level(args: LevelArgs, out: &mut dyn Write) -> CliResult {
     let unit_text = args.unit.as_deref().unwrap_or("kPa");
-    let unit = units::lookup(unit_text)
-        .filter(|u| u.quantity == units::Quantity::Pressure)
-        .ok_or_else(|| {
-            FieldError::new(
-                "unit",
-                format!("'{}' is not a pressure unit", unit_text.trim()),
-            )
-        })?
-        .symbol;
+    // A plain or gauge pressure unit (a DP or a head is not absolute); checked here so that
+    // the message names --unit before any other field.
+    units::difference_from_pa(0.0, unit_text, "unit")?;
+    let unit = units::lookup(unit_text).map_or(unit_text, |u| u.symbol);
     let setup = args.setup()?;
     let ranging = level::range(&setup).map_err(as_flag)?;
     let (lrv, urv, span) = ranging.in_unit(unit).map_err(as_flag)?;
     let (zero, shift) = match ranging.zero {
         ZeroShift::None => ("none", 0.0),
-        ZeroShift::Elevated { by_pa } => ("elevated", units::convert(by_pa, "Pa", unit)?),
-        ZeroShift::Suppressed { by_pa } => ("suppressed", units::convert(by_pa, "Pa", unit)?),
+        ZeroShift::Elevated { by_pa } => {
+            ("elevated", units::difference_from_pa(by_pa, unit, "unit")?)
+        }
+        ZeroShift::Suppressed { by_pa } => (
+            "suppressed",
+            units::difference_from_pa(by_pa, unit, "unit")?,
+        ),
     };
     let level_m = match &args.dp {
         Some(text) => {
-            let dp = parse_in("dp", text, unit)?;
-            let dp_pa = units::convert(dp, unit, "Pa")?;
+            // A DP typed with its own unit is a difference: only the factor applies.
+            let dp_pa = match crate::number::parse_quantity("dp", text)? {
+                (dp, None) => units::difference_to_pa(dp, unit, "dp")?,
+                (dp, Some(typed)) => units::difference_to_pa(dp, typed.symbol, "dp")?,
+            };
             Some(level::level_from_dp(&setup, dp_pa).map_err(as_flag)?)
         }
         None => None,

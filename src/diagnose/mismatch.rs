@@ -426,16 +426,20 @@ fn found_units(
     });
 }
 
+/// A unit a range could have been typed in by mistake instead of `u`: same quantity, same
+/// reference (a gauge range mixed up with an absolute one is an offset, not a factor), and
+/// a different size (`bar` and `barg` are the same numbers).
+fn is_scale_alternative(u: &units::Unit, x: &units::Unit) -> bool {
+    x.quantity == u.quantity && x.reference == u.reference && x.factor != u.factor
+}
+
 /// Every other unit of the same quantity: (symbol, the expected value in it, factor).
 fn unit_alternatives(unit: &str, expected: f64) -> Result<Vec<(String, f64, f64)>> {
     let Some(u) = units::lookup(unit) else {
         return Ok(Vec::new());
     };
     let mut out = Vec::new();
-    for x in units::UNITS
-        .iter()
-        .filter(|x| x.quantity == u.quantity && x.symbol != u.symbol)
-    {
+    for x in units::UNITS.iter().filter(|x| is_scale_alternative(u, x)) {
         let v = units::convert_units(expected, u, x)?;
         out.push((x.symbol.to_string(), v, u.factor / x.factor));
     }
@@ -639,10 +643,7 @@ pub fn explain_transmitter(
     if linear_domain {
         // Range numbers entered in another unit of the same quantity.
         if let Some(u) = units::lookup(&unit) {
-            for x in units::UNITS
-                .iter()
-                .filter(|x| x.quantity == u.quantity && x.symbol != u.symbol)
-            {
+            for x in units::UNITS.iter().filter(|x| is_scale_alternative(u, x)) {
                 let px = units::convert_units(p, u, x)?;
                 let predicted = scale.signal.ma_at((px - scale.lrv) / scale.span() * 100.0);
                 let r = residual(predicted);
