@@ -56,6 +56,26 @@ pub fn value(value: f64, unit: &str, span: f64) -> String {
     }
 }
 
+/// A number as typed: up to six decimals, trailing zeros dropped (`1`, `0.01`, `2.5`).
+pub fn trimmed(value: f64) -> String {
+    let s = fixed(value, 6);
+    if s.contains('.') {
+        s.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        s
+    }
+}
+
+/// A low-flow cutoff, in % of flow and the % of DP it equals (flow ∝ √ΔP):
+/// `1 % of flow (0.01 % of DP)`.
+pub fn cutoff(flow_percent: f64) -> String {
+    format!(
+        "{} % of flow ({} % of DP)",
+        trimmed(flow_percent),
+        trimmed(crate::scale::cutoff_dp_percent(flow_percent))
+    )
+}
+
 /// A number with a fixed count of decimals, never showing `-0.00`.
 pub fn fixed(value: f64, decimals: usize) -> String {
     let s = format!("{value:.decimals$}");

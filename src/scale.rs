@@ -162,7 +162,19 @@ impl CharTable {
         &self.output_unit
     }
 
-    /// Output for an input, interpolated (extrapolated from the end segments outside).
+    /// True when `input` lies within the table's first and last points (a relative
+    /// allowance of 1e-9 of the table's width forgives round-off at the ends).
+    pub fn covers(&self, input: f64) -> bool {
+        let (first, last) = (
+            self.points[0].input,
+            self.points[self.points.len() - 1].input,
+        );
+        let slack = (last - first).abs() * 1e-9;
+        input >= first - slack && input <= last + slack
+    }
+
+    /// Output for an input, interpolated (extrapolated from the end segments outside; see
+    /// [`CharTable::covers`]).
     pub fn output_for(&self, input: f64) -> f64 {
         let seg = segment(&self.points, input, |p| p.input);
         let (a, b) = (self.points[seg], self.points[seg + 1]);
@@ -207,6 +219,18 @@ pub enum Transfer {
     },
     /// Measured variable (linear in current) → value through a characterization table.
     Table(CharTable),
+}
+
+/// The % of DP span that a low-flow cutoff given in % of flow equals. Flow ∝ √ΔP
+/// (ISO 5167), so ΔP% = flow%² / 100: a 1 % flow cutoff is 0.01 % of DP, a 10 % one 1 %.
+pub fn cutoff_dp_percent(cutoff_flow_percent: f64) -> f64 {
+    cutoff_flow_percent * cutoff_flow_percent / 100.0
+}
+
+/// The % of flow that a cutoff given in % of DP span equals (the inverse of
+/// [`cutoff_dp_percent`]): 0.01 % of DP is 1 % of flow.
+pub fn cutoff_flow_percent(cutoff_dp_percent: f64) -> f64 {
+    (cutoff_dp_percent.max(0.0) * 100.0).sqrt()
 }
 
 /// ISA-51.1 description of where zero lies relative to the range.
@@ -254,6 +278,10 @@ pub struct Reading {
     pub dp_percent: Option<f64>,
     /// True when a low-flow cutoff forced the value to zero flow.
     pub cutoff_active: bool,
+    /// For a table: true when the measured variable lies beyond the table's first or last
+    /// point, so the value is extrapolated from the end segment and may be wrong (a tank's
+    /// shape past its table is unknown).
+    pub outside_table: bool,
 }
 
 impl Scale {
@@ -382,6 +410,7 @@ impl Scale {
             measured: None,
             dp_percent: None,
             cutoff_active: false,
+            outside_table: false,
         };
         match &self.transfer {
             Transfer::Linear => {}
@@ -408,6 +437,7 @@ impl Scale {
                 let measured = self.lrv + fraction * self.span();
                 reading.measured = Some(measured);
                 reading.value = table.output_for(measured);
+                reading.outside_table = !table.covers(measured);
             }
         }
         reading

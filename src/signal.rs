@@ -6,6 +6,11 @@
 //! blown fuse or a dead supply (common practice; a two-wire transmitter cannot run on less
 //! than about 3.5 mA). Devices that signal failure at other levels get their own
 //! [`BandLimits`].
+//!
+//! NE 43 is written for a 4–20 mA signal. On any other signal span (0–20 mA, 10–50 mA)
+//! the NE 43 defaults do not apply: 2 mA on a 0–20 mA signal is a valid 10 %. Such a span
+//! gets only "under the span", "within" and "over the span", with no failure or
+//! no-current bands, unless the tag sets its own limits ([`BandLimits::for_span`]).
 
 use crate::error::{finite, FieldError, Result};
 use crate::scale::SignalSpan;
@@ -45,9 +50,40 @@ impl Default for BandLimits {
 }
 
 impl BandLimits {
+    /// No failure, suspect or no-current bands at all: every current is a measurement,
+    /// under, within or over the span. What a non-NE 43 signal (0–20 mA) gets by default.
+    pub const NONE: BandLimits = BandLimits {
+        no_current_below_ma: f64::NEG_INFINITY,
+        fail_low_at_or_below_ma: f64::NEG_INFINITY,
+        measure_low_ma: f64::NEG_INFINITY,
+        measure_high_ma: f64::INFINITY,
+        fail_high_at_or_above_ma: f64::INFINITY,
+    };
+
+    /// The limits that apply on `span`: these limits, except that the NE 43 defaults on a
+    /// signal span other than 4–20 mA become [`BandLimits::NONE`] (NE 43 is defined for
+    /// 4–20 mA; a tag that sets its own limits keeps them).
+    pub fn for_span(&self, span: &SignalSpan) -> BandLimits {
+        if *self == BandLimits::default() && !is_four_to_twenty(span) {
+            BandLimits::NONE
+        } else {
+            *self
+        }
+    }
+
+    /// True when a current can be judged a failure signal (any failure band is set).
+    pub fn has_failure_bands(&self) -> bool {
+        self.fail_low_at_or_below_ma.is_finite() || self.fail_high_at_or_above_ma.is_finite()
+    }
+
     /// Check that the limits are finite and in order around the signal span:
     /// no-current < fail-low < measure-low ≤ span low < span high ≤ measure-high < fail-high.
+    /// The NE 43 defaults on a span other than 4–20 mA pass as [`BandLimits::NONE`].
     pub fn validate(&self, span: &SignalSpan) -> Result<BandLimits> {
+        let resolved = self.for_span(span);
+        if resolved == BandLimits::NONE {
+            return Ok(resolved);
+        }
         let named = [
             ("no_current_below_ma", self.no_current_below_ma),
             ("fail_low_at_or_below_ma", self.fail_low_at_or_below_ma),
@@ -205,13 +241,21 @@ impl std::fmt::Display for SignalStatus {
     }
 }
 
+/// True for the 4–20 mA signal NE 43 is written for.
+fn is_four_to_twenty(span: &SignalSpan) -> bool {
+    (span.low_ma - 4.0).abs() < EDGE_EPSILON_MA && (span.high_ma - 20.0).abs() < EDGE_EPSILON_MA
+}
+
 /// Classify a loop current against band limits and the signal span.
 ///
 /// Edges: in-range includes both span ends; under-range is measure-low ≤ I < span low;
 /// over-range is span high < I ≤ measure-high; fail-low is I ≤ fail-low limit; fail-high
-/// is I ≥ fail-high limit; the suspect bands are the open gaps between.
+/// is I ≥ fail-high limit; the suspect bands are the open gaps between. The limits are
+/// first resolved for the span ([`BandLimits::for_span`]): on a 0–20 mA signal the NE 43
+/// defaults give way to plain under / within / over bands.
 pub fn classify(ma: f64, limits: &BandLimits, span: &SignalSpan) -> Result<SignalStatus> {
     let i = finite("mA", ma)?;
+    let limits = &limits.for_span(span);
     let e = EDGE_EPSILON_MA;
     Ok(if i < limits.no_current_below_ma - e {
         SignalStatus::NoLoopCurrent
@@ -252,6 +296,21 @@ mod tests {
         assert!(BandLimits::default()
             .validate(&SignalSpan::default())
             .is_ok());
+    }
+
+    #[test]
+    fn a_zero_to_twenty_signal_has_no_failure_bands() {
+        // NE 43 is defined for 4–20 mA; on 0–20 mA, 2 mA is 10 % of span (linear).
+        let span = SignalSpan::new(0.0, 20.0).unwrap();
+        let d = BandLimits::default();
+        assert_eq!(classify(2.0, &d, &span).unwrap(), SignalStatus::InRange);
+        assert_eq!(classify(0.0, &d, &span).unwrap(), SignalStatus::InRange);
+        assert_eq!(classify(21.5, &d, &span).unwrap(), SignalStatus::OverRange);
+        assert!(!d.for_span(&span).has_failure_bands());
+        assert!(d.validate(&span).is_ok());
+        // The same 2 mA on 4–20 mA is a downscale failure signal (NE 43: ≤ 3.6 mA).
+        assert_eq!(classify_ne43(2.0).unwrap(), SignalStatus::FailLow);
+        assert!(d.for_span(&SignalSpan::default()).has_failure_bands());
     }
 
     #[test]

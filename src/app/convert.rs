@@ -138,8 +138,8 @@ pub fn tag_detail(tag: &crate::tag::Tag) -> String {
         Transfer::Linear => "linear".to_string(),
         Transfer::SquareRoot { cutoff_percent, .. } => {
             format!(
-                "square root, {} cutoff",
-                crate::display::percent(*cutoff_percent)
+                "square root, cutoff {}",
+                crate::display::cutoff(*cutoff_percent)
             )
         }
         Transfer::Table(t) => format!("table → {}", t.output_unit()),

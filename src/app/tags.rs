@@ -318,12 +318,12 @@ pub fn transfer_text(t: &Transfer) -> String {
             cutoff_percent,
             root_in,
         } => format!(
-            "square root in the {}, cutoff {} %",
+            "square root in the {}, cutoff {}",
             match root_in {
                 RootLocation::Transmitter => "transmitter",
                 RootLocation::Receiver => "receiver",
             },
-            crate::view::plain(*cutoff_percent)
+            crate::display::cutoff(*cutoff_percent)
         ),
         Transfer::Table(table) => format!("table → {}", table.output_unit()),
     }
@@ -355,12 +355,28 @@ pub fn transfer_from_text(text: &str, base: Option<&Transfer>) -> Result<Transfe
             }) => Some((*cutoff_percent, *root_in)),
             _ => None,
         };
-        let cutoff_percent = match t
-            .split_whitespace()
-            .map(|w| w.trim_end_matches([',', ';', '%']))
-            .find(|w| w.starts_with(|c: char| c.is_ascii_digit()))
-        {
-            Some(n) => parse_number("transfer cutoff", n)?,
+        // The first number is the cutoff: in % of flow, or in % of DP when the words after
+        // it say so before any other number (`cutoff 0,01 % of DP`).
+        let words: Vec<&str> = t.split_whitespace().collect();
+        let first = words
+            .iter()
+            .position(|w| w.starts_with(|c: char| c.is_ascii_digit()));
+        let cutoff_percent = match first {
+            Some(i) => {
+                let n = parse_number(
+                    "transfer cutoff",
+                    words[i].trim_end_matches([',', ';', '%']),
+                )?;
+                let of_dp = words[i + 1..]
+                    .iter()
+                    .take_while(|w| !w.starts_with(|c: char| c.is_ascii_digit() || c == '('))
+                    .any(|w| w.trim_matches(|c: char| !c.is_alphanumeric()) == "dp");
+                if of_dp {
+                    crate::scale::cutoff_flow_percent(n)
+                } else {
+                    n
+                }
+            }
             None => base_root.map(|b| b.0).unwrap_or(0.0),
         };
         let root_in = if t.contains("transmitter") {
@@ -653,6 +669,19 @@ mod tests {
                 root_in: RootLocation::Receiver
             }
         );
+        // A cutoff typed in % of DP is kept in % of flow: flow ∝ √ΔP (ISO 5167 relation),
+        // so 0.01 % of DP is 1 % of flow and 1 % of DP is 10 % of flow.
+        for (typed, flow) in [
+            ("square root, cutoff 0,01 % of DP", 1.0),
+            ("sqrt cutoff 1 % dp", 10.0),
+        ] {
+            match transfer_from_text(typed, None).unwrap() {
+                Transfer::SquareRoot { cutoff_percent, .. } => {
+                    assert!((cutoff_percent - flow).abs() < 1e-9, "{typed}")
+                }
+                other => panic!("{typed} gave {other:?}"),
+            }
+        }
         // What the form shows reads back as the same transfer.
         let in_tx = Transfer::SquareRoot {
             cutoff_percent: 0.8,

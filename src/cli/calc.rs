@@ -32,7 +32,7 @@ pub struct RangeArgs {
     /// Square-root (DP flow) transfer.
     #[arg(long)]
     pub sqrt: bool,
-    /// Low-flow cutoff for --sqrt, % of flow (0–100).
+    /// Low-flow cutoff for --sqrt, % of flow (0–100); 1 % of flow is 0.01 % of DP.
     #[arg(
         long,
         allow_hyphen_values = true,
@@ -40,6 +40,15 @@ pub struct RangeArgs {
         requires = "sqrt"
     )]
     pub cutoff: Option<String>,
+    /// The same cutoff given in % of DP span instead (0.01 % of DP is 1 % of flow).
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "PCT",
+        requires = "sqrt",
+        conflicts_with = "cutoff"
+    )]
+    pub cutoff_dp: Option<String>,
     /// Where the square root is taken: receiver (default) or transmitter.
     #[arg(long, value_name = "WHERE", requires = "sqrt", value_parser = ["receiver", "transmitter"])]
     pub root_in: Option<String>,
@@ -71,9 +80,18 @@ impl RangeArgs {
             None => SignalSpan::default(),
         };
         let transfer = if self.sqrt {
-            let cutoff_percent = match &self.cutoff {
-                Some(t) => parse_in("cutoff", t, "%")?,
-                None => 0.0,
+            let cutoff_percent = match (&self.cutoff, &self.cutoff_dp) {
+                (Some(t), _) => parse_in("cutoff", t, "%")?,
+                (None, Some(t)) => {
+                    let dp = crate::error::within(
+                        "cutoff-dp",
+                        parse_in("cutoff-dp", t, "%")?,
+                        0.0,
+                        100.0,
+                    )?;
+                    crate::scale::cutoff_flow_percent(dp)
+                }
+                (None, None) => 0.0,
             };
             let root_in = match self.root_in.as_deref() {
                 Some("transmitter") => RootLocation::Transmitter,
@@ -149,6 +167,10 @@ pub struct ConvertArgs {
     /// Show the value in another unit of the same quantity.
     #[arg(long, value_name = "UNIT")]
     to: Option<String>,
+    /// Local atmospheric pressure with its unit (`0,95 bar`), used when --to crosses from
+    /// gauge to absolute or back; default the standard atmosphere, 101.325 kPa.
+    #[arg(long, value_name = "PRESSURE", requires = "to")]
+    atm: Option<String>,
     /// Print one JSON object.
     #[arg(long)]
     json: bool,
@@ -170,7 +192,7 @@ pub(super) fn convert(args: ConvertArgs, out: &mut dyn Write) -> CliResult {
             "give one of --ma, --percent, --value, or --volts with --ohms",
         )));
     };
-    let (value, unit, span) = match &args.to {
+    let (value, unit, span, atm) = match &args.to {
         Some(to) => {
             let from = units::lookup(&reading.unit).ok_or_else(|| {
                 FieldError::new(
@@ -181,14 +203,19 @@ pub(super) fn convert(args: ConvertArgs, out: &mut dyn Write) -> CliResult {
                     ),
                 )
             })?;
-            let target = units::lookup(to)
-                .ok_or_else(|| FieldError::new("to", format!("unknown unit '{}'", to.trim())))?;
-            let v = units::convert_units(reading.value, from, target)?;
-            let span_to = units::convert_units(scale.urv, from, target)?
-                - units::convert_units(scale.lrv, from, target)?;
-            (v, target.symbol.to_string(), span_to)
+            let target = units::lookup(to).ok_or_else(|| units::unknown_unit("to", to))?;
+            let (atm_pa, given) = atmosphere(args.atm.as_deref())?;
+            let v = units::convert_units_at(reading.value, from, target, atm_pa)?;
+            let span_to = units::convert_difference(value_span(&scale), from, target)?;
+            let atm = units::crosses_reference(from, target).then_some((atm_pa, given));
+            (v, target.symbol.to_string(), span_to, atm)
         }
-        None => (reading.value, reading.unit.clone(), value_span(&scale)),
+        None => (
+            reading.value,
+            reading.unit.clone(),
+            value_span(&scale),
+            None,
+        ),
     };
     let status = classify(reading.ma, &BandLimits::default(), &scale.signal)?;
     if args.json {
@@ -201,12 +228,21 @@ pub(super) fn convert(args: ConvertArgs, out: &mut dyn Write) -> CliResult {
             "status_meaning": status.meaning(),
             "cutoff_active": reading.cutoff_active,
         });
+        if let Transfer::SquareRoot { cutoff_percent, .. } = scale.transfer {
+            obj["cutoff_percent"] = json!(cutoff_percent);
+            obj["cutoff_dp_percent"] = json!(crate::scale::cutoff_dp_percent(cutoff_percent));
+        }
         if let Some(m) = reading.measured {
             obj["measured"] = json!(m);
             obj["measured_unit"] = json!(scale.unit);
+            obj["outside_table"] = json!(reading.outside_table);
         }
         if let Some(dp) = reading.dp_percent {
             obj["dp_percent"] = json!(dp);
+        }
+        if let Some((atm_pa, given)) = atm {
+            obj["atm_kpa"] = json!(atm_pa / 1000.0);
+            obj["atm_given"] = json!(given);
         }
         return print_json(out, &obj);
     }
@@ -224,8 +260,24 @@ pub(super) fn convert(args: ConvertArgs, out: &mut dyn Write) -> CliResult {
     if let Some(dp) = reading.dp_percent {
         lines.push(format!("DP       {} of DP span", display::percent(dp)));
     }
-    if reading.cutoff_active {
-        lines.push("low-flow cutoff active: flow shows as zero".to_string());
+    if reading.outside_table {
+        lines.push(format!("warning  {}", crate::view::convert::OUTSIDE_TABLE));
+    }
+    if let Transfer::SquareRoot { cutoff_percent, .. } = scale.transfer {
+        if cutoff_percent > 0.0 {
+            let state = if reading.cutoff_active {
+                "active: flow shows as zero"
+            } else {
+                "not active"
+            };
+            lines.push(format!(
+                "cutoff   {} — {state}",
+                display::cutoff(cutoff_percent)
+            ));
+        }
+    }
+    if let Some((atm_pa, given)) = atm {
+        lines.push(atmosphere_line(atm_pa, given));
     }
     lines.push(format!(
         "status   {} — {}",
@@ -584,7 +636,13 @@ pub(super) fn wire(args: WireArgs, out: &mut dyn Write) -> CliResult {
 #[command(after_help = "Examples:\n  \
     loopside units 2,5 bar psi\n  \
     loopside units 100 inH2O kPa --json\n  \
-    loopside units -40 degC degF")]
+    loopside units 1 bara psig\n  \
+    loopside units 0 psig kPa(a) --atm 0,95bar\n  \
+    loopside units -40 degC degF\n\n\
+Gauge and absolute pressure: barg, mbarg, psig, kPa(g), MPa(g) count from the atmosphere;\n\
+bara, mbara, psia, kPa(a), MPa(a) from vacuum. Between the two the standard atmosphere\n\
+(101.325 kPa) is added or subtracted unless --atm gives the local one. A plain unit (bar,\n\
+psi, kPa, inH2O) says neither and does not convert to or from a gauge or absolute one.")]
 pub struct UnitsArgs {
     /// The value to convert.
     #[arg(allow_hyphen_values = true)]
@@ -593,19 +651,65 @@ pub struct UnitsArgs {
     from: String,
     /// The unit wanted.
     to: String,
+    /// Local atmospheric pressure, with its unit (`0,95 bar`, `95kPa`), used between gauge
+    /// and absolute units; default the standard atmosphere, 101.325 kPa.
+    #[arg(long, value_name = "PRESSURE")]
+    atm: Option<String>,
     /// Print one JSON object.
     #[arg(long)]
     json: bool,
 }
 
+/// The atmosphere a conversion uses: the typed one, or the standard atmosphere.
+fn atmosphere(atm: Option<&str>) -> Result<(f64, bool), FieldError> {
+    match atm {
+        Some(text) => Ok((units::parse_atmosphere("atm", text)?, true)),
+        None => Ok((units::STANDARD_ATMOSPHERE_PA, false)),
+    }
+}
+
+/// The line that says which atmosphere a gauge ↔ absolute conversion used.
+fn atmosphere_line(atm_pa: f64, given: bool) -> String {
+    if given {
+        format!(
+            "atmosphere {} kPa, as given",
+            significant(atm_pa / 1000.0, 6)
+        )
+    } else {
+        "atmosphere 101.325 kPa, the standard atmosphere (give --atm for the local one)".to_string()
+    }
+}
+
 pub(super) fn units(args: UnitsArgs, out: &mut dyn Write) -> CliResult {
     let value = parse_number("value", &args.value)?;
-    let result = units::convert(value, &args.from, &args.to)?;
-    let to = units::lookup(&args.to).map(|u| u.symbol).unwrap_or("");
+    let from = units::lookup(&args.from).ok_or_else(|| units::unknown_unit("from", &args.from))?;
+    let to = units::lookup(&args.to).ok_or_else(|| units::unknown_unit("to", &args.to))?;
+    let (atm_pa, given) = atmosphere(args.atm.as_deref())?;
+    let result = units::convert_units_at(value, from, to, atm_pa)?;
+    let crosses = units::crosses_reference(from, to);
     if args.json {
-        return print_json(out, &json!({ "value": result, "unit": to }));
+        let mut obj = json!({ "value": result, "unit": to.symbol, "atm_kpa": null });
+        if crosses {
+            obj["atm_kpa"] = json!(atm_pa / 1000.0);
+            obj["atm_given"] = json!(given);
+        }
+        for (key, unit) in [("from_note", from), ("to_note", to)] {
+            if !unit.note.is_empty() {
+                obj[key] = json!(unit.note);
+            }
+        }
+        return print_json(out, &obj);
     }
-    print_lines(out, &[format!("{} {to}", significant(result, 7))])
+    let mut lines = vec![format!("{} {}", significant(result, 7), to.symbol)];
+    for unit in [from, to] {
+        if !unit.note.is_empty() {
+            lines.push(format!("{}: {}", unit.symbol, unit.note));
+        }
+    }
+    if crosses {
+        lines.push(atmosphere_line(atm_pa, given));
+    }
+    print_lines(out, &lines)
 }
 
 /// `significant` digits for a plain-number answer (units conversions).

@@ -308,6 +308,15 @@ pub struct EditRangeArgs {
         requires = "sqrt"
     )]
     cutoff: Option<String>,
+    /// The same cutoff in % of DP span instead (0.01 % of DP is 1 % of flow).
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "PCT",
+        requires = "sqrt",
+        conflicts_with = "cutoff"
+    )]
+    cutoff_dp: Option<String>,
     /// Where the square root is taken: receiver (default) or transmitter.
     #[arg(long, value_name = "WHERE", requires = "sqrt", value_parser = ["receiver", "transmitter"])]
     root_in: Option<String>,
@@ -345,6 +354,7 @@ impl EditRangeArgs {
                 .unwrap_or_else(|| current_unit.to_string()),
             sqrt: self.sqrt,
             cutoff: self.cutoff.clone(),
+            cutoff_dp: self.cutoff_dp.clone(),
             root_in: self.root_in.clone(),
             table: self.table.clone(),
             table_unit: self.table_unit.clone(),

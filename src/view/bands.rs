@@ -59,19 +59,54 @@ const SHARES: [f64; 8] = [0.08, 0.08, 0.05, 0.05, 0.56, 0.05, 0.05, 0.08];
 const TOP_MARGIN_MA: f64 = 3.0;
 
 /// The band edges in mA, lowest first: 0, no-current, fail-low, measure-low, span low,
-/// span high, measure-high, fail-high, and the bar's top.
+/// span high, measure-high, fail-high, and the bar's top. Limits the span does not use
+/// (a 0–20 mA signal has no failure bands) collapse onto the span's ends, so their bands
+/// have no width and take no share of the bar.
 fn edges(limits: &BandLimits, span: &SignalSpan) -> [f64; 9] {
+    let l = limits.for_span(span);
+    let low = |x: f64| if x.is_finite() { x.max(0.0) } else { 0.0 };
+    let measure_high = if l.measure_high_ma.is_finite() {
+        l.measure_high_ma
+    } else {
+        span.high_ma + TOP_MARGIN_MA
+    };
+    let (fail_high, top) = if l.fail_high_at_or_above_ma.is_finite() {
+        (
+            l.fail_high_at_or_above_ma,
+            l.fail_high_at_or_above_ma + TOP_MARGIN_MA,
+        )
+    } else {
+        (measure_high, measure_high)
+    };
     [
         0.0,
-        limits.no_current_below_ma,
-        limits.fail_low_at_or_below_ma,
-        limits.measure_low_ma,
+        low(l.no_current_below_ma),
+        low(l.fail_low_at_or_below_ma),
+        low(l.measure_low_ma),
         span.low_ma,
         span.high_ma,
-        limits.measure_high_ma,
-        limits.fail_high_at_or_above_ma,
-        limits.fail_high_at_or_above_ma + TOP_MARGIN_MA,
+        measure_high,
+        fail_high,
+        top,
     ]
+}
+
+/// Each band's share of the bar: [`SHARES`], with bands of no width dropped and the rest
+/// scaled to fill the bar.
+fn shares(e: &[f64; 9]) -> [f64; 8] {
+    let mut out = SHARES;
+    for (i, share) in out.iter_mut().enumerate() {
+        if e[i + 1] <= e[i] {
+            *share = 0.0;
+        }
+    }
+    let sum: f64 = out.iter().sum();
+    if sum > 0.0 {
+        for share in &mut out {
+            *share /= sum;
+        }
+    }
+    out
 }
 
 /// Where a current sits on the bar, 0..1 (clamped at both ends).
@@ -81,10 +116,10 @@ pub fn position(ma: f64, limits: &BandLimits, span: &SignalSpan) -> f64 {
         return 0.0;
     }
     let mut start = 0.0;
-    for (i, share) in SHARES.iter().enumerate() {
+    for (i, share) in shares(&e).iter().enumerate() {
         let (lo, hi) = (e[i], e[i + 1]);
-        if ma <= hi {
-            let inside = if hi > lo { (ma - lo) / (hi - lo) } else { 1.0 };
+        if ma <= hi && hi > lo {
+            let inside = (ma - lo) / (hi - lo);
             return (start + share * inside).clamp(0.0, 1.0);
         }
         start += share;
@@ -93,11 +128,15 @@ pub fn position(ma: f64, limits: &BandLimits, span: &SignalSpan) -> f64 {
 }
 
 /// The bar for a signal span and band limits, with the reading marked if there is one.
+/// Bands the span does not have (failure bands on a 0–20 mA signal) come out with no
+/// width.
 pub fn band_bar(ma: Option<f64>, limits: &BandLimits, span: &SignalSpan) -> BandBar {
+    let e = edges(limits, span);
     let statuses = SignalStatus::ALL;
+    debug_assert!(e.windows(2).all(|w| w[0] <= w[1]));
     let mut bands = Vec::with_capacity(8);
     let mut start = 0.0;
-    for (share, status) in SHARES.iter().zip(statuses) {
+    for (share, status) in shares(&e).iter().zip(statuses) {
         bands.push(BandSeg {
             start,
             end: start + share,
@@ -105,23 +144,38 @@ pub fn band_bar(ma: Option<f64>, limits: &BandLimits, span: &SignalSpan) -> Band
         });
         start += share;
     }
-    let e = edges(limits, span);
     let mid = (span.low_ma + span.high_ma) / 2.0;
     // Labelled: the failure limits, the span ends and mid-span. The measurement limits and
     // the no-current limit get bare ticks: their labels would collide with their neighbours.
-    let labelled = [e[2], e[4], mid, e[5], e[7]];
-    let bare = [e[1], e[3], e[6]];
-    let mut ticks: Vec<Tick> = labelled
-        .iter()
-        .map(|&m| Tick {
-            pos: position(m, limits, span),
-            label: tick_label(m),
-        })
-        .collect();
-    ticks.extend(bare.iter().map(|&m| Tick {
-        pos: position(m, limits, span),
-        label: String::new(),
-    }));
+    // A limit the span does not use gets no tick, nor does one on another's place.
+    let l = limits.for_span(span);
+    let labelled = [
+        l.fail_low_at_or_below_ma,
+        span.low_ma,
+        mid,
+        span.high_ma,
+        l.fail_high_at_or_above_ma,
+    ];
+    let bare = [l.no_current_below_ma, l.measure_low_ma, l.measure_high_ma];
+    let mut ticks: Vec<Tick> = Vec::new();
+    for &m in labelled.iter().filter(|m| m.is_finite()) {
+        let pos = position(m, limits, span);
+        if !ticks.iter().any(|t| (t.pos - pos).abs() < 1e-9) {
+            ticks.push(Tick {
+                pos,
+                label: tick_label(m),
+            });
+        }
+    }
+    for &m in bare.iter().filter(|m| m.is_finite()) {
+        let pos = position(m, limits, span);
+        if !ticks.iter().any(|t| (t.pos - pos).abs() < 1e-9) {
+            ticks.push(Tick {
+                pos,
+                label: String::new(),
+            });
+        }
+    }
     BandBar {
         bands,
         ticks,
@@ -181,5 +235,28 @@ mod tests {
             .filter(|l| !l.is_empty())
             .collect();
         assert_eq!(labels, ["3.6", "4", "12", "20", "21"]);
+    }
+
+    #[test]
+    fn a_zero_to_twenty_bar_has_no_failure_bands() {
+        // 0–20 mA is not NE 43: under, within and over the span only; 2 mA is 10 %.
+        let (l, s) = (BandLimits::default(), SignalSpan::new(0.0, 20.0).unwrap());
+        let bar = band_bar(Some(2.0), &l, &s);
+        for b in &bar.bands {
+            let wide = b.end - b.start > 0.0;
+            match b.status {
+                SignalStatus::InRange | SignalStatus::OverRange => assert!(wide, "{}", b.status),
+                _ => assert!(!wide, "{} has width on 0–20 mA", b.status),
+            }
+        }
+        let within = bar
+            .bands
+            .iter()
+            .find(|b| b.status == SignalStatus::InRange)
+            .unwrap();
+        let m = bar.marker.unwrap();
+        assert!((m - (within.start + 0.1 * (within.end - within.start))).abs() < 1e-12);
+        let labels: Vec<&str> = bar.ticks.iter().map(|t| t.label.as_str()).collect();
+        assert_eq!(labels, ["0", "10", "20"]);
     }
 }

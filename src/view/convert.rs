@@ -171,6 +171,11 @@ pub fn value_span(scale: &Scale) -> f64 {
     }
 }
 
+/// The warning for a value read off the ends of a characterisation table, in one wording
+/// for every front.
+pub const OUTSIDE_TABLE: &str =
+    "Outside the table: the value is extrapolated past its first or last point and may be wrong";
+
 /// The status in a few words, for the big status line.
 pub fn status_title(status: SignalStatus) -> &'static str {
     match status {
@@ -204,8 +209,8 @@ fn notes(scale: &Scale, reading: &Reading) -> Vec<String> {
     if reading.cutoff_active {
         if let Transfer::SquareRoot { cutoff_percent, .. } = scale.transfer {
             out.push(format!(
-                "Below the {} low-flow cutoff: the receiver shows zero flow",
-                display::percent(cutoff_percent)
+                "Below the low-flow cutoff of {}: the receiver shows zero flow",
+                display::cutoff(cutoff_percent)
             ));
         }
     }
@@ -214,6 +219,9 @@ fn notes(scale: &Scale, reading: &Reading) -> Vec<String> {
             "Measured {} before the table",
             display::value(m, &scale.unit, scale.span())
         ));
+    }
+    if reading.outside_table {
+        out.push(OUTSIDE_TABLE.to_string());
     }
     if scale.is_reversed() {
         out.push(format!(

@@ -23,12 +23,7 @@ pub use crate::caution::CAUTIONS;
 
 /// A number as a person would type it, without trailing zeros: `250`, `10.5`, `-20`.
 pub fn plain(v: f64) -> String {
-    let s = display::fixed(v, 6);
-    if s.contains('.') {
-        s.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
-        s
-    }
+    display::trimmed(v)
 }
 
 /// A range as the register lists it: `0 – 4.5 m`, `250 – 0 mbar`.

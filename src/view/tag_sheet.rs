@@ -45,12 +45,15 @@ fn fact(label: &str, value: String) -> Fact {
     }
 }
 
-/// The transfer in words: `linear`, `square root, cutoff 1 %`, `table of 9 points to m³`.
+/// The transfer in words: `linear`, `square root, cutoff 1 % of flow (0.01 % of DP)`, `table of 9 points to m³`.
 pub fn transfer_words(t: &Transfer) -> String {
     match t {
         Transfer::Linear => "linear".to_string(),
         Transfer::SquareRoot { cutoff_percent, .. } => {
-            format!("square root, cutoff {} %", plain(*cutoff_percent))
+            format!(
+                "square root, cutoff {}",
+                crate::display::cutoff(*cutoff_percent)
+            )
         }
         Transfer::Table(table) => format!(
             "table of {} points to {}",
