@@ -421,3 +421,57 @@ fn a_plants_own_procedures_are_offered_on_find_fault() {
     drop(app);
     std::fs::remove_dir_all(&dir).unwrap();
 }
+
+#[test]
+fn a_damaged_screen_state_is_set_aside_and_the_app_starts() {
+    // Random bytes where app-state.json should be (a torn write on an old firmware, or a
+    // file from a newer loopside): the app must still start, keep the file, and say so.
+    let dir = data_dir("damaged-state");
+    {
+        let app = app_over(load_or_demo(dir.clone()).unwrap());
+        save(&app.state.borrow()).unwrap();
+    }
+    let garbage: Vec<u8> = (0u8..=255).rev().cycle().take(3000).collect();
+    std::fs::write(dir.join("app-state.json"), &garbage).unwrap();
+    let state = load_or_demo(dir.clone()).expect("the app starts over a damaged state");
+    assert!(
+        state
+            .notices
+            .iter()
+            .any(|n| n.contains("app-state.unreadable.json")),
+        "{:?}",
+        state.notices
+    );
+    assert_eq!(
+        std::fs::read(dir.join("app-state.unreadable.json")).unwrap(),
+        garbage,
+        "kept byte for byte, never deleted"
+    );
+    assert!(!dir.join("app-state.json").exists());
+    let app = app_over(state);
+    // Said once, on whatever screen opens first, until the technician taps OK.
+    let top = app.window.global::<loopside::app::AppAdapter>();
+    assert!(top.get_has_notice());
+    assert!(
+        top.get_notice().contains("could not be read"),
+        "{}",
+        top.get_notice()
+    );
+    top.invoke_dismiss_notice();
+    assert!(!top.get_has_notice());
+    drop(app);
+    // A second damaged file does not overwrite the first one kept.
+    std::fs::write(dir.join("app-state.json"), b"{not json").unwrap();
+    let (saved, notice) = loopside::app::state::load_or_set_aside(&dir).unwrap();
+    assert!(saved.is_none());
+    assert!(notice.unwrap().contains("app-state.unreadable-2.json"));
+    assert_eq!(
+        std::fs::read(dir.join("app-state.unreadable.json")).unwrap(),
+        garbage
+    );
+    assert_eq!(
+        std::fs::read(dir.join("app-state.unreadable-2.json")).unwrap(),
+        b"{not json"
+    );
+    std::fs::remove_dir_all(&dir).unwrap();
+}

@@ -282,6 +282,16 @@ fn connect(window: &AppWindow, state: &Shared) {
             refresh_all(&w, &st.borrow());
         }
     });
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_dismiss_notice(move || {
+        st.borrow_mut().notices.clear();
+        if let Some(w) = weak.upgrade() {
+            let adapter = w.global::<AppAdapter>();
+            adapter.set_has_notice(false);
+            adapter.set_notice("".into());
+        }
+    });
 }
 
 /// Show `screen`, remembering where we came from when `remember` is set.
@@ -318,6 +328,8 @@ pub fn refresh_all(window: &AppWindow, state: &AppState) {
     window.global::<Theme>().set_dark(state.ui.dark);
     let adapter = window.global::<AppAdapter>();
     adapter.set_demo_banner(state.demo);
+    adapter.set_has_notice(!state.notices.is_empty());
+    adapter.set_notice(state.notices.join(" ").into());
     adapter.set_open_tag(state.ui.open_tag.clone().unwrap_or_default().into());
     if let Some(screen) = screen_from_name(&state.ui.screen) {
         adapter.set_screen(screen);
@@ -380,13 +392,11 @@ pub fn load_or_demo(data_dir: PathBuf) -> Result<AppState, StoreError> {
             source,
         }
     };
-    let ui = state::load(&data_dir)
-        .map_err(io(
-            "read the saved screen state",
-            &data_dir.join(state::STATE_FILE),
-        ))?
-        .map(|s| s.ui)
-        .unwrap_or_default();
+    let (saved, state_notice) = state::load_or_set_aside(&data_dir).map_err(io(
+        "read the saved screen state",
+        &data_dir.join(state::STATE_FILE),
+    ))?;
+    let ui = saved.map(|s| s.ui).unwrap_or_default();
     let own = FileStore::open(&data_dir)?;
     let (store, demo) = if own.is_empty() && !ui.demo_cleared {
         drop(own);
@@ -398,10 +408,9 @@ pub fn load_or_demo(data_dir: PathBuf) -> Result<AppState, StoreError> {
     } else {
         (own, false)
     };
-    let notices = store
-        .recoveries()
-        .iter()
-        .map(|r| r.message.clone())
+    let notices = state_notice
+        .into_iter()
+        .chain(store.recoveries().iter().map(|r| r.message.clone()))
         .collect();
     let mut state = AppState::with_store(Box::new(store));
     state.ui = ui;
