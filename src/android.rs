@@ -57,7 +57,8 @@ fn run(android: AndroidApp) -> Result<(), Box<dyn std::error::Error>> {
         app.state.clone(),
         slint::ComponentHandle::as_weak(&app.window),
     ));
-    app.window.run()?;
+    // `run` is a method of Slint's ComponentHandle trait, named here as `as_weak` is above.
+    slint::ComponentHandle::run(&app.window)?;
     app.save_now()?;
     Ok(())
 }
