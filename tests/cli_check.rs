@@ -341,6 +341,18 @@ fn diagnose_interactively_on_the_terminal() {
     assert!(text.contains("no-loop-current"), "{text}");
     assert!(text.contains("supply_v"), "the bad answer is named: {text}");
     assert!(String::from_utf8_lossy(&out.stderr).contains("input"));
+    // Each step's cautions come with it: the flameproof housing at the first current
+    // reading, the red lead before the first voltage.
+    let first_prompt = text.find("Loop current at the transmitter [mA]").unwrap();
+    let housing = text
+        .find("! In a hazardous area, a flameproof")
+        .expect("housing caution");
+    assert!(housing < first_prompt, "{text}");
+    let lead = text
+        .find("! Move the red lead back to the V socket")
+        .expect("meter-lead reminder");
+    let supply_prompt = text.find("Supply voltage at the supply terminals").unwrap();
+    assert!(first_prompt < lead && lead < supply_prompt, "{text}");
 
     let out = loopside_typed(
         &[

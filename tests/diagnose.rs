@@ -337,39 +337,191 @@ fn supply_presence_and_level() {
 
 // ---------------------------------------------------------------- leakage
 
+// Every leakage case below assumes the loop the finding states: a loop-powered two-wire
+// transmitter that sets its own current, the supply's negative earthed, the receiver in
+// the return (negative) leg. The receiver's current is worked out by hand from that
+// circuit with Kirchhoff's current law and Ohm's law, not by loopside.
+
 #[test]
-fn current_lost_between_transmitter_and_receiver_is_leakage() {
+fn a_path_across_the_pair_makes_the_receiver_read_more() {
     let tag = lt101();
-    // 12.00 mA sent, 11.80 mA arrives: 0.20 mA = 1.25 % of the 16 mA span leaks.
-    let f = evaluate::leakage(&tag, 12.0, 11.8, 0.05, Some(18.0)).unwrap();
-    assert_eq!(f.outcome, "leak");
-    close(f.difference_ma, 0.2, 1e-9, "leak");
-    close(f.difference_pct, 1.25, 1e-9, "% of span");
-    // 18 V across 0.2 mA: a path of about 90 kΩ.
-    close(f.leak_path_kohm.unwrap(), 90.0, 1e-9, "path");
-    assert!(f.text.contains("Leakage"), "{}", f.text);
-    assert_eq!(
-        evaluate::leakage(&tag, 12.0, 12.03, 0.05, None)
-            .unwrap()
-            .outcome,
-        "match"
+    // The transmitter regulates 12.00 mA with 22 V across its terminals. A 55 kΩ path
+    // (wet junction box) across the pair near it is in parallel with it and takes
+    // 22 V / 55 kΩ = 0.40 mA more from the supply; the receiver in series with both
+    // carries 12.00 + 0.40 = 12.40 mA.
+    // Back from the meters (Ohm's law): 22 V / (12.40 − 12.00) mA = 22 V / 0.40 mA
+    // = 55 kΩ; 0.40 mA is 0.40 / 16 = 2.5 % of the 16 mA span.
+    let f = evaluate::leakage(&tag, 12.0, 12.4, 0.05, Some(22.0)).unwrap();
+    assert_eq!(f.outcome, "across-pair");
+    close(f.difference_ma, -0.4, 1e-9, "tx − rx");
+    close(f.difference_pct, -2.5, 1e-9, "% of span");
+    close(f.leak_path_kohm.unwrap(), 55.0, 1e-9, "path, kΩ");
+    assert_eq!(f.terminal_v, Some(22.0));
+    assert!(f
+        .text
+        .starts_with("The receiver reads more than the transmitter sends"));
+    assert!(f.text.contains("path across the pair"), "{}", f.text);
+    assert!(f.text.contains("roughly 55.0 kΩ"), "{}", f.text);
+    assert!(
+        f.text.contains("loop-powered two-wire transmitter") && f.text.contains("negative earthed"),
+        "the assumed loop is stated: {}",
+        f.text
     );
-    assert_eq!(
-        evaluate::leakage(&tag, 12.0, 12.3, 0.05, None)
-            .unwrap()
-            .outcome,
-        "extra-current"
+    assert!(
+        f.text.contains("supply's positive output") && f.text.contains("lift the shield"),
+        "how to tell the two apart: {}",
+        f.text
     );
-    // From the volts across a 250 Ω receiver resistor: 2.95 V → 11.8 mA.
+
+    // A second case: 18.0 V at the terminals, 12.00 mA sent, 12.20 mA received:
+    // 18.0 V / 0.20 mA = 90 kΩ (Ohm's law).
+    let f = evaluate::leakage(&tag, 12.0, 12.2, 0.05, Some(18.0)).unwrap();
+    assert_eq!(f.outcome, "across-pair");
+    close(f.leak_path_kohm.unwrap(), 90.0, 1e-9, "path, kΩ");
+
+    // Without the terminal volts the path is not sized, and the finding says what to
+    // measure.
+    let f = evaluate::leakage(&tag, 12.0, 12.4, 0.05, None).unwrap();
+    assert_eq!(f.leak_path_kohm, None);
+    assert!(f
+        .text
+        .contains("Measure the DC volts across the transmitter's terminals"));
+
+    // The receiver current from the volts across its 250 Ω resistor: 3.10 V / 250 Ω
+    // = 12.40 mA (Ohm's law), so the same path across the pair.
     let values = BTreeMap::from([
         (Measurement::TxMa, 12.0),
-        (Measurement::ResistorV, 2.95),
+        (Measurement::ResistorV, 3.1),
         (Measurement::ResistorOhms, 250.0),
+        (Measurement::TerminalV, 22.0),
     ]);
     let done = Evaluation::LeakageFromResistor
         .evaluate(&tag, &values, &Settings::default())
         .unwrap();
-    assert_eq!(done.outcome, "leak");
+    assert_eq!(done.outcome, "across-pair");
+    assert_eq!(done.findings[0].code, "leak-across-pair");
+    close(
+        done.findings[0].detail["leak_path_kohm"].as_f64().unwrap(),
+        55.0,
+        1e-6,
+        "path from the resistor volts, kΩ",
+    );
+}
+
+#[test]
+fn current_leaving_the_loop_to_earth_makes_the_receiver_read_less() {
+    let tag = lt101();
+    // The transmitter regulates 12.00 mA. The return conductor touches earth through
+    // 10 kΩ between it and the 250 Ω receiver; the supply's negative is earthed, so the
+    // receiver and the fault share the current back to it in inverse ratio to their
+    // resistance (cable neglected): I_rx = 12.00 × 10 000 / (10 000 + 250) = 11.707 mA, and
+    // 12.00 − 11.707 = 0.293 mA goes through earth (current divider).
+    let rx = 12.0 * 10_000.0 / (10_000.0 + 250.0);
+    close(rx, 11.707_317, 1e-6, "worked receiver current");
+    let f = evaluate::leakage(&tag, 12.0, rx, 0.05, Some(22.0)).unwrap();
+    assert_eq!(f.outcome, "to-earth");
+    close(f.difference_ma, 12.0 - rx, 1e-9, "tx − rx");
+    // 0.293 mA of the 16 mA span is 1.83 %.
+    close(
+        f.difference_pct,
+        (12.0 - rx) / 16.0 * 100.0,
+        1e-9,
+        "% of span",
+    );
+    // The path's resistance needs the volts from that conductor to earth at the fault
+    // (here 11.707 mA × 250 Ω = 2.93 V), which the leakage step does not measure: the
+    // terminal volts do not size a path to earth, so nothing is worked out.
+    assert_eq!(f.leak_path_kohm, None);
+    assert!(f
+        .text
+        .starts_with("The receiver reads less than the transmitter sends"));
+    assert!(f.text.contains("to earth"), "{}", f.text);
+    assert!(
+        f.text.contains("is not worked out") && f.text.contains("not measured here"),
+        "{}",
+        f.text
+    );
+    assert!(f.text.contains("negative earthed"), "{}", f.text);
+    assert!(!f.text.contains("kΩ"), "{}", f.text);
+    let done = Evaluation::Leakage
+        .evaluate(
+            &tag,
+            &BTreeMap::from([(Measurement::TxMa, 12.0), (Measurement::RxMa, 11.7)]),
+            &Settings::default(),
+        )
+        .unwrap();
+    assert_eq!(done.outcome, "to-earth");
+    assert_eq!(done.findings[0].code, "leak-to-earth");
+}
+
+#[test]
+fn currents_within_the_meter_allowance_match() {
+    let tag = lt101();
+    // 12.00 and 12.03 mA differ by 0.03 mA, inside a 0.05 mA allowance for two handheld
+    // readings (rule of thumb, from memory).
+    let f = evaluate::leakage(&tag, 12.0, 12.03, 0.05, Some(22.0)).unwrap();
+    assert_eq!(f.outcome, "match");
+    assert_eq!(f.leak_path_kohm, None);
+    assert_eq!(
+        evaluate::leakage(&tag, 12.0, 11.97, 0.05, None)
+            .unwrap()
+            .outcome,
+        "match"
+    );
+    // Just outside it, either way.
+    assert_eq!(
+        evaluate::leakage(&tag, 12.0, 12.06, 0.05, None)
+            .unwrap()
+            .outcome,
+        "across-pair"
+    );
+    assert_eq!(
+        evaluate::leakage(&tag, 12.0, 11.94, 0.05, None)
+            .unwrap()
+            .outcome,
+        "to-earth"
+    );
+    // Bad terminal volts are named, not used.
+    assert_eq!(
+        evaluate::leakage(&tag, 12.0, 12.4, 0.05, Some(-3.0))
+            .unwrap_err()
+            .field,
+        "terminal_v"
+    );
+}
+
+#[test]
+fn the_shield_advice_tells_a_floating_end_from_a_double_bond() {
+    let tag = lt101();
+    let run = |v: f64| {
+        Evaluation::ShieldNoise
+            .evaluate(
+                &tag,
+                &BTreeMap::from([(Measurement::ShieldAcV, v)]),
+                &Settings::default(),
+            )
+            .unwrap()
+    };
+    // 6 V AC at the floating end, over the 1 V default limit (rule of thumb).
+    let noisy = run(6.0);
+    assert_eq!(noisy.outcome, "noisy");
+    let text = &noisy.findings[0].text;
+    assert!(text.contains("close to 0 V at either end"), "{text}");
+    assert!(text.contains("not a double bond"), "{text}");
+    assert!(text.contains("difference in earth potential"), "{text}");
+    assert!(
+        !text.contains("grounded at both ends (a ground loop)"),
+        "the old advice is gone: {text}"
+    );
+    // 0.2 V: quiet, and a shield bonded at both ends would read as little.
+    let quiet = run(0.2);
+    assert_eq!(quiet.outcome, "quiet");
+    let text = &quiet.findings[0].text;
+    assert!(text.contains("does not rule out a ground loop"), "{text}");
+    assert!(
+        text.contains("clamp an AC current meter on the shield") && text.contains("lift one end"),
+        "{text}"
+    );
 }
 
 // ---------------------------------------------------------------- readings that disagree
@@ -732,4 +884,404 @@ fn indicator_and_control_system_disagree() {
         .findings
         .iter()
         .any(|f| f.code == "different-range" && f.text.contains("16.000 bar")));
+}
+
+// ---------------------------------------------------------------- leakage in the procedures
+
+#[test]
+fn control_system_reads_high_through_a_wet_junction_box() {
+    // PT-204, raw pump 2 discharge, 0–10 bar. The transmitter sends 12.00 mA (5 bar) and
+    // the local indicator agrees; the control system shows 5.25 bar. At the marshalling
+    // the receiver gets 12.40 mA; 22 V across the transmitter's terminals.
+    // Worked by hand: 12.40 mA is (12.40 − 4) / 16 × 10 = 5.25 bar, so the control system
+    // reads its current right; the extra 0.40 mA comes through a path across the pair of
+    // 22 V / 0.40 mA = 55 kΩ (Ohm's law).
+    let tag = Tag::new("PT-204", Scale::linear(0.0, 10.0, "bar").unwrap()).unwrap();
+    let p = procedure::find("disagree", &[]).unwrap();
+    let mut s = Session::start(&p, &tag);
+    answer(&mut s, &p, &tag, &[(Measurement::TxMa, 12.0)]);
+    assert_eq!(
+        answer(
+            &mut s,
+            &p,
+            &tag,
+            &[
+                (Measurement::Displayed, 5.0),
+                (Measurement::ControlValue, 5.25)
+            ]
+        ),
+        Progress::Next("control-current".to_string())
+    );
+    assert_eq!(
+        answer(&mut s, &p, &tag, &[(Measurement::RxMa, 12.4)]),
+        Progress::Next("across-pair-volts".to_string())
+    );
+    // The step that sizes the path reminds to move the red lead first.
+    let step = p.step("across-pair-volts").unwrap();
+    assert!(step.cautions.iter().any(|c| c.contains(METER_LEAD)));
+    match answer(&mut s, &p, &tag, &[(Measurement::TerminalV, 22.0)]) {
+        Progress::Concluded(c) => {
+            assert_eq!(c.step, "across-pair");
+            assert!(c.text.contains("receiver reads more"), "{}", c.text);
+            assert!(c
+                .cautions
+                .iter()
+                .any(|c| c.contains("insulation-resistance test")));
+        }
+        other => panic!("{other:?}"),
+    }
+    let outcomes: Vec<&str> = s.steps.iter().map(|r| r.outcome.as_str()).collect();
+    assert_eq!(
+        outcomes,
+        vec!["in-range", "control-wrong", "across-pair", "across-pair"]
+    );
+    let sized = s
+        .findings()
+        .iter()
+        .rfind(|f| f.code == "leak-across-pair")
+        .unwrap();
+    assert_eq!(sized.step, "across-pair-volts");
+    close(
+        sized.detail["leak_path_kohm"].as_f64().unwrap(),
+        55.0,
+        1e-9,
+        "path, kΩ",
+    );
+    assert!(sized.text.contains("roughly 55.0 kΩ"), "{}", sized.text);
+    // The saved record keeps the cautions each step showed.
+    let json: serde_json::Value = serde_json::from_str(&s.to_json().unwrap()).unwrap();
+    assert!(json["steps"][3]["cautions"][0]
+        .as_str()
+        .unwrap()
+        .contains(METER_LEAD));
+    assert!(json["conclusion"]["cautions"].as_array().unwrap().len() >= 2);
+}
+
+#[test]
+fn control_system_reads_low_through_an_earth_fault() {
+    // PT-204 again: 12.00 mA sent, the control system shows 4.8125 bar, which is
+    // 4 + 4.8125 / 10 × 16 = 11.70 mA; 11.70 mA at the marshalling. 0.30 mA leaves the
+    // loop between them: a path to earth, which the procedure does not size.
+    let tag = Tag::new("PT-204", Scale::linear(0.0, 10.0, "bar").unwrap()).unwrap();
+    let p = procedure::find("disagree", &[]).unwrap();
+    let mut s = Session::start(&p, &tag);
+    answer(&mut s, &p, &tag, &[(Measurement::TxMa, 12.0)]);
+    answer(
+        &mut s,
+        &p,
+        &tag,
+        &[
+            (Measurement::Displayed, 5.0),
+            (Measurement::ControlValue, 4.8125),
+        ],
+    );
+    match answer(&mut s, &p, &tag, &[(Measurement::RxMa, 11.7)]) {
+        Progress::Concluded(c) => {
+            assert_eq!(c.step, "to-earth");
+            assert!(c.text.contains("receiver reads less"), "{}", c.text);
+            assert!(c.text.contains("supply's positive output"), "{}", c.text);
+            assert!(c.text.contains("each conductor to earth"), "{}", c.text);
+            assert!(c.text.contains("shield"), "{}", c.text);
+        }
+        other => panic!("{other:?}"),
+    }
+    let f = s.findings().last().unwrap();
+    assert_eq!(f.code, "leak-to-earth");
+    assert!(f.detail["leak_path_kohm"].is_null());
+}
+
+#[test]
+fn every_leakage_step_branches_on_where_the_path_is() {
+    for p in procedure::builtin().unwrap() {
+        for step in &p.steps {
+            if let StepKind::Measure {
+                evaluate: Some(Evaluation::Leakage | Evaluation::LeakageFromResistor),
+                next,
+                ..
+            } = &step.kind
+            {
+                let to = |o: &str| next.get(o).or_else(|| next.get("otherwise")).unwrap();
+                if step.id == "across-pair-volts" {
+                    assert_eq!(to("across-pair"), "across-pair", "{}", p.id);
+                    continue;
+                }
+                assert_eq!(
+                    to("across-pair"),
+                    "across-pair-volts",
+                    "{}/{}",
+                    p.id,
+                    step.id
+                );
+                assert_eq!(to("to-earth"), "to-earth", "{}/{}", p.id, step.id);
+                let across = p.step("across-pair").unwrap();
+                let earth = p.step("to-earth").unwrap();
+                match (&across.kind, &earth.kind) {
+                    (StepKind::Conclusion { text: a }, StepKind::Conclusion { text: e }) => {
+                        assert!(a.contains("reads more"), "{}: {a}", p.id);
+                        assert!(e.contains("reads less"), "{}: {e}", p.id);
+                    }
+                    other => panic!("{}: {other:?}", p.id),
+                }
+            }
+        }
+    }
+}
+
+/// A session saved by an earlier loopside, before the leakage outcomes said where the path
+/// is: steady-wrong on LT-101, 12.00 mA sent and 11.80 mA received, outcome `leak`,
+/// finding `leakage` with the path worked out as 18 V / 0.20 mA = 90 kΩ.
+const OLD_LEAK_SESSION: &str = r#"{
+  "procedure": "steady-wrong", "symptom": "steady-wrong", "title": "Reading steady but wrong",
+  "tag": "LT-101", "cautions": ["Breaking or forcing this loop moves whatever it controls or trips: tell operations first."],
+  "settings": {"meter_tolerance_ma": 0.05, "shield_ac_limit_v": 1.0},
+  "current": null,
+  "steps": [
+    {"step": "tx-current", "instruction": "At the transmitter, measure the loop current.", "measured": {"tx_ma": {"value": 12.0, "unit": "mA"}}, "answer": null, "outcome": "in-range"},
+    {"step": "display", "instruction": "Read the value the receiver shows.", "measured": {"displayed": {"value": 2.0, "unit": "m"}}, "answer": null, "outcome": "unexplained"},
+    {"step": "rx-current", "instruction": "At the receiver end of the cable, measure the loop current the same way.", "measured": {"rx_ma": {"value": 11.8, "unit": "mA"}}, "answer": null, "outcome": "leak"}
+  ],
+  "measurements": {"tx_ma": {"value": 12.0, "unit": "mA"}, "rx_ma": {"value": 11.8, "unit": "mA"}, "displayed": {"value": 2.0, "unit": "m"}},
+  "findings": [
+    {"step": "rx-current", "code": "leakage", "text": "Leakage: the transmitter sends 12.000 mA but 11.800 mA reaches the receiver. At the transmitter's 18.00 V that is a path of roughly 90.0 kΩ.",
+     "detail": {"tx_ma": 12.0, "rx_ma": 11.8, "difference_ma": 0.2, "difference_pct": 1.25, "meter_tolerance_ma": 0.05, "leak_path_kohm": 90.0, "outcome": "leak", "text": "Leakage: …"}}
+  ],
+  "conclusion": {"step": "leak", "text": "Current is lost between the transmitter and the receiver."},
+  "technician_conclusion": "Water in JB-02; dried and resealed."
+}"#;
+
+#[test]
+fn an_old_session_is_read_by_the_direction_it_measured() {
+    let p = procedure::find("steady-wrong", &[]).unwrap();
+    let s = Session::resume(OLD_LEAK_SESSION, &p).unwrap();
+    // The receiver read less than the transmitter: today that is `to-earth`.
+    assert_eq!(s.steps[2].outcome, "to-earth");
+    assert_eq!(
+        s.steps[0].outcome, "in-range",
+        "other outcomes as they were"
+    );
+    let f = &s.findings[0];
+    assert_eq!(f.code, "leak-to-earth");
+    assert_eq!(f.detail["outcome"], "to-earth");
+    // What was measured is kept as it was …
+    assert_eq!(s.measurements[&Measurement::TxMa].value, 12.0);
+    assert_eq!(s.measurements[&Measurement::RxMa].value, 11.8);
+    assert_eq!(f.detail["tx_ma"], 12.0);
+    assert_eq!(f.detail["rx_ma"], 11.8);
+    // … and so is what the technician was shown, with a marked note after it.
+    assert!(f
+        .text
+        .starts_with("Leakage: the transmitter sends 12.000 mA"));
+    assert!(
+        f.text.contains("[Note added when this record was read"),
+        "{}",
+        f.text
+    );
+    assert!(f.text.contains("receiver read less"), "{}", f.text);
+    // The 90 kΩ was worked out as if the path were across the pair: it is not kept as
+    // a path resistance, only quoted in the note.
+    assert!(f.detail["leak_path_kohm"].is_null());
+    assert!(f.text.contains("The 90.0 kΩ worked out then"), "{}", f.text);
+    assert_eq!(
+        s.technician_conclusion,
+        "Water in JB-02; dried and resealed."
+    );
+    // Saved again, it stays mapped and the note is not added twice.
+    let again = Session::resume(&s.to_json().unwrap(), &p).unwrap();
+    assert_eq!(again, s);
+
+    // An old `extra-current` record (receiver 12.30 mA, more than the 12.00 mA sent) is
+    // read as a path across the pair; its numbers stay, and no path is invented.
+    let old = OLD_LEAK_SESSION
+        .replace("\"value\": 11.8", "\"value\": 12.3")
+        .replace("\"rx_ma\": 11.8", "\"rx_ma\": 12.3")
+        .replace("\"difference_ma\": 0.2", "\"difference_ma\": -0.3")
+        .replace("\"leak_path_kohm\": 90.0", "\"leak_path_kohm\": null")
+        .replace("\"outcome\": \"leak\"", "\"outcome\": \"extra-current\"")
+        .replace("\"code\": \"leakage\"", "\"code\": \"extra-current\"");
+    let s = Session::resume(&old, &p).unwrap();
+    assert_eq!(s.steps[2].outcome, "across-pair");
+    let f = &s.findings[0];
+    assert_eq!(f.code, "leak-across-pair");
+    assert_eq!(f.detail["outcome"], "across-pair");
+    assert_eq!(f.detail["rx_ma"], 12.3);
+    assert!(f.detail["leak_path_kohm"].is_null());
+    assert!(f.text.contains("receiver read more"), "{}", f.text);
+}
+
+// ---------------------------------------------------------------- safe wording
+
+/// The words of the reminder after a current measurement.
+const METER_LEAD: &str = "red lead back to the V socket";
+
+fn takes_current(m: &Measurement) -> bool {
+    matches!(
+        m,
+        Measurement::TxMa | Measurement::RxMa | Measurement::SwingMa
+    )
+}
+
+fn takes_volts_or_ohms(m: &Measurement) -> bool {
+    matches!(
+        m,
+        Measurement::SupplyV
+            | Measurement::TerminalV
+            | Measurement::ResistorV
+            | Measurement::ShieldAcV
+            | Measurement::LoopOhms
+    )
+}
+
+/// Steps that measure volts or ohms after a current was measured on some path to them,
+/// and that do not remind to move the red lead.
+fn missing_meter_lead_reminders(p: &Procedure) -> Vec<String> {
+    let mut missing = Vec::new();
+    // Every path from the start: (step, a current was measured before it).
+    let mut stack = vec![(p.start.clone(), false)];
+    let mut seen = std::collections::BTreeSet::new();
+    while let Some((id, after_current)) = stack.pop() {
+        if !seen.insert((id.clone(), after_current)) {
+            continue;
+        }
+        let step = p.step(&id).unwrap();
+        let ms = step.measurements();
+        if after_current
+            && ms.iter().any(takes_volts_or_ohms)
+            && !step.cautions.iter().any(|c| c.contains(METER_LEAD))
+        {
+            missing.push(format!("{}/{}", p.id, id));
+        }
+        let now = after_current || ms.iter().any(takes_current);
+        stack.extend(step.targets().into_iter().map(|t| (t.to_string(), now)));
+    }
+    missing.sort();
+    missing.dedup();
+    missing
+}
+
+#[test]
+fn every_voltage_step_after_a_current_step_reminds_to_move_the_red_lead() {
+    // A meter left on its mA socket is a near short: put across terminals to read volts,
+    // it shorts the loop (common practice).
+    let mut checked = 0;
+    for p in procedure::builtin().unwrap() {
+        assert_eq!(missing_meter_lead_reminders(&p), Vec::<String>::new());
+        checked += p
+            .steps
+            .iter()
+            .filter(|s| s.cautions.iter().any(|c| c.contains(METER_LEAD)))
+            .count();
+    }
+    assert!(checked >= 10, "only {checked} reminders");
+    // The check itself finds a step without it.
+    let text = minimal(serde_json::json!([
+        {"id": "a", "instruction": "Measure the current.", "measure": ["tx_ma"], "next": {"otherwise": "b"}},
+        {"id": "b", "instruction": "Measure the terminal volts.", "measure": ["terminal_v"], "next": {"otherwise": "z"}},
+        {"id": "z", "conclusion": "end"}
+    ]));
+    assert_eq!(
+        missing_meter_lead_reminders(&Procedure::from_json(&text).unwrap()),
+        vec!["test/b"]
+    );
+}
+
+/// Every built-in step's text (instruction, question or conclusion) with its cautions.
+fn builtin_steps() -> Vec<(String, String, Vec<String>)> {
+    let mut all = Vec::new();
+    for p in procedure::builtin().unwrap() {
+        for s in &p.steps {
+            let mut text = s.instruction.clone();
+            match &s.kind {
+                StepKind::Question { question, .. } => text.push_str(&format!(" {question}")),
+                StepKind::Conclusion { text: c } => text.push_str(&format!(" {c}")),
+                StepKind::Measure { .. } => {}
+            }
+            all.push((format!("{}/{}", p.id, s.id), text, s.cautions.clone()));
+        }
+    }
+    all
+}
+
+#[test]
+fn the_first_current_reading_keeps_the_loop_closed_where_it_can() {
+    for p in procedure::builtin().unwrap() {
+        let first = p.step(&p.start).unwrap();
+        assert_eq!(first.measurements()[0], Measurement::TxMa, "{}", p.id);
+        let i = &first.instruction;
+        assert!(
+            i.contains("test terminals") && i.contains("the loop stays closed"),
+            "{}: {i}",
+            p.id
+        );
+        assert!(i.contains("in manual or bypassed first"), "{}: {i}", p.id);
+        assert!(i.contains("clamp-on mA meter"), "{}: {i}", p.id);
+        assert!(
+            first.cautions.iter().any(|c| c.contains("flameproof")),
+            "{}",
+            p.id
+        );
+    }
+    for (id, text, _) in builtin_steps() {
+        assert!(
+            !text.contains("open the loop at the transmitter's test terminals"),
+            "{id}"
+        );
+    }
+}
+
+#[test]
+fn cautions_are_at_the_step_that_asks_for_the_risky_thing() {
+    let mut counted = BTreeMap::new();
+    let mut missing = Vec::new();
+    for (id, text, cautions) in builtin_steps() {
+        let lower = text.to_lowercase();
+        let has = |words: &str| cautions.iter().any(|c| c.contains(words));
+        let mut need = |rule: &'static str, asks: bool, ok: bool| {
+            if asks {
+                *counted.entry(rule).or_insert(0) += 1;
+                if !ok {
+                    missing.push(format!("{id} asks for {rule} without its caution: {text}"));
+                }
+            }
+        };
+        // Opening a field housing: the terminals, a junction box, the housing itself.
+        need(
+            "a field housing opened",
+            lower.contains("junction box")
+                || lower.contains("housing")
+                || lower.contains("transmitter's terminals")
+                || lower.contains("terminals at the transmitter")
+                || (lower.contains("test terminals") && lower.contains("at the transmitter"))
+                || lower.contains("every terminal"),
+            has("flameproof") && has("gas-free permit"),
+        );
+        // Isolating, venting or equalising, or a calibrator on the process input.
+        need(
+            "the transmitter isolated or vented",
+            lower.contains("calibrator")
+                || lower.contains("equalis")
+                || lower.contains("isolating valve")
+                || lower.contains("impulse line")
+                || lower.contains("process connection")
+                || lower.contains("transmitter check")
+                || lower.contains("five-point check"),
+            has("equalising valve") && has("both block valves") && has("trapped pressure"),
+        );
+        // An insulation-resistance test.
+        need(
+            "an insulation test",
+            lower.contains("insulation-test") || lower.contains("insulation test"),
+            has("disconnect the transmitter, the receiver input, barriers, isolators and surge protectors")
+                && has("instrument cable")
+                && has("permit"),
+        );
+        // The polling address changed.
+        need(
+            "a changed polling address",
+            lower.contains("address") && (lower.contains("set it") || lower.contains("change")),
+            has("4 mA") && has("manual"),
+        );
+    }
+    assert!(missing.is_empty(), "{missing:#?}");
+    // Each rule was met somewhere (the rules are not vacuous).
+    assert_eq!(counted.len(), 4, "{counted:?}");
 }

@@ -89,10 +89,24 @@ fn started() -> App {
 fn stuck_low_walked_through_the_screen_to_a_starved_transmitter() {
     let app = started();
     let a = app.window.global::<FaultAdapter>();
+    // The first step's cautions are on the screen with it.
+    assert!(shows(&app, "Take care at this step"));
+    let first: Vec<String> = a
+        .get_step_cautions()
+        .iter()
+        .map(|c| c.to_string())
+        .collect();
+    assert!(first.iter().any(|c| c.contains("flameproof")), "{first:?}");
+    assert!(shows(&app, &format!("! {}", first[0])));
     // LT-101 sits at 3.5 mA: a downscale failure signal (NE 43).
     type_into(&app, "Loop current at the transmitter", "3,5");
     tap(&app, "Next");
     assert_eq!(a.get_error_text(), "");
+    // Volts next: the meter-lead reminder is shown at this step.
+    assert!(a
+        .get_step_cautions()
+        .iter()
+        .any(|c| c.contains("red lead back to the V socket")));
     assert!(shows(&app, "Loop current at the transmitter: 3.500 mA"));
     assert!(shows(&app, "Failure signal, downscale"));
     // The next step asks for two voltages. Typing key by key updates the field's row in
@@ -134,6 +148,12 @@ fn stuck_low_walked_through_the_screen_to_a_starved_transmitter() {
     assert!(conclusion.starts_with("The transmitter does not get its minimum voltage"));
     assert!(shows(&app, &format!("Conclusion. {conclusion}")));
     assert_eq!(a.get_conclusion_kind(), 3, "it points at a fault");
+    // Taking resistance out means opening the loop: its caution is shown with it.
+    assert!(a
+        .get_conclusion_cautions()
+        .iter()
+        .any(|c| c.contains("in manual or bypassed")));
+    assert!(shows(&app, "Take care doing this"));
 }
 
 #[test]

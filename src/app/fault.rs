@@ -456,6 +456,8 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
         a.set_inputs(model(Vec::new()));
         a.set_findings(model(Vec::new()));
         a.set_conclusion_detail("".into());
+        a.set_step_cautions(model(Vec::new()));
+        a.set_conclusion_cautions(model(Vec::new()));
         return;
     };
     let v = fv::view(&run.procedure, &run.session, &run.tag, &typed(f));
@@ -479,6 +481,9 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
         Some(c) => {
             a.set_step_number(c.number as i32);
             a.set_step_instruction(c.instruction.clone().into());
+            a.set_step_cautions(model(
+                c.cautions.iter().map(|t| t.as_str().into()).collect(),
+            ));
             a.set_question(c.question.clone().unwrap_or_default().into());
             a.set_known(model(c.known.iter().map(|k| k.clone().into()).collect()));
             a.set_inputs(model(c.inputs.iter().map(map_input).collect()));
@@ -486,6 +491,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
         None => {
             a.set_step_number(0);
             a.set_step_instruction("".into());
+            a.set_step_cautions(model(Vec::new()));
             a.set_question("".into());
             a.set_known(model(Vec::new()));
             a.set_inputs(model(Vec::new()));
@@ -505,7 +511,13 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
             a.set_conclusion_title(c.title.clone().into());
             a.set_conclusion_detail(c.detail.clone().into());
             a.set_conclusion_kind(c.tone.code());
+            a.set_conclusion_cautions(model(
+                c.cautions.iter().map(|t| t.as_str().into()).collect(),
+            ));
         }
-        None => a.set_conclusion_detail("".into()),
+        None => {
+            a.set_conclusion_detail("".into());
+            a.set_conclusion_cautions(model(Vec::new()));
+        }
     }
 }

@@ -458,6 +458,7 @@ fn report_lines(session: &Session) -> Vec<String> {
     if let Some(c) = &session.conclusion {
         lines.push(String::new());
         lines.push(format!("Conclusion: {}", c.text));
+        lines.extend(c.cautions.iter().map(|c| format!("  ! {c}")));
     }
     if !session.technician_conclusion.is_empty() {
         lines.push(format!("Technician: {}", session.technician_conclusion));
@@ -503,7 +504,9 @@ fn interactive(
     print_lines(out, &lines)?;
     let mut shown = 0;
     while let Some(step) = session.current_step(procedure) {
-        print_lines(out, &[String::new(), format!("» {}", step.instruction)])?;
+        let mut shown_step = vec![String::new(), format!("» {}", step.instruction)];
+        shown_step.extend(step.cautions.iter().map(|c| format!("  ! {c}")));
+        print_lines(out, &shown_step)?;
         let answer = match &step.kind {
             StepKind::Question { question, .. } => loop {
                 prompt(out, &format!("  {question} (yes/no): "))?;
@@ -534,7 +537,9 @@ fn interactive(
         shown = session.findings.len();
     }
     if let Some(c) = &session.conclusion {
-        print_lines(out, &[String::new(), format!("Conclusion: {}", c.text)])?;
+        let mut shown_end = vec![String::new(), format!("Conclusion: {}", c.text)];
+        shown_end.extend(c.cautions.iter().map(|c| format!("  ! {c}")));
+        print_lines(out, &shown_end)?;
     }
     prompt(out, "Your own conclusion (optional, Enter to skip): ")?;
     let mut line = String::new();

@@ -77,8 +77,10 @@ impl Settings {
 }
 
 /// One finding, ready for the log: a stable code, plain words with numbers, and the typed
-/// detail as JSON.
+/// detail as JSON. A finding saved under an old leakage code is read with today's code
+/// (see [`OLD_LEAKAGE_CODES`]).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(from = "StoredFinding")]
 pub struct Finding {
     /// The step that produced it (filled in by the session).
     #[serde(default)]
@@ -89,6 +91,102 @@ pub struct Finding {
     pub text: String,
     /// The computed values.
     pub detail: serde_json::Value,
+}
+
+/// A finding as stored, before old leakage codes are mapped.
+#[derive(Deserialize)]
+struct StoredFinding {
+    #[serde(default)]
+    step: String,
+    code: String,
+    text: String,
+    detail: serde_json::Value,
+}
+
+/// Leakage outcome ids of records saved before the outcomes said where the path is, with
+/// the id each is read as today.
+///
+/// The old ids named the physics backwards: `leak` was given when the receiver read *less*
+/// than the transmitter, and its words blamed a path across the pair; `extra-current` when
+/// the receiver read *more*, and its words blamed an outside source. What such a record
+/// keeps for certain is the measurement — which way the currents differed — so the id is
+/// mapped by that direction, not by the old words: receiver less → `to-earth`, receiver
+/// more → `across-pair`.
+pub const OLD_LEAKAGE_OUTCOMES: [(&str, &str); 2] =
+    [("leak", "to-earth"), ("extra-current", "across-pair")];
+
+/// Leakage finding codes of old records and the code each is read as today, mapped by the
+/// direction measured as in [`OLD_LEAKAGE_OUTCOMES`]: `leakage` (receiver less) →
+/// `leak-to-earth`, `extra-current` (receiver more) → `leak-across-pair`.
+pub const OLD_LEAKAGE_CODES: [(&str, &str); 2] = [
+    ("leakage", "leak-to-earth"),
+    ("extra-current", "leak-across-pair"),
+];
+
+/// Today's id for an outcome saved under an old leakage id; any other id as it is.
+pub fn current_outcome_id(outcome: &str) -> &str {
+    OLD_LEAKAGE_OUTCOMES
+        .iter()
+        .find(|(old, _)| *old == outcome)
+        .map_or(outcome, |(_, new)| new)
+}
+
+impl From<StoredFinding> for Finding {
+    /// Reads an old leakage finding under today's code. The recorded measurements and
+    /// text stay as they were (the text is what the technician was shown); a marked note
+    /// is added that says what the direction measured means. An old `leakage` record's
+    /// path resistance was worked out as if the path were across the pair, which a
+    /// receiver reading less does not show, so it is taken out of the detail and quoted
+    /// in the note instead.
+    fn from(stored: StoredFinding) -> Finding {
+        let StoredFinding {
+            step,
+            code,
+            mut text,
+            mut detail,
+        } = stored;
+        let Some((_, new_code)) = OLD_LEAKAGE_CODES.iter().find(|(old, _)| *old == code) else {
+            return Finding {
+                step,
+                code,
+                text,
+                detail,
+            };
+        };
+        if let Some(obj) = detail.as_object_mut() {
+            if let Some(o) = obj.get("outcome").and_then(|o| o.as_str()) {
+                let mapped = current_outcome_id(o).to_string();
+                obj.insert("outcome".to_string(), serde_json::Value::String(mapped));
+            }
+        }
+        let note = if *new_code == "leak-to-earth" {
+            let old_path = detail
+                .get_mut("leak_path_kohm")
+                .map(serde_json::Value::take)
+                .and_then(|v| v.as_f64());
+            let dropped = match old_path {
+                Some(k) => format!(
+                    " The {} kΩ worked out then assumed a path across the pair and does not apply.",
+                    display::fixed(k, 1)
+                ),
+                None => String::new(),
+            };
+            format!(
+                " [Note added when this record was read: it was saved before loopside corrected the leakage direction. The receiver read less than the transmitter, which points to current leaving the loop to earth between them (or a device fed from the loop), not to a path across the pair.{dropped} {LEAKAGE_ASSUMED_LOOP}]"
+            )
+        } else {
+            format!(
+                " [Note added when this record was read: it was saved before loopside corrected the leakage direction. The receiver read more than the transmitter, which points to a path across the pair in parallel with the transmitter (moisture, a surge protector, damaged insulation), not to an outside source. {LEAKAGE_ASSUMED_LOOP}]"
+            )
+        };
+        text.push_str(&note);
+        Finding {
+            step,
+            code: new_code.to_string(),
+            text,
+            detail,
+        }
+    }
 }
 
 impl Finding {
@@ -228,7 +326,7 @@ impl Evaluation {
             Evaluation::Supply => &["no-supply", "low", "ok"],
             Evaluation::TerminalVolts => &["none", "not-enough", "short-at-top", "enough"],
             Evaluation::Leakage | Evaluation::LeakageFromResistor => {
-                &["match", "leak", "extra-current"]
+                &["match", "across-pair", "to-earth"]
             }
             Evaluation::DisplayMismatch | Evaluation::TransmitterMismatch => {
                 &["agrees", "explained", "unexplained"]
@@ -327,8 +425,8 @@ impl Evaluation {
                     outcome: f.outcome,
                     findings: vec![Finding::new(
                         match f.outcome {
-                            "leak" => "leakage",
-                            "extra-current" => "extra-current",
+                            "across-pair" => "leak-across-pair",
+                            "to-earth" => "leak-to-earth",
                             _ => "currents-match",
                         },
                         f.text.clone(),
@@ -398,13 +496,13 @@ impl Evaluation {
                 let noisy = v > settings.shield_ac_limit_v;
                 let text = if noisy {
                     format!(
-                        "{} AC from shield to ground is above the {} limit: the shield is picking up interference or is grounded at both ends (a ground loop). Ground the shield at one end only (usually the receiver end), keep the pair away from power cables and drive outputs, and check the shield is continuous through every junction box.",
+                        "{} AC from shield to earth is above the {} limit. A shield bonded to earth at both ends reads close to 0 V at either end, so this is not a double bond: the shield is not bonded where it was measured (its floating end, or a bond that is broken), and the voltage is a difference in earth potential between the two ends or interference picked up along the cable. Check that the shield is bonded at one end (usually the receiver end) with a sound connection, continuous through every junction box and touching earth nowhere else, and keep the pair away from power cables and drive outputs.",
                         display::volts(v),
                         display::volts(settings.shield_ac_limit_v)
                     )
                 } else {
                     format!(
-                        "{} AC from shield to ground is within the {} limit: no sign of induced interference on the shield.",
+                        "{} AC from shield to earth is within the {} limit: no sign of interference picked up on the shield. A shield bonded at both ends also reads close to 0 V, so this does not rule out a ground loop: to find one, clamp an AC current meter on the shield, or lift one end of it and see whether the noise changes.",
                         display::volts(v),
                         display::volts(settings.shield_ac_limit_v)
                     )
@@ -860,28 +958,51 @@ pub fn terminal_volts(
     })
 }
 
-/// Transmitter current against receiver current.
+/// The loop the leakage evaluation assumes, in words: its findings hold for this case
+/// only.
+pub const LEAKAGE_ASSUMED_LOOP: &str = "Assumed loop: a loop-powered two-wire transmitter, the supply's negative earthed, the receiver in the return (negative) leg.";
+
+/// Transmitter current against receiver current, and where the difference goes.
+///
+/// The physics, for the loop in [`LEAKAGE_ASSUMED_LOOP`]:
+/// - a path **across the pair** between the transmitter and the receiver (moisture in a
+///   junction box, a surge protector, a device or damaged insulation between the two
+///   conductors) is in parallel with the transmitter: the receiver carries the
+///   transmitter's current *plus* the path's, so it reads **more**. The path sees about the
+///   transmitter's terminal volts, so its resistance is roughly
+///   `R ≈ V_terminal / (I_rx − I_tx)` (V / mA = kΩ);
+/// - a path **to earth** from the return conductor between the transmitter and the
+///   receiver lets part of the current go back to the earthed supply negative without
+///   passing the receiver, which reads **less**. A device fed from the loop that returns
+///   its current by another path does the same. Its resistance needs the voltage from that
+///   conductor to earth at the fault, which no built-in procedure measures, so it is not
+///   worked out.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct LeakageFinding {
     /// At the transmitter, mA.
     pub tx_ma: f64,
     /// At the receiver, mA.
     pub rx_ma: f64,
-    /// tx − rx, mA (positive = current lost on the way).
+    /// tx − rx, mA (positive = the receiver reads less, negative = it reads more).
     pub difference_ma: f64,
     /// The same, % of span.
     pub difference_pct: f64,
     /// The meter allowance used, mA.
     pub meter_tolerance_ma: f64,
-    /// Rough resistance of the leakage path, kΩ, when the terminal volts are known.
+    /// Rough resistance of a path across the pair, kΩ: the transmitter's terminal volts
+    /// over the extra current (`across-pair` with the terminal volts measured only).
     pub leak_path_kohm: Option<f64>,
-    /// `match`, `leak` or `extra-current`.
+    /// The transmitter's terminal volts used for [`Self::leak_path_kohm`], V.
+    #[serde(default)]
+    pub terminal_v: Option<f64>,
+    /// `match`, `across-pair` (receiver reads more) or `to-earth` (receiver reads less).
     pub outcome: &'static str,
     /// In words.
     pub text: String,
 }
 
-/// Compare the current leaving the transmitter with the current reaching the receiver.
+/// Compare the current leaving the transmitter with the current reaching the receiver, for
+/// the loop in [`LEAKAGE_ASSUMED_LOOP`] (see [`LeakageFinding`] for the physics).
 pub fn leakage(
     tag: &Tag,
     tx_ma: f64,
@@ -892,32 +1013,38 @@ pub fn leakage(
     let tx = Measurement::TxMa.accept(tx_ma)?;
     let rx = Measurement::RxMa.accept(rx_ma)?;
     let tol = crate::error::within("meter_tolerance_ma", meter_tolerance_ma, 0.0, 5.0)?;
+    let terminal = terminal_v
+        .map(|v| Measurement::TerminalV.accept(v))
+        .transpose()?;
     let diff = tx - rx;
     let pct = diff / tag.scale.signal.width_ma() * 100.0;
-    let outcome = if diff > tol + 1e-9 {
-        "leak"
-    } else if -diff > tol + 1e-9 {
-        "extra-current"
+    let outcome = if -diff > tol + 1e-9 {
+        "across-pair"
+    } else if diff > tol + 1e-9 {
+        "to-earth"
     } else {
         "match"
     };
-    let leak_path_kohm = match (outcome, terminal_v) {
-        ("leak", Some(v)) if v > 0.0 => Some(v / diff),
+    // Ohm's law across the path: volts / mA = kΩ.
+    let leak_path_kohm = match (outcome, terminal) {
+        ("across-pair", Some(v)) if v > 0.0 => Some(v / -diff),
         _ => None,
     };
+    let tell_apart = "To tell a path across the pair from one to earth: compare the current at the supply's positive output with both (it equals the receiver's with a path across the pair, the transmitter's with a path to earth); measure the DC volts from each conductor to earth along the route against the drawing; lift the shield's earth for a moment and see whether the difference changes (a conductor touching the shield).";
     let mut text = match outcome {
-        "leak" => format!(
-            "Leakage: the transmitter sends {} but {} reaches the receiver; {} ({} of span) takes another path between them — moisture in a junction box or gland, damaged insulation, a surge protector or a second device across the pair. Insulation-test the pair with the instruments disconnected and open the boxes along the route.",
+        "across-pair" => format!(
+            "The receiver reads more than the transmitter sends: {} at the receiver, {} at the transmitter; {} ({} of span) flows through a path across the pair between them, in parallel with the transmitter — moisture in a junction box or gland, a surge protector, a device or damaged insulation between the two conductors.",
+            display::ma(rx),
+            display::ma(tx),
+            display::ma(-diff),
+            display::percent(-pct)
+        ),
+        "to-earth" => format!(
+            "The receiver reads less than the transmitter sends: {} at the transmitter, {} at the receiver; {} ({} of span) leaves the loop between them — to earth from the return conductor (damaged insulation, water, a conductor touching the shield or a tray), or into a device fed from the loop that returns its current another way. The resistance of a path to earth is not worked out: it needs the DC volts from that conductor to earth at the fault, which is not measured here.",
             display::ma(tx),
             display::ma(rx),
             display::ma(diff),
             display::percent(pct)
-        ),
-        "extra-current" => format!(
-            "More current reaches the receiver ({}) than the transmitter sends ({}): {} comes from somewhere else — a ground fault meeting a second ground, or another powered device feeding the pair.",
-            display::ma(rx),
-            display::ma(tx),
-            display::ma(-diff)
         ),
         _ => format!(
             "The currents agree: {} at the transmitter, {} at the receiver (within ±{}): no leakage between them.",
@@ -926,12 +1053,24 @@ pub fn leakage(
             display::ma(tol)
         ),
     };
-    if let Some(k) = leak_path_kohm {
-        text.push_str(&format!(
-            " At the transmitter's {} that is a path of roughly {} kΩ.",
-            display::volts(terminal_v.unwrap_or(0.0)),
-            display::fixed(k, 1)
-        ));
+    match (outcome, leak_path_kohm) {
+        (_, Some(k)) => text.push_str(&format!(
+            " With {} across the transmitter's terminals that is a path of roughly {} kΩ ({} ÷ {}; a path nearer the receiver sees a little more voltage).",
+            display::volts(terminal.unwrap_or(0.0)),
+            display::fixed(k, 1),
+            display::volts(terminal.unwrap_or(0.0)),
+            display::ma(-diff)
+        )),
+        ("across-pair", None) => text.push_str(
+            " Measure the DC volts across the transmitter's terminals to work out the rough resistance of the path.",
+        ),
+        _ => {}
+    }
+    if outcome != "match" {
+        text.push(' ');
+        text.push_str(tell_apart);
+        text.push(' ');
+        text.push_str(LEAKAGE_ASSUMED_LOOP);
     }
     Ok(LeakageFinding {
         tx_ma: tx,
@@ -940,6 +1079,7 @@ pub fn leakage(
         difference_pct: pct,
         meter_tolerance_ma: tol,
         leak_path_kohm,
+        terminal_v: terminal,
         outcome,
         text,
     })

@@ -28,7 +28,7 @@ pub enum Measurement {
     ResistorOhms,
     /// Loop resistance with the power off and the transmitter disconnected, Ω.
     LoopOhms,
-    /// AC voltage from the cable shield to ground, V AC.
+    /// AC voltage from the cable shield to earth, V AC.
     ShieldAcV,
     /// Peak-to-peak swing of the loop current over about half a minute, mA.
     SwingMa,
@@ -93,7 +93,7 @@ impl Measurement {
             Measurement::LoopOhms => {
                 "Loop resistance, power off, transmitter disconnected (measured from the transmitter end)"
             }
-            Measurement::ShieldAcV => "AC voltage from the cable shield to ground",
+            Measurement::ShieldAcV => "AC voltage from the cable shield to earth",
             Measurement::SwingMa => {
                 "How far the loop current swings, highest minus lowest over about 30 s"
             }

@@ -11,6 +11,12 @@
 //! - **conclusion** — the end of a path: what the technician most likely has, and what to
 //!   do about it.
 //!
+//! Any step may carry `cautions`: the safety words for the risky thing that step asks for
+//! (opening the loop, opening a field housing, isolating or venting a transmitter, an
+//! insulation test, a changed polling address …). They are shown at that step, beside its
+//! instruction, and kept in the session record, so the warning is read where the work is
+//! done rather than only once at the start.
+//!
 //! Loading checks that the procedure can be followed to the end whatever is measured:
 //! names exist, every outcome has a branch and every branch can be taken, every target
 //! exists, every step can be reached from the start, there are no loops (so every path
@@ -101,6 +107,9 @@ pub struct StepFile {
     /// The end of a path: the likely cause and what to do.
     #[serde(default)]
     pub conclusion: Option<String>,
+    /// Safety cautions for what this step asks for, shown with it.
+    #[serde(default)]
+    pub cautions: Vec<String>,
 }
 
 /// What a step does.
@@ -140,6 +149,8 @@ pub struct Step {
     pub instruction: String,
     /// What kind of step.
     pub kind: StepKind,
+    /// Safety cautions for what this step asks for, shown with it (may be empty).
+    pub cautions: Vec<String>,
 }
 
 impl Step {
@@ -362,6 +373,13 @@ fn validate_step(raw: &StepFile) -> Result<Step> {
         return Err(err("step", "has an empty id"));
     }
     let field = format!("step {id}");
+    let mut cautions = Vec::with_capacity(raw.cautions.len());
+    for c in &raw.cautions {
+        if c.trim().is_empty() {
+            return Err(err(&field, "has an empty caution"));
+        }
+        cautions.push(c.trim().to_string());
+    }
     let has_measure = !raw.measure.is_empty() || raw.evaluate.is_some();
     let kinds = [
         raw.conclusion.is_some(),
@@ -390,6 +408,7 @@ fn validate_step(raw: &StepFile) -> Result<Step> {
             kind: StepKind::Conclusion {
                 text: text.trim().to_string(),
             },
+            cautions,
         });
     }
     if raw.instruction.trim().is_empty() {
@@ -411,6 +430,7 @@ fn validate_step(raw: &StepFile) -> Result<Step> {
                 yes: raw.next["yes"].trim().to_string(),
                 no: raw.next["no"].trim().to_string(),
             },
+            cautions,
         });
     }
     let mut measure = Vec::new();
@@ -500,6 +520,7 @@ fn validate_step(raw: &StepFile) -> Result<Step> {
             evaluate,
             next,
         },
+        cautions,
     })
 }
 

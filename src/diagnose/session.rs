@@ -6,8 +6,10 @@
 //! (serde JSON) when it is closed midway and calls [`Session::resume`] to carry on; when
 //! finished, the same JSON is the payload of a log entry of kind [`LOG_KIND`].
 //!
-//! The cautions are part of the session from its start, so a saved session shows what the
-//! technician was told.
+//! The cautions are part of the session from its start, and each step's own cautions are
+//! kept with its record and with the conclusion, so a saved session shows what the
+//! technician was told. A session saved with the old leakage outcome ids is read with
+//! today's (see [`super::evaluate::OLD_LEAKAGE_OUTCOMES`]).
 
 use super::evaluate::{Finding, Settings};
 use super::measure::Measurement;
@@ -37,14 +39,27 @@ pub struct StepRecord {
     pub step: String,
     /// What the technician was told to do.
     pub instruction: String,
+    /// The cautions shown with the step.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub cautions: Vec<String>,
     /// Measurements taken at this step.
     #[serde(default)]
     pub measured: BTreeMap<Measurement, Recorded>,
     /// Answer to a question step.
     #[serde(default)]
     pub answer: Option<bool>,
-    /// The outcome that chose the next step.
+    /// The outcome that chose the next step (an old leakage outcome id is read as
+    /// today's, see [`super::evaluate::OLD_LEAKAGE_OUTCOMES`]).
+    #[serde(deserialize_with = "read_outcome")]
     pub outcome: String,
+}
+
+/// Read a step's outcome, mapping the old leakage ids (`leak` → `to-earth`,
+/// `extra-current` → `across-pair`: by the direction measured, since the old names had it
+/// backwards).
+fn read_outcome<'de, D: serde::Deserializer<'de>>(d: D) -> std::result::Result<String, D::Error> {
+    let outcome = String::deserialize(d)?;
+    Ok(super::evaluate::current_outcome_id(&outcome).to_string())
 }
 
 /// The end a procedure reached.
@@ -54,6 +69,9 @@ pub struct Conclusion {
     pub step: String,
     /// Its text.
     pub text: String,
+    /// The cautions shown with it.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub cautions: Vec<String>,
 }
 
 /// What the technician gives at a step.
@@ -212,6 +230,7 @@ impl Session {
                 self.steps.push(StepRecord {
                     step: step.id.clone(),
                     instruction: step.instruction.clone(),
+                    cautions: step.cautions.clone(),
                     measured: BTreeMap::new(),
                     answer: Some(a),
                     outcome: if a { "yes" } else { "no" }.to_string(),
@@ -285,6 +304,7 @@ impl Session {
                 self.steps.push(StepRecord {
                     step: step.id.clone(),
                     instruction: step.instruction.clone(),
+                    cautions: step.cautions.clone(),
                     measured,
                     answer: None,
                     outcome,
@@ -307,6 +327,7 @@ impl Session {
             let c = Conclusion {
                 step: id,
                 text: text.clone(),
+                cautions: step.cautions.clone(),
             };
             self.conclusion = Some(c.clone());
             self.current = None;

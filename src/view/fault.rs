@@ -83,6 +83,8 @@ pub struct CurrentStep {
     pub number: usize,
     /// What to do.
     pub instruction: String,
+    /// The safety cautions for what this step asks for (may be empty).
+    pub cautions: Vec<String>,
     /// The yes/no question, for a question step.
     pub question: Option<String>,
     /// One input per measurement still needed, for a measure step.
@@ -107,6 +109,8 @@ pub struct ConclusionView {
     pub title: String,
     /// The procedure's conclusion text.
     pub detail: String,
+    /// The safety cautions for what the conclusion asks for (may be empty).
+    pub cautions: Vec<String>,
     /// Bad when a finding points at a fault; neutral otherwise.
     pub tone: Tone,
 }
@@ -165,6 +169,7 @@ pub fn view(procedure: &Procedure, session: &Session, tag: &Tag, inputs: &Inputs
         CurrentStep {
             number: done.len() + 1,
             instruction: step.instruction.clone(),
+            cautions: step.cautions.clone(),
             question,
             inputs,
             known,
@@ -182,6 +187,7 @@ pub fn view(procedure: &Procedure, session: &Session, tag: &Tag, inputs: &Inputs
     let conclusion = session.conclusion.as_ref().map(|c| ConclusionView {
         title: "Conclusion".to_string(),
         detail: c.text.clone(),
+        cautions: c.cautions.clone(),
         tone: if any_fault { Tone::Bad } else { Tone::Neutral },
     });
     SessionView {
@@ -334,8 +340,8 @@ pub fn outcome_words(outcome: &str) -> String {
         "short-at-top" => "Enough voltage now, too little at full scale",
         "enough" => "Enough voltage at the transmitter",
         "match" => "The same current at both ends",
-        "leak" => "Current is lost on the way",
-        "extra-current" => "Current is added on the way",
+        "across-pair" => "The receiver reads more: a path across the pair",
+        "to-earth" => "The receiver reads less: current leaves the loop, to earth",
         "agrees" => "The reading agrees with the loop",
         "explained" => "The reading disagrees; a setting explains it",
         "unexplained" => "The reading disagrees; no setting explains it",
@@ -466,6 +472,9 @@ mod tests {
         assert_eq!(cur.inputs[0].label, "Loop current at the transmitter");
         assert_eq!(cur.inputs[0].unit, "mA");
         assert_eq!(cur.inputs[0].error, "", "nothing typed, nothing wrong yet");
+        // The caution for what this step asks (test terminals in the transmitter's
+        // housing) is shown with it.
+        assert!(cur.cautions.iter().any(|c| c.contains("flameproof")));
 
         // A decimal comma and a unit suffix are fine.
         let inputs = typed(&[(Measurement::TxMa, "0,0 mA")]);
@@ -487,6 +496,11 @@ mod tests {
         assert_eq!(cur.inputs.len(), 1);
         assert_eq!(cur.inputs[0].measurement, Measurement::SupplyV);
         assert_eq!(cur.inputs[0].unit, "V");
+        // Volts after a current: the meter's red lead goes back to the V socket first.
+        assert!(cur
+            .cautions
+            .iter()
+            .any(|c| c.contains("red lead back to the V socket")));
 
         next(&p, &mut s, &tag, &typed(&[(Measurement::SupplyV, "24,1")]));
 
