@@ -5,12 +5,18 @@
 //! takes its share: resistors take I·R, loop-powered indicators and isolators a roughly
 //! fixed drop, and the cable I·R of both conductors. The budget is worked at the *lowest*
 //! supply (nominal minus tolerance) and at three currents: 4 mA, 20 mA and the upscale
-//! fault current (22 mA unless the tag says otherwise), because a loop that reaches 20 mA
-//! but not its fault current hides a failure from the control system.
+//! fault current, because a loop that reaches 20 mA but not its fault current hides a
+//! failure from the control system. The fault current is the device's configured value
+//! when the loop gives one, otherwise [`DEFAULT_FAULT_MA`], and the budget says which
+//! ([`Budget::fault_ma_is_default`]) so the screens can ask for the configured value.
 //!
 //! Maximum loop resistance = (supply − transmitter minimum − fixed drops) / 20 mA (common
-//! practice). A supply at or below the transmitter minimum is a valid input: the answer is
-//! "not enough", with the numbers.
+//! practice). The same figures are worked at the fault current too: the spare load and the
+//! longest cable that still leave the transmitter its minimum *at the fault current*, the
+//! ones to quote beside a verdict given at that current, since adding the 20 mA spare
+//! would starve an upscale failure. Cable lengths are by voltage only; HART and cable
+//! capacitance set their own limits. A supply at or below the transmitter minimum is a
+//! valid input: the answer is "not enough", with the numbers.
 
 use crate::error::{finite, non_negative, within, FieldError, Result};
 use crate::wire::{self, Conductor};
@@ -91,6 +97,7 @@ pub struct Cable {
 
 /// Everything about a loop's power, as entered for a tag.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(from = "StoredLoopConfig", into = "StoredLoopConfig")]
 pub struct LoopConfig {
     /// Nominal supply, V.
     pub supply_volts: f64,
@@ -105,11 +112,10 @@ pub struct LoopConfig {
     /// The field cable, if known.
     #[serde(default)]
     pub cable: Option<Cable>,
-    /// Upscale fault current the transmitter drives, mA.
-    #[serde(default = "default_fault_ma")]
-    pub fault_ma: f64,
+    /// Upscale fault current the transmitter is configured to drive, mA; `None` when
+    /// nobody gave it, and the budget then works at [`DEFAULT_FAULT_MA`] and says so.
+    pub fault_ma: Option<f64>,
     /// HART communication window, Ω (low, high).
-    #[serde(default = "default_hart_window")]
     pub hart_window_ohms: (f64, f64),
 }
 
@@ -121,6 +127,61 @@ fn default_hart_window() -> (f64, f64) {
     (HART_MIN_OHMS, HART_MAX_OHMS)
 }
 
+/// A [`LoopConfig`] as it is stored. `fault_ma` is always written as the current the
+/// budget works at, so a build from before `fault_ma_configured` reads the same loop;
+/// `fault_ma_configured` says whether a person gave it. Those older builds wrote
+/// `fault_ma` every time, 22.0 when nobody had typed one, so a record without the flag
+/// counts as configured only when its value differs from the default.
+#[derive(Serialize, Deserialize)]
+struct StoredLoopConfig {
+    supply_volts: f64,
+    #[serde(default)]
+    supply_tolerance_percent: f64,
+    tx_min_volts: f64,
+    #[serde(default)]
+    elements: Vec<SeriesElement>,
+    #[serde(default)]
+    cable: Option<Cable>,
+    #[serde(default = "default_fault_ma")]
+    fault_ma: f64,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    fault_ma_configured: Option<bool>,
+    #[serde(default = "default_hart_window")]
+    hart_window_ohms: (f64, f64),
+}
+
+impl From<StoredLoopConfig> for LoopConfig {
+    fn from(s: StoredLoopConfig) -> LoopConfig {
+        let configured = s
+            .fault_ma_configured
+            .unwrap_or(s.fault_ma != DEFAULT_FAULT_MA);
+        LoopConfig {
+            supply_volts: s.supply_volts,
+            supply_tolerance_percent: s.supply_tolerance_percent,
+            tx_min_volts: s.tx_min_volts,
+            elements: s.elements,
+            cable: s.cable,
+            fault_ma: configured.then_some(s.fault_ma),
+            hart_window_ohms: s.hart_window_ohms,
+        }
+    }
+}
+
+impl From<LoopConfig> for StoredLoopConfig {
+    fn from(c: LoopConfig) -> StoredLoopConfig {
+        StoredLoopConfig {
+            fault_ma: c.fault_current_ma(),
+            fault_ma_configured: Some(c.fault_ma.is_some()),
+            supply_volts: c.supply_volts,
+            supply_tolerance_percent: c.supply_tolerance_percent,
+            tx_min_volts: c.tx_min_volts,
+            elements: c.elements,
+            cable: c.cable,
+            hart_window_ohms: c.hart_window_ohms,
+        }
+    }
+}
+
 impl LoopConfig {
     /// A loop with a supply and a transmitter, nothing else yet.
     pub fn new(supply_volts: f64, tx_min_volts: f64) -> LoopConfig {
@@ -130,9 +191,15 @@ impl LoopConfig {
             tx_min_volts,
             elements: Vec::new(),
             cable: None,
-            fault_ma: DEFAULT_FAULT_MA,
+            fault_ma: None,
             hart_window_ohms: default_hart_window(),
         }
+    }
+
+    /// The upscale fault current the budget works at, mA: the configured one, else
+    /// [`DEFAULT_FAULT_MA`].
+    pub fn fault_current_ma(&self) -> f64 {
+        self.fault_ma.unwrap_or(DEFAULT_FAULT_MA)
     }
 
     /// Check every field; the error names the first one that is wrong.
@@ -145,7 +212,10 @@ impl LoopConfig {
             50.0,
         )?;
         within("tx_min_volts", self.tx_min_volts, 0.0, 1000.0)?;
-        within("fault_ma", self.fault_ma, 0.0, 50.0)?;
+        if let Some(ma) = self.fault_ma {
+            // Upscale: at or above the top of the signal, where the budget is tightest.
+            within("fault_ma", ma, 20.0, 50.0)?;
+        }
         for (i, e) in self.elements.iter().enumerate() {
             let field = if e.name.trim().is_empty() {
                 format!("element {}", i + 1)
@@ -213,27 +283,35 @@ impl LoopConfig {
             .sum();
         let loop_ohms = element_ohms + cable_ohms;
 
+        let fault_ma = self.fault_current_ma();
         let point = |ma: f64| self.operating_point(ma, lowest_supply, cable_ohms);
         let at_low = point(4.0);
         let at_full_scale = point(20.0);
-        let at_fault = point(self.fault_ma);
+        let at_fault = point(fault_ma);
 
         let available = lowest_supply - self.tx_min_volts - fixed_drop_volts;
-        let max_load_ohms = (available / 0.020).max(0.0);
-        let max_load_fault_ohms = (available / (self.fault_ma / 1000.0)).max(0.0);
+        // Largest loop resistance that leaves the transmitter its minimum at `ma` (≥ 20 mA,
+        // checked above).
+        let max_load_at = |ma: f64| (available / (ma / 1000.0)).max(0.0);
+        let max_load_ohms = max_load_at(20.0);
+        let max_load_fault_ohms = max_load_at(fault_ma);
         let spare_ohms = max_load_ohms - loop_ohms;
+        let spare_fault_ohms = max_load_fault_ohms - loop_ohms;
         let needed_at = |ma: f64| self.tx_min_volts + fixed_drop_volts + loop_ohms * ma / 1000.0;
         let min_supply_volts = needed_at(20.0);
-        let min_supply_fault_volts = needed_at(self.fault_ma.max(20.0));
+        let min_supply_fault_volts = needed_at(fault_ma.max(20.0));
         let derate = 1.0 - self.supply_tolerance_percent / 100.0;
         let min_nominal_supply_volts = min_supply_fault_volts / derate;
 
-        let max_cable_m = match &self.cable {
+        // Longest one-way run of this conductor whose two conductors fit in what is left
+        // of the maximum load once the other elements are counted.
+        let (max_cable_m, max_cable_fault_m) = match &self.cable {
             Some(c) => {
                 let per_m_loop = 2.0 * c.conductor.ohms_per_km(c.temp_c)? / 1000.0;
-                Some(((max_load_ohms - element_ohms) / per_m_loop).max(0.0))
+                let run = |max_load: f64| ((max_load - element_ohms) / per_m_loop).max(0.0);
+                (Some(run(max_load_ohms)), Some(run(max_load_fault_ohms)))
             }
-            None => None,
+            None => (None, None),
         };
 
         let (hart_low, hart_high) = self.hart_window_ohms;
@@ -259,7 +337,7 @@ impl LoopConfig {
             &at_full_scale,
             &at_fault,
             min_supply_fault_volts,
-            spare_ohms,
+            (spare_ohms, spare_fault_ohms),
         );
         Ok(Budget {
             lowest_supply_volts: lowest_supply,
@@ -272,10 +350,14 @@ impl LoopConfig {
             max_load_ohms,
             max_load_fault_ohms,
             spare_ohms,
+            spare_fault_ohms,
             min_supply_volts,
             min_supply_fault_volts,
             min_nominal_supply_volts,
             max_cable_m,
+            max_cable_fault_m,
+            fault_ma_is_default: self.fault_ma.is_none(),
+            supply_sag_percent: self.supply_tolerance_percent,
             ok: ok_full_scale && ok_fault,
             ok_full_scale,
             ok_fault,
@@ -323,7 +405,7 @@ impl LoopConfig {
         full: &OperatingPoint,
         fault: &OperatingPoint,
         min_supply: f64,
-        spare_ohms: f64,
+        (spare_full_ohms, spare_fault_ohms): (f64, f64),
     ) -> String {
         if supply <= self.tx_min_volts {
             return format!(
@@ -331,10 +413,12 @@ impl LoopConfig {
                 self.tx_min_volts
             );
         }
-        let tight = if fault.headroom_volts < full.headroom_volts {
-            fault
+        // The verdict is given at the tighter current, and the spare load quoted with it is
+        // the spare at that same current.
+        let (tight, spare_ohms) = if fault.headroom_volts < full.headroom_volts {
+            (fault, spare_fault_ohms)
         } else {
-            full
+            (full, spare_full_ohms)
         };
         let biggest = tight
             .parts
@@ -346,8 +430,11 @@ impl LoopConfig {
         };
         if tight.ok {
             format!(
-                "enough voltage: {:.2} V spare at {:.1} mA, {:.0} Ω of load still available; {biggest_text}",
-                tight.headroom_volts, tight.current_ma, spare_ohms.max(0.0)
+                "enough voltage: {:.2} V spare at {:.1} mA, {:.0} Ω of load still available at {:.1} mA; {biggest_text}",
+                tight.headroom_volts,
+                tight.current_ma,
+                spare_ohms.max(0.0),
+                tight.current_ma
             )
         } else {
             format!(
@@ -420,16 +507,29 @@ pub struct Budget {
     pub max_load_ohms: f64,
     /// The same at the fault current.
     pub max_load_fault_ohms: f64,
-    /// `max_load_ohms` − `loop_ohms` (negative = that much too much).
+    /// `max_load_ohms` − `loop_ohms`: load that could be added and still reach 20 mA
+    /// (negative = that much too much).
     pub spare_ohms: f64,
+    /// `max_load_fault_ohms` − `loop_ohms`: load that could be added and still reach the
+    /// fault current, the figure to quote beside a verdict at the fault current.
+    pub spare_fault_ohms: f64,
     /// Supply the loop needs at 20 mA, V (compare with the lowest supply).
     pub min_supply_volts: f64,
     /// Supply the loop needs at the fault current, V.
     pub min_supply_fault_volts: f64,
     /// Nominal supply needed at the fault current once the tolerance is allowed for, V.
     pub min_nominal_supply_volts: f64,
-    /// Longest one-way cable run of this conductor that still works at 20 mA, m.
+    /// Longest one-way cable run of this conductor that still works at 20 mA, m, by
+    /// voltage only (HART and cable capacitance set their own limits).
     pub max_cable_m: Option<f64>,
+    /// The same at the fault current, m.
+    pub max_cable_fault_m: Option<f64>,
+    /// The fault current is [`DEFAULT_FAULT_MA`] because the loop does not give the
+    /// device's configured value.
+    pub fault_ma_is_default: bool,
+    /// How far below nominal the supply was allowed to sag, % (0: none assumed; the
+    /// budget is worked at the nominal supply).
+    pub supply_sag_percent: f64,
     /// Enough voltage at 20 mA and at the fault current.
     pub ok: bool,
     /// Enough voltage at 20 mA.

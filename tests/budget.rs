@@ -22,9 +22,9 @@ fn max_loop_resistance_is_supply_less_minimum_over_20_ma() {
     );
 }
 
-#[test]
-fn inlet_level_loop_lt_101() {
-    // Demo plant LT-101: 24 V, 10.5 V minimum, 250 Ω PLC input, 180 m of 1.0 mm² pair.
+/// Demo plant LT-101: 24 V, 10.5 V minimum, 250 Ω PLC input, 180 m of 1.0 mm² pair at
+/// 20 °C (the cable temperature the screens and `budget` use unless told otherwise).
+fn lt101() -> LoopConfig {
     let mut c = LoopConfig::new(24.0, 10.5);
     c.elements.push(SeriesElement::ohms("PLC input", 250.0));
     c.cable = Some(Cable {
@@ -32,7 +32,12 @@ fn inlet_level_loop_lt_101() {
         conductor: Conductor::Mm2(1.0),
         temp_c: 20.0,
     });
-    let b = c.budget().unwrap();
+    c
+}
+
+#[test]
+fn inlet_level_loop_lt_101() {
+    let b = lt101().budget().unwrap();
     // Cable: 2 × 180 m × (1/58 Ω·mm²/m) / 1.0 mm² = 6.2069 Ω (IEC 60028 resistivity).
     close(b.cable_ohms, 360.0 / 58.0, 1e-9, "cable");
     close(b.loop_ohms, 256.2069, 1e-4, "loop");
@@ -55,6 +60,7 @@ fn inlet_level_loop_lt_101() {
         1e-4,
         "at 22 mA",
     );
+    // The classic figures at 20 mA (common practice): 675 − 256.2069 = 418.79 Ω spare.
     close(b.spare_ohms, 675.0 - 256.2069, 1e-4, "spare");
     // Max cable: (675 − 250) Ω / (2 × 0.017241 Ω/m) = 12 325 m one way.
     close(
@@ -70,6 +76,103 @@ fn inlet_level_loop_lt_101() {
         "min supply",
     );
     assert!(b.ok && b.hart_ok);
+}
+
+#[test]
+fn lt_101_spare_load_and_cable_at_the_22_ma_fault_current() {
+    // Worked by hand. Copper 1/58 Ω·mm²/m at 20 °C (IEC 60028); the cable is taken at
+    // 20 °C, so no temperature correction.
+    //   loop: 250 + 2 × 180 m × (1/58) Ω/m = 256.2069 Ω
+    //   maximum load at 22 mA: (24 − 10.5) V / 0.022 A = 613.636 Ω (the common-practice
+    //   formula, at the fault current instead of 20 mA)
+    //   spare at 22 mA: 613.636 − 256.207 = 357.43 Ω (the 20 mA spare, 418.8 Ω, would
+    //   leave the transmitter 61.4 Ω × 22 mA = 1.35 V short at 22 mA)
+    //   longest cable at 22 mA: (613.636 − 250) Ω / (2/58 Ω per metre of route)
+    //   = 363.636 × 29 = 10 545 m one way, about 10.5 km
+    let b = lt101().budget().unwrap();
+    close(
+        b.max_load_fault_ohms,
+        13.5 / 0.022,
+        1e-9,
+        "max load at 22 mA",
+    );
+    close(b.spare_fault_ohms, 357.43, 0.01, "spare at 22 mA");
+    close(
+        b.max_cable_fault_m.unwrap(),
+        10_545.45,
+        0.01,
+        "max cable at 22 mA",
+    );
+    // Adding the 20 mA spare really does starve the transmitter at 22 mA; adding the
+    // 22 mA spare leaves it exactly its minimum.
+    let mut more = lt101();
+    more.elements
+        .push(SeriesElement::ohms("added", b.spare_ohms));
+    assert!(!more.budget().unwrap().ok_fault);
+    let mut more = lt101();
+    more.elements
+        .push(SeriesElement::ohms("added", b.spare_fault_ohms));
+    close(
+        more.budget().unwrap().at_fault.headroom_volts,
+        0.0,
+        1e-9,
+        "headroom at 22 mA with the 22 mA spare added",
+    );
+    // The verdict is given at 22 mA, so it quotes the 22 mA spare, not 419 Ω.
+    assert!(
+        b.limit
+            .contains("7.86 V spare at 22.0 mA, 357 Ω of load still available at 22.0 mA"),
+        "{}",
+        b.limit
+    );
+    assert!(!b.limit.contains("419"), "{}", b.limit);
+    assert!(
+        b.fault_ma_is_default,
+        "nobody gave the device's fault current"
+    );
+}
+
+#[test]
+fn a_configured_fault_current_is_used_and_not_called_a_default() {
+    // LT-101 with its transmitter configured to drive 21.5 mA on an upscale failure:
+    //   maximum load (24 − 10.5) / 0.0215 = 627.907 Ω (common practice, at 21.5 mA)
+    //   spare 627.907 − 256.207 = 371.70 Ω; cable (627.907 − 250) × 29 = 10 959.3 m
+    let mut c = lt101();
+    c.fault_ma = Some(21.5);
+    let b = c.budget().unwrap();
+    assert!(!b.fault_ma_is_default);
+    close(b.at_fault.current_ma, 21.5, 0.0, "fault current");
+    close(b.spare_fault_ohms, 371.70, 0.01, "spare at 21.5 mA");
+    close(
+        b.max_cable_fault_m.unwrap(),
+        10_959.30,
+        0.01,
+        "max cable at 21.5 mA",
+    );
+    assert!(b.limit.contains("372 Ω of load still available at 21.5 mA"));
+}
+
+#[test]
+fn the_fault_current_given_survives_a_save_and_an_old_record_reads_sensibly() {
+    let mut c = lt101();
+    // Given as 22.0 on purpose: still the device's value, not the default.
+    c.fault_ma = Some(22.0);
+    let back: LoopConfig = serde_json::from_str(&serde_json::to_string(&c).unwrap()).unwrap();
+    assert_eq!(back, c);
+    let none: LoopConfig = serde_json::from_str(&serde_json::to_string(&lt101()).unwrap()).unwrap();
+    assert_eq!(none.fault_ma, None);
+    // Records written before the flag always carried fault_ma, 22.0 when nobody typed
+    // one: that reads as not given, any other value as given.
+    let old = r#"{"supply_volts":24.0,"tx_min_volts":10.5,"fault_ma":22.0}"#;
+    assert_eq!(
+        serde_json::from_str::<LoopConfig>(old).unwrap().fault_ma,
+        None
+    );
+    let old = r#"{"supply_volts":24.0,"tx_min_volts":10.5,"fault_ma":21.0}"#;
+    assert_eq!(
+        serde_json::from_str::<LoopConfig>(old).unwrap().fault_ma,
+        Some(21.0)
+    );
 }
 
 #[test]
@@ -150,6 +253,12 @@ fn bad_loop_input_names_the_field() {
     c = LoopConfig::new(24.0, 10.5);
     c.supply_tolerance_percent = 80.0;
     assert_eq!(c.budget().unwrap_err().field, "supply_tolerance_percent");
+    // An upscale fault current sits at or above 20 mA; 3.6 mA is a downscale one.
+    c = LoopConfig::new(24.0, 10.5);
+    c.fault_ma = Some(3.6);
+    let e = c.budget().unwrap_err();
+    assert_eq!(e.field, "fault_ma");
+    assert!(e.reason.contains("20"), "{e}");
 }
 
 #[test]

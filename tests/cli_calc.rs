@@ -157,6 +157,9 @@ fn budget_keys_and_numbers() {
         "headroom_volts",
         "headroom_fault_volts",
         "max_cable_m",
+        "spare_fault_ohms",
+        "max_load_fault_ohms",
+        "max_cable_fault_m",
         "ok",
         "limit",
         "hart_ok",
@@ -165,6 +168,114 @@ fn budget_keys_and_numbers() {
     }
     assert_eq!(j["ok"], true);
     assert_eq!(j["hart_ok"], true);
+}
+
+const LT_101: [&str; 11] = [
+    "budget",
+    "--supply",
+    "24",
+    "--min-volts",
+    "10,5",
+    "--load",
+    "PLC input=250",
+    "--cable-m",
+    "180",
+    "--mm2",
+    "1.0",
+];
+
+#[test]
+fn budget_quotes_spare_and_cable_at_the_fault_current() {
+    // LT-101, worked by hand. Copper 1/58 Ω·mm²/m at 20 °C (IEC 60028), and `budget`
+    // takes the cable at 20 °C unless --temp-c says otherwise:
+    //   loop 250 + 2 × 180 / 58 = 256.2069 Ω
+    //   at 22 mA (the default fault current) the loop may hold (24 − 10.5) / 0.022
+    //   = 613.636 Ω (common-practice formula at the fault current): 357.43 Ω spare, and
+    //   (613.636 − 250) × 58 / 2 = 10 545.45 m of this pair one way, about 10.5 km.
+    let mut args = LT_101.to_vec();
+    args.push("--json");
+    let j = loopside_json(&args);
+    close(
+        j["max_load_fault_ohms"].as_f64().unwrap(),
+        13.5 / 0.022,
+        1e-9,
+        "max load at 22 mA",
+    );
+    close(
+        j["spare_fault_ohms"].as_f64().unwrap(),
+        357.43,
+        0.01,
+        "spare at 22 mA",
+    );
+    close(
+        j["max_cable_fault_m"].as_f64().unwrap(),
+        10_545.45,
+        0.01,
+        "cable at 22 mA",
+    );
+    assert_eq!(j["fault_ma"].as_f64().unwrap(), 22.0);
+    assert_eq!(j["fault_ma_is_default"], true);
+    assert_eq!(j["supply_sag_percent"].as_f64().unwrap(), 0.0);
+    assert!(
+        j["limit"]
+            .as_str()
+            .unwrap()
+            .contains("357 Ω of load still available at 22.0 mA"),
+        "{}",
+        j["limit"]
+    );
+
+    let text = String::from_utf8(loopside(&LT_101).stdout).unwrap();
+    assert!(
+        text.contains(
+            "limits at 22.0 mA: max loop resistance 614 Ω (spare 357 Ω), supply needed 16.14 V, longest cable run 10545 m one way"
+        ),
+        "{text}"
+    );
+    assert!(
+        text.contains(
+            "limits at 20.0 mA: max loop resistance 675 Ω (spare 419 Ω), supply needed 15.62 V, longest cable run 12325 m one way"
+        ),
+        "{text}"
+    );
+    assert!(
+        text.contains("7.86 V spare at 22.0 mA, 357 Ω of load still available at 22.0 mA"),
+        "{text}"
+    );
+    // No line puts the 20 mA spare (419 Ω) or cable (12 325 m) beside a 22 mA figure.
+    for line in text.lines() {
+        if line.contains("22.0 mA") {
+            assert!(!line.contains("419") && !line.contains("12325"), "{line}");
+        }
+    }
+    assert!(text.contains("by voltage only"), "{text}");
+    assert!(text.contains("No supply sag assumed"), "{text}");
+    assert!(text.contains("22.0 mA is a default"), "{text}");
+}
+
+#[test]
+fn budget_with_a_configured_fault_current_and_a_sag() {
+    // The device is configured for 21.5 mA and the supply may sag 5 %: worked at
+    // 24 × 0.95 = 22.80 V; at 21.5 mA the loop may hold (22.8 − 10.5) / 0.0215
+    // = 572.09 Ω, 315.89 Ω spare (common-practice formula at the fault current).
+    let mut args = LT_101.to_vec();
+    args.extend(["--fault-ma", "21,5", "--supply-tolerance", "5"]);
+    let text = String::from_utf8(loopside(&args).stdout).unwrap();
+    assert!(!text.contains("default"), "{text}");
+    assert!(!text.contains("No supply sag"), "{text}");
+    assert!(text.contains("22.80 V: the nominal less 5 % sag"), "{text}");
+    assert!(text.contains("limits at 21.5 mA"), "{text}");
+    args.push("--json");
+    let j = loopside_json(&args);
+    assert_eq!(j["fault_ma_is_default"], false);
+    close(j["fault_ma"].as_f64().unwrap(), 21.5, 0.0, "fault current");
+    close(
+        j["spare_fault_ohms"].as_f64().unwrap(),
+        315.89,
+        0.01,
+        "spare at 21.5 mA",
+    );
+    close(j["supply_sag_percent"].as_f64().unwrap(), 5.0, 0.0, "sag");
 }
 
 #[test]

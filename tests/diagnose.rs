@@ -688,13 +688,17 @@ fn loop_resistance_outside_the_hart_window() {
     let f = evaluate::hart_window(&tag, 180.0).unwrap();
     assert_eq!(f.outcome, "too-low");
     close(f.add_ohms.unwrap(), 50.0, 1e-9, "add");
-    // LT-101's budget: 675 − 256.2 = 418.8 Ω spare, so 250 Ω more still fits.
+    // LT-101's budget at its 22 mA fault current (the tighter one): (24 − 10.5) / 0.022
+    // = 613.6 Ω the loop may hold (common-practice formula at the fault current), less
+    // 256.2 Ω = 357.4 Ω spare, so 250 Ω more still fits even at 22 mA. (The 20 mA spare,
+    // 418.8 Ω, is not the one to add against.)
     close(
         f.budget_spare_ohms.unwrap(),
-        675.0 - 250.0 - 360.0 / 58.0,
+        13.5 / 0.022 - 250.0 - 360.0 / 58.0,
         1e-9,
         "spare",
     );
+    assert!(f.text.contains("357 Ω spare at 22.000 mA"), "{}", f.text);
     assert!(f.text.contains("still leaves"), "{}", f.text);
     assert_eq!(
         evaluate::hart_window(&tag, 256.0).unwrap().outcome,

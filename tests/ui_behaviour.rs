@@ -126,6 +126,51 @@ fn editing_the_loop_moves_the_verdict() {
 }
 
 #[test]
+fn power_says_what_it_assumed() {
+    let app = app();
+    app.show_screen(Screen::Power);
+    let adapter = app.window.global::<loopside::app::PowerAdapter>();
+    let notes = || {
+        use slint::Model;
+        adapter
+            .get_notes()
+            .iter()
+            .map(|n| n.to_string())
+            .collect::<Vec<_>>()
+    };
+    // The demo LT-101 gives neither a supply sag nor the device's fault current, and the
+    // screen says so in words the technician can read.
+    let first = notes();
+    assert!(
+        first.iter().any(|n| n.starts_with("No supply sag assumed")),
+        "{first:?}"
+    );
+    assert!(
+        first.iter().any(|n| n.contains("22.0 mA is a default")),
+        "{first:?}"
+    );
+    for note in &first {
+        assert!(
+            with_role(&app, note, AccessibleRole::Text).is_valid(),
+            "{note} is on the screen"
+        );
+    }
+    assert_eq!(
+        value_of(&app, "Fault current"),
+        "",
+        "empty: the default is used"
+    );
+    // The device is configured for 21.5 mA, and the supply may sag 5 %.
+    field(&app, "Fault current").set_accessible_value("21,5");
+    field(&app, "Supply may sag").set_accessible_value("5");
+    let now = notes().join(" ");
+    assert!(!now.contains("default"), "{now}");
+    assert!(!now.contains("No supply sag"), "{now}");
+    assert!(now.contains("5 % sag"), "{now}");
+    assert_eq!(adapter.get_fault_title(), "At 21.5 mA (upscale fault)");
+}
+
+#[test]
 fn a_note_appears_in_the_log() {
     let app = app();
     app.show_screen(Screen::Log);

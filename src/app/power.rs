@@ -163,7 +163,9 @@ pub fn form_from(tag: &str, c: &LoopConfig) -> PowerForm {
         supply: display::fixed(c.supply_volts, 1),
         tolerance: plain(c.supply_tolerance_percent),
         tx_min: plain(c.tx_min_volts),
-        fault: plain(c.fault_ma),
+        // Empty when the device's configured fault current was not given: the field then
+        // shows the default as a placeholder and the budget says it is a default.
+        fault: c.fault_ma.map(plain).unwrap_or_default(),
         cable_m: c.cable.map(|k| plain(k.one_way_m)).unwrap_or_default(),
         cable_size: c.cable.map(|k| k.conductor.label()).unwrap_or_default(),
         elements: c
@@ -211,9 +213,9 @@ pub fn config_from(form: &PowerForm) -> Result<LoopConfig> {
             parse_number("supply sag", form.tolerance.trim_end_matches('%'))?;
     }
     c.fault_ma = if form.fault.trim().is_empty() {
-        DEFAULT_FAULT_MA
+        None
     } else {
-        parse_in("fault current", &form.fault, "mA")?
+        Some(parse_in("fault current", &form.fault, "mA")?)
     };
     for (i, (name, value, drop)) in form.elements.iter().enumerate() {
         let field = if name.trim().is_empty() {
@@ -260,6 +262,8 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     adapter.set_tolerance_text(f.tolerance.clone().into());
     adapter.set_tx_min_text(f.tx_min.clone().into());
     adapter.set_fault_text(f.fault.clone().into());
+    adapter
+        .set_fault_placeholder(format!("{} (default)", display::fixed(DEFAULT_FAULT_MA, 1)).into());
     adapter.set_cable_m_text(f.cable_m.clone().into());
     adapter.set_cable_size_text(f.cable_size.clone().into());
     adapter.set_elements(element_rows(&f.elements));
@@ -364,6 +368,7 @@ pub fn map_power(adapter: &PowerAdapter, v: &PowerView) {
             })
             .collect(),
     ));
+    adapter.set_notes(model(v.notes.iter().map(|n| n.clone().into()).collect()));
     adapter.set_verdict_title(v.verdict_title.clone().into());
     adapter.set_verdict_detail(v.verdict_detail.clone().into());
     adapter.set_verdict_kind(v.verdict_tone.code());

@@ -462,6 +462,13 @@ pub fn matches(tag: &Tag, search: &str) -> bool {
 
 /// Copy the (filtered) register and the open tag's sheet into the adapter.
 pub fn refresh(window: &AppWindow, state: &AppState) {
+    window.global::<TagsAdapter>().set_fault_placeholder(
+        format!(
+            "{} (default)",
+            display::fixed(crate::budget::DEFAULT_FAULT_MA, 1)
+        )
+        .into(),
+    );
     refresh_list(window, state);
     map_sheet(&window.global::<TagsAdapter>(), state);
 }
@@ -625,7 +632,7 @@ mod tests {
         assert_eq!(c.supply_volts, 24.0);
         assert_eq!(c.supply_tolerance_percent, 5.0);
         assert_eq!(c.tx_min_volts, 10.5);
-        assert_eq!(c.fault_ma, 21.0);
+        assert_eq!(c.fault_ma, Some(21.0));
         assert_eq!(c.elements.len(), 2);
         assert_eq!(c.elements[0].name, "Card input");
         assert_eq!(c.cable.unwrap().one_way_m, 180.0);

@@ -338,7 +338,8 @@ pub(crate) struct LoopArgs {
     /// Conductor temperature, °C (default 20).
     #[arg(long, allow_hyphen_values = true, value_name = "T")]
     temp_c: Option<String>,
-    /// Upscale fault current, mA (default 22.0).
+    /// Upscale fault current the device is configured to drive, mA (default 22.0, and the
+    /// budget says it is a default).
     #[arg(long, allow_hyphen_values = true, value_name = "I")]
     fault_ma: Option<String>,
     /// Upper end of the HART resistance window, Ω (default 1100).
@@ -423,7 +424,7 @@ impl LoopArgs {
             config.supply_tolerance_percent = parse_in("supply-tolerance", t, "%")?;
         }
         if let Some(t) = &self.fault_ma {
-            config.fault_ma = parse_in("fault-ma", t, "mA")?;
+            config.fault_ma = Some(parse_in("fault-ma", t, "mA")?);
         }
         if let Some(t) = &self.hart_max_ohms {
             config.hart_window_ohms.1 = parse_in("hart-max-ohms", t, "Ω")?;
@@ -495,6 +496,7 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
             "max_load_ohms": b.max_load_ohms,
             "max_load_fault_ohms": b.max_load_fault_ohms,
             "spare_ohms": b.spare_ohms,
+            "spare_fault_ohms": b.spare_fault_ohms,
             "min_supply_volts": b.min_supply_volts,
             "min_supply_fault_volts": b.min_supply_fault_volts,
             "min_nominal_supply_volts": b.min_nominal_supply_volts,
@@ -505,8 +507,11 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
             "headroom_4ma_volts": b.at_low.headroom_volts,
             "headroom_volts": b.at_full_scale.headroom_volts,
             "headroom_fault_volts": b.at_fault.headroom_volts,
-            "fault_ma": config.fault_ma,
+            "fault_ma": b.at_fault.current_ma,
+            "fault_ma_is_default": b.fault_ma_is_default,
+            "supply_sag_percent": b.supply_sag_percent,
             "max_cable_m": b.max_cable_m,
+            "max_cable_fault_m": b.max_cable_fault_m,
             "ok": b.ok,
             "ok_full_scale": b.ok_full_scale,
             "ok_fault": b.ok_fault,
@@ -531,20 +536,44 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
             if p.ok { "ok" } else { "NOT ENOUGH" }
         ));
     }
-    lines.push(format!(
-        "max loop resistance {} at 20 mA (spare {}); supply needed {} at 20 mA, {} at {} mA",
-        display::ohms(b.max_load_ohms),
-        display::ohms(b.spare_ohms),
-        display::volts(b.min_supply_volts),
-        display::volts(b.min_supply_fault_volts),
-        display::fixed(config.fault_ma, 1)
-    ));
-    if let Some(m) = b.max_cable_m {
-        lines.push(format!(
-            "longest cable run (one way) {}",
-            display::metres(m)
-        ));
+    // One line per current, so every spare and cable figure sits beside the current it
+    // holds at.
+    for (at_ma, max_load, spare, supply, cable) in [
+        (
+            20.0,
+            b.max_load_ohms,
+            b.spare_ohms,
+            b.min_supply_volts,
+            b.max_cable_m,
+        ),
+        (
+            b.at_fault.current_ma,
+            b.max_load_fault_ohms,
+            b.spare_fault_ohms,
+            b.min_supply_fault_volts,
+            b.max_cable_fault_m,
+        ),
+    ] {
+        let mut line = format!(
+            "limits at {} mA: max loop resistance {} (spare {}), supply needed {}",
+            display::fixed(at_ma, 1),
+            display::ohms(max_load),
+            display::ohms(spare),
+            display::volts(supply)
+        );
+        if let Some(m) = cable {
+            line.push_str(&format!(
+                ", longest cable run {} one way",
+                display::metres(m)
+            ));
+        }
+        lines.push(line);
     }
+    lines.extend(crate::view::power::notes(
+        &b,
+        "with --supply-tolerance PCT",
+        "with --fault-ma I",
+    ));
     lines.push(format!(
         "verdict: {} — {}",
         if b.ok { "OK" } else { "NOT ENOUGH VOLTAGE" },

@@ -823,7 +823,10 @@ pub fn terminal_volts(
         let extra = m - budget.loop_ohms;
         (extra > EXTRA_OHMS_FRACTION * budget.loop_ohms + EXTRA_OHMS_FLOOR).then_some(extra)
     });
-    let target = config.fault_ma.max(20.0).max(current.unwrap_or(0.0));
+    let target = config
+        .fault_current_ma()
+        .max(20.0)
+        .max(current.unwrap_or(0.0));
     // Project from the measured point: every extra mA costs R volts per ampere.
     let terminal_at_target = terminal - r * (target - current.unwrap_or(0.0)) / 1000.0;
     let deficit = min - terminal_at_target;
@@ -1092,7 +1095,9 @@ pub struct HartFinding {
     pub loop_ohms: f64,
     /// The window, Ω.
     pub window_ohms: (f64, f64),
-    /// Spare resistance in the voltage budget, Ω, when the tag has a loop configuration.
+    /// Spare resistance in the voltage budget, Ω, when the tag has a loop configuration:
+    /// at 20 mA or at the fault current, whichever leaves less (adding more would starve
+    /// the transmitter at that current).
     pub budget_spare_ohms: Option<f64>,
     /// Ohms to add to reach the window's minimum (too low only).
     pub add_ohms: Option<f64>,
@@ -1110,12 +1115,20 @@ pub fn hart_window(tag: &Tag, loop_ohms: f64) -> Result<HartFinding> {
         .as_ref()
         .map(|c| c.hart_window_ohms)
         .unwrap_or((HART_MIN_OHMS, HART_MAX_OHMS));
+    // The spare that still reaches both 20 mA and the fault current, and the current that
+    // limits it.
     let spare = tag
         .loop_config
         .as_ref()
         .map(LoopConfig::budget)
         .transpose()?
-        .map(|b| b.spare_ohms);
+        .map(|b| {
+            if b.spare_fault_ohms < b.spare_ohms {
+                (b.spare_fault_ohms, b.at_fault.current_ma)
+            } else {
+                (b.spare_ohms, 20.0)
+            }
+        });
     let (lo, hi) = window;
     let (outcome, add) = if r >= OPEN_LOOP_OHMS {
         ("open", None)
@@ -1138,10 +1151,11 @@ pub fn hart_window(tag: &Tag, loop_ohms: f64) -> Result<HartFinding> {
                 display::ohms(lo),
                 display::ohms(lo - r)
             );
-            if let Some(s) = spare {
+            if let Some((s, at_ma)) = spare {
                 t.push_str(&format!(
-                    " The voltage budget has {} spare, so adding 250 Ω {}.",
+                    " The voltage budget has {} spare at {}, so adding 250 Ω {}.",
                     display::ohms(s),
+                    display::ma(at_ma),
                     if s >= 250.0 {
                         "still leaves the transmitter its minimum"
                     } else {
@@ -1166,7 +1180,7 @@ pub fn hart_window(tag: &Tag, loop_ohms: f64) -> Result<HartFinding> {
     Ok(HartFinding {
         loop_ohms: r,
         window_ohms: window,
-        budget_spare_ohms: spare,
+        budget_spare_ohms: spare.map(|(ohms, _)| ohms),
         add_ohms: add,
         outcome,
         text,

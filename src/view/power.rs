@@ -8,7 +8,7 @@
 use crate::budget::{Budget, LoopConfig, OperatingPoint, PartRole};
 use crate::display;
 use crate::error::Result;
-use crate::view::Tone;
+use crate::view::{plain, Tone};
 
 /// One slice of a budget bar, as fractions of the bar's width.
 #[derive(Debug, Clone, PartialEq)]
@@ -107,8 +107,11 @@ pub struct PowerView {
     pub verdict_detail: String,
     /// How the verdict stands.
     pub verdict_tone: Tone,
-    /// Headroom, spare ohms, maximum cable and so on.
+    /// Headroom, spare ohms, maximum cable and so on, each naming the current it holds at.
     pub figures: Vec<Figure>,
+    /// What the budget assumed that the technician did not give (no supply sag, the
+    /// default fault current), and what the cable figures leave out, in sentences.
+    pub notes: Vec<String>,
     /// HART verdict (title, detail, tone) when the tag talks HART.
     pub hart: Option<(String, String, Tone)>,
 }
@@ -189,18 +192,33 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
             tone: tone_of(b.spare_ohms >= 0.0),
         },
         Figure {
-            label: "Lowest supply needed".to_string(),
+            label: format!("Load still available at {fault_ma} mA"),
+            value: display::ohms(b.spare_fault_ohms),
+            tone: tone_of(b.spare_fault_ohms >= 0.0),
+        },
+        Figure {
+            label: format!("Lowest supply needed at {fault_ma} mA"),
             value: display::volts(b.min_supply_fault_volts),
             tone: tone_of(b.min_supply_fault_volts <= b.lowest_supply_volts + 1e-9),
         },
     ];
-    if let Some(m) = b.max_cable_m {
-        figures.push(Figure {
-            label: "Longest cable of this size (one way)".to_string(),
-            value: display::metres(m),
-            tone: Tone::Neutral,
-        });
+    for (at, cable) in [
+        ("20 mA".to_string(), b.max_cable_m),
+        (format!("{fault_ma} mA"), b.max_cable_fault_m),
+    ] {
+        if let Some(m) = cable {
+            figures.push(Figure {
+                label: format!("Longest cable of this size at {at} (one way, by voltage only)"),
+                value: display::metres(m),
+                tone: Tone::Neutral,
+            });
+        }
     }
+    let notes = notes(
+        &b,
+        "in the Supply may sag field",
+        "in the Fault current field",
+    );
     let hart = hart.then(|| {
         (
             if b.hart_ok {
@@ -234,9 +252,45 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
         verdict_detail: capitalised(&b.limit),
         verdict_tone: tone_of(b.ok),
         figures,
+        notes,
         hart,
         budget: b,
     })
+}
+
+/// What the budget assumed and what its figures leave out, in sentences (shared by the
+/// Power screen and `loopside budget`): the supply sag it was worked with, or that none
+/// was assumed (so the spare is margin only if the supply holds its nominal); that the
+/// fault current is a default when the device's configured one was not given; and that
+/// cable lengths are by voltage only. `give_sag` and `give_fault` say where the technician
+/// gives the sag and the fault current (`in the Supply may sag field`, `with --fault-ma`).
+pub fn notes(b: &Budget, give_sag: &str, give_fault: &str) -> Vec<String> {
+    let mut out = Vec::new();
+    if b.supply_sag_percent > 0.0 {
+        out.push(format!(
+            "Worked at the lowest supply, {}: the nominal less {} % sag.",
+            display::volts(b.lowest_supply_volts),
+            plain(b.supply_sag_percent)
+        ));
+    } else {
+        out.push(format!(
+            "No supply sag assumed: worked at the nominal {}. If the supply can droop (load, battery, long feed), give how far {give_sag}.",
+            display::volts(b.lowest_supply_volts)
+        ));
+    }
+    if b.fault_ma_is_default {
+        out.push(format!(
+            "{} is a default upscale fault current, not this device's: give the value the device is configured to drive {give_fault}.",
+            display::fixed(b.at_fault.current_ma, 1) + " mA"
+        ));
+    }
+    if b.max_cable_m.is_some() {
+        out.push(
+            "Cable lengths are by voltage only: HART and cable capacitance set their own limits."
+                .to_string(),
+        );
+    }
+    out
 }
 
 fn role_kind(role: PartRole) -> SliceKind {
@@ -336,6 +390,75 @@ mod tests {
             v.verdict_title
         );
         assert!(v.hart.is_some());
+    }
+
+    fn figure<'a>(v: &'a PowerView, label: &str) -> &'a Figure {
+        v.figures
+            .iter()
+            .find(|f| f.label == label)
+            .unwrap_or_else(|| panic!("no figure {label:?} in {:?}", v.figures))
+    }
+
+    #[test]
+    fn lt101_quotes_its_spare_and_cable_at_the_fault_current() {
+        // Worked by hand (copper 1/58 Ω·mm²/m at 20 °C, IEC 60028; cable at 20 °C):
+        // loop 250 + 360/58 = 256.21 Ω; at 22 mA the most the loop may hold is
+        // 13.5 V / 0.022 A = 613.64 Ω, so 357 Ω spare, and (613.64 − 250) × 29 = 10 545 m
+        // of this cable one way. The classic 20 mA figures (common practice) stay beside
+        // them: 675 − 256.21 = 419 Ω and (675 − 250) × 29 = 12 325 m.
+        let v = view(&lt101(), false).unwrap();
+        assert_eq!(figure(&v, "Load still available at 20 mA").value, "419 Ω");
+        assert_eq!(figure(&v, "Load still available at 22.0 mA").value, "357 Ω");
+        assert_eq!(
+            figure(
+                &v,
+                "Longest cable of this size at 22.0 mA (one way, by voltage only)"
+            )
+            .value,
+            "10545 m"
+        );
+        assert_eq!(
+            figure(
+                &v,
+                "Longest cable of this size at 20 mA (one way, by voltage only)"
+            )
+            .value,
+            "12325 m"
+        );
+        // The verdict is given at 22 mA, and so is the spare it quotes.
+        assert!(
+            v.verdict_detail
+                .contains("7.86 V spare at 22.0 mA, 357 Ω of load still available at 22.0 mA"),
+            "{}",
+            v.verdict_detail
+        );
+        assert!(!v.verdict_detail.contains("419"), "{}", v.verdict_detail);
+        // Nothing was said about sag or the device's fault current: both are named.
+        let notes = v.notes.join(" ");
+        assert!(notes.contains("No supply sag assumed"), "{notes}");
+        assert!(notes.contains("nominal 24.00 V"), "{notes}");
+        assert!(notes.contains("22.0 mA is a default"), "{notes}");
+        assert!(notes.contains("configured"), "{notes}");
+        assert!(notes.contains("by voltage only"), "{notes}");
+    }
+
+    #[test]
+    fn a_configured_fault_current_and_a_sag_are_shown_as_given() {
+        // The device is configured for 21.5 mA upscale and the 24 V supply may sag 5 %:
+        // worked at 24 × 0.95 = 22.80 V. At 21.5 mA the loop may hold
+        // (22.8 − 10.5) / 0.0215 = 572.09 Ω, so 572.09 − 256.21 = 315.9 Ω spare
+        // (common-practice formula at the fault current).
+        let mut c = lt101();
+        c.fault_ma = Some(21.5);
+        c.supply_tolerance_percent = 5.0;
+        let v = view(&c, false).unwrap();
+        assert_eq!(v.fault_title, "At 21.5 mA (upscale fault)");
+        assert_eq!(figure(&v, "Load still available at 21.5 mA").value, "316 Ω");
+        let notes = v.notes.join(" ");
+        assert!(!notes.contains("default"), "{notes}");
+        assert!(!notes.contains("No supply sag"), "{notes}");
+        assert!(notes.contains("22.80 V"), "{notes}");
+        assert!(notes.contains("5 % sag"), "{notes}");
     }
 
     #[test]
