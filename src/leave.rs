@@ -71,7 +71,17 @@ impl Item {
         Item::ALL.into_iter().find(|i| i.id() == t)
     }
 
-    /// The words beside the tick box.
+    /// The tick box's label (also its accessible label): a few words.
+    pub fn label(self) -> &'static str {
+        match self {
+            Item::Loop => "Loop in its normal mode",
+            Item::Links => "Links closed",
+            Item::Forces => "Forces and bypasses removed",
+            Item::Operations => "Operations told",
+        }
+    }
+
+    /// The item in full: shown under the tick box and recorded.
     pub fn text(self) -> &'static str {
         match self {
             Item::Loop => "Loop back in its normal mode: controller out of manual, transmitter out of fixed-current or test mode",

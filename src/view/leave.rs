@@ -13,7 +13,9 @@ use crate::leave::{self, Item, LeaveList};
 pub struct LeaveRow {
     /// The item.
     pub item: Item,
-    /// The words beside the box (also its accessible label).
+    /// The box's label (also its accessible label).
+    pub label: String,
+    /// The item in full, shown under the box.
     pub text: String,
     /// Ticked.
     pub done: bool,
@@ -53,6 +55,7 @@ pub fn view(ticked: &[String], more_to_come: bool) -> LeaveView {
             let on = done.contains(&item);
             LeaveRow {
                 item,
+                label: item.label().to_string(),
                 text: item.text().to_string(),
                 done: on,
                 state: if on {
