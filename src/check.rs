@@ -26,6 +26,7 @@
 
 use crate::display;
 use crate::error::{finite, within, FieldError, Result};
+use crate::leave::{self, Item, LeaveList};
 use crate::scale::{RootLocation, Scale, Transfer};
 use crate::tag::{Tag, DEFAULT_TOLERANCE_PERCENT};
 use chrono::NaiveDate;
@@ -304,6 +305,11 @@ pub struct CheckResult {
     pub tur: Option<f64>,
     /// Warnings about the reference.
     pub warnings: Vec<CheckWarning>,
+    /// The before-you-leave list as the technician left it (payload key
+    /// `before_leaving`); `None` in records saved before loopside asked, and until a front
+    /// sets it with [`CheckResult::left`].
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub before_leaving: Option<LeaveList>,
 }
 
 /// A loop check being set up: the builder the app and the command line use.
@@ -713,6 +719,7 @@ impl LoopCheck {
             reference: self.reference.clone(),
             tur,
             warnings,
+            before_leaving: None,
         })
     }
 
@@ -885,6 +892,28 @@ impl CheckResult {
         s
     }
 
+    /// Record what was put right before leaving the loop: `done` were ticked (or named on
+    /// the command line), the rest are recorded as not done.
+    pub fn left(&mut self, done: &[Item]) {
+        self.before_leaving = Some(LeaveList::from_done(done));
+    }
+
+    /// The text of the log entry: the kind of check, its verdict, and, when recorded, what
+    /// was and was not put right before leaving (the same words from the app and the
+    /// command line).
+    pub fn log_text(&self) -> String {
+        let head = format!(
+            "{} check, {}: {}",
+            self.device.as_str(),
+            self.stage.label(),
+            self.summary()
+        );
+        match &self.before_leaving {
+            Some(l) => format!("{head}\n{}", l.summary()),
+            None => head,
+        }
+    }
+
     /// The check as a Markdown section for the handoff report.
     pub fn to_markdown(&self) -> String {
         let mut md = String::new();
@@ -974,6 +1003,10 @@ impl CheckResult {
         if !self.note.is_empty() {
             md.push_str(&format!("Note: {}\n", cell(&self.note)));
         }
+        md.push_str(&format!(
+            "{}\n",
+            cell(&leave::summary_of(self.before_leaving.as_ref()))
+        ));
         for w in &self.warnings {
             md.push_str(&format!("\n> Warning: {}\n", cell(&w.message())));
         }

@@ -11,6 +11,8 @@
 //! - [`cli`] — the command-line front (prints; not part of the pure core);
 //! - [`rtd`], [`thermocouple`] and [`level`] — what a temperature or DP level transmitter
 //!   should see for a given temperature or level;
+//! - [`caution`] and [`leave`] — the cautions shown before work on a loop, and the
+//!   "before you leave" list recorded after it;
 //! - [`view`] — what each screen shows, worked out and formatted (no UI toolkit); the
 //!   Slint app itself is `app` (feature `ui`), Android's entry `android`.
 
@@ -29,6 +31,7 @@ pub mod demo;
 pub mod diagnose;
 pub mod display;
 pub mod journal;
+pub mod leave;
 pub mod level;
 pub mod report;
 pub mod resistor;

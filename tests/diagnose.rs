@@ -724,9 +724,14 @@ fn stuck_low_session_finds_an_open_loop() {
     let tag = lt101();
     let p = procedure::find("stuck-low", &[]).unwrap();
     let mut s = Session::start(&p, &tag);
-    assert_eq!(s.cautions.len(), 4);
+    assert_eq!(s.cautions.len(), 5);
     assert!(s.cautions[0].contains("tell operations"));
     assert!(s.cautions[1].contains("IEC 60079-14"));
+    assert!(
+        s.cautions[3].contains("trapped pressure and process fluid"),
+        "the process side is cautioned too: {}",
+        s.cautions[3]
+    );
     assert_eq!(
         answer(&mut s, &p, &tag, &[(Measurement::TxMa, 0.0)]),
         Progress::Next("supply".to_string())

@@ -56,11 +56,12 @@ fn saved_id(app: &App) -> String {
         .global::<FaultAdapter>()
         .get_message()
         .to_string();
+    // The message may go on to say what was not put right before leaving.
     message
         .strip_prefix("Saved to the log as ")
-        .and_then(|m| m.strip_suffix('.'))
+        .and_then(|m| m.split_once('.'))
+        .map(|(id, _)| id.to_string())
         .unwrap_or_else(|| panic!("not saved: {message}"))
-        .to_string()
 }
 
 /// Past the cautions, the stuck-low procedure started on LT-101 (open in the demo).
@@ -206,8 +207,11 @@ fn a_finished_session_is_saved_to_the_log() {
 
     // And on the Log screen.
     app.show_screen(Screen::Log);
+    // Nothing was ticked before leaving, and the log says so.
     let text = format!(
-        "Reading stuck at or below zero: {conclusion}\nTechnician: Wire lifted at JB-01 terminal 4; re-terminated"
+        "Reading stuck at or below zero: {conclusion}\nTechnician: Wire lifted at JB-01 terminal 4; re-terminated\n\
+         Before you leave: NOT done (not confirmed): loop back in its normal mode; links closed; \
+         forces and bypasses removed; operations told."
     );
     let rows = app.window.global::<LogAdapter>().get_rows();
     let row = rows
@@ -234,7 +238,12 @@ fn an_unfinished_session_can_be_saved_and_says_so() {
         .iter()
         .find(|e| e.id.as_str() == id)
         .unwrap();
-    assert_eq!(entry.text, "Reading stuck at or below zero: not finished");
+    // Saved midway, nothing is claimed as put right before leaving.
+    assert_eq!(
+        entry.text,
+        "Reading stuck at or below zero: not finished\nBefore you leave: NOT done (not confirmed): \
+         loop back in its normal mode; links closed; forces and bypasses removed; operations told."
+    );
     assert_eq!(entry.payload.as_ref().unwrap()["current"], "supply");
 }
 

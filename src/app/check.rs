@@ -1,12 +1,15 @@
-//! Check screen glue: cautions first, then the as-found / as-left table of the open tag.
-//! Readings are kept in the saved screen state as they are typed (an unfinished check
-//! survives the app being killed); the table, the plot and the verdict come from
-//! [`crate::view::check`], and "Save to log" stores the [`crate::check::CheckResult`].
+//! Check screen glue: cautions first, then the as-found / as-left table of the open tag,
+//! and the before-you-leave list above "Save to log". Readings and ticks are kept in the
+//! saved screen state as they are made (an unfinished check survives the app being
+//! killed); the table, the plot and the verdict come from [`crate::view::check`], the list
+//! from [`crate::view::leave`], and "Save to log" stores the
+//! [`crate::check::CheckResult`] with the list as ticked.
 
 use super::{model, AppState, AppWindow, CheckAdapter, Shared};
 use crate::check::Stage;
 use crate::error::FieldError;
 use crate::journal::{Entry, EntryId, Kind};
+use crate::leave::{self, LeaveList};
 use crate::store::StoreError;
 use crate::view::check::{check_for, result, view};
 use slint::{ComponentHandle, Model, ModelRc, VecModel};
@@ -43,6 +46,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         }
         w.global::<CheckAdapter>().set_stage(stage);
         update(&w, &st.borrow(), &table);
+        show_leave(&w, &st.borrow());
     });
     let weak = window.as_weak();
     let st = state.clone();
@@ -61,6 +65,15 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     });
     let weak = window.as_weak();
     let st = state.clone();
+    adapter.on_leave_toggled(move |i, on| {
+        let Some(w) = weak.upgrade() else { return };
+        if let Ok(i) = usize::try_from(i) {
+            crate::view::leave::toggle(&mut st.borrow_mut().ui.check.leave_ticked, i, on);
+        }
+        show_leave(&w, &st.borrow());
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
     adapter.on_save(move || {
         let Some(w) = weak.upgrade() else { return };
         let a = w.global::<CheckAdapter>();
@@ -71,20 +84,17 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         }
         let saved = save(&mut st.borrow_mut());
         match saved {
-            Ok((id, stage)) => {
+            Ok((id, stage, left)) => {
                 a.set_error_text("".into());
-                a.set_message(
-                    format!(
-                        "Saved the {} check as {id}.{}",
-                        stage.label(),
-                        if stage == Stage::AsFound {
-                            " The table is ready for the as-left readings."
-                        } else {
-                            ""
-                        }
-                    )
-                    .into(),
-                );
+                let mut message = format!("Saved the {} check as {id}.", stage.label());
+                if !left.all_done() {
+                    message.push(' ');
+                    message.push_str(&left.summary());
+                }
+                if stage == Stage::AsFound {
+                    message.push_str(" The table is ready for the as-left readings.");
+                }
+                a.set_message(message.into());
                 // Refresh copies the new (as-left, empty) table in as well.
                 refresh(&w, &st.borrow());
                 super::log::refresh(&w, &st.borrow());
@@ -124,9 +134,10 @@ pub fn sync(state: &mut AppState) {
     }
 }
 
-/// Save the check to the open tag's log; returns the entry id and the stage saved. After
-/// an as-found check the form moves on to as-left with an empty table.
-pub fn save(state: &mut AppState) -> Result<(EntryId, Stage), StoreError> {
+/// Save the check to the open tag's log, with the before-you-leave list as ticked; returns
+/// the entry id, the stage saved and the list as recorded. After an as-found check the
+/// form moves on to as-left with an empty table and nothing ticked.
+pub fn save(state: &mut AppState) -> Result<(EntryId, Stage, LeaveList), StoreError> {
     let record = state
         .open_record()
         .cloned()
@@ -139,25 +150,24 @@ pub fn save(state: &mut AppState) -> Result<(EntryId, Stage), StoreError> {
     if !reference.is_empty() {
         check = check.note(&format!("Reference: {reference}"));
     }
-    let res = result(&check, &form.readings)?;
+    let mut res = result(&check, &form.readings)?;
+    res.left(&leave::items_of(&form.leave_ticked));
+    let left = res
+        .before_leaving
+        .clone()
+        .unwrap_or_else(|| LeaveList::from_done(&[]));
     let mut payload = serde_json::to_value(&res)
         .map_err(|e| FieldError::new("check", format!("cannot be written: {e}")))?;
     if let Some(sensor) = &record.tag.sensor {
         payload["sensor"] = serde_json::to_value(sensor)
             .map_err(|e| FieldError::new("sensor", format!("cannot be written: {e}")))?;
     }
-    let text = format!(
-        "{} check, {}: {}",
-        res.device.as_str(),
-        res.stage.label(),
-        res.summary()
-    );
     let mut entry = Entry::new(
         &record.id,
         now,
         &state.ui.initials.trim().to_uppercase(),
         Kind::LoopCheck,
-        &text,
+        &res.log_text(),
     )?;
     entry.payload = Some(payload);
     let id = state.store.append(entry)?;
@@ -169,8 +179,20 @@ pub fn save(state: &mut AppState) -> Result<(EntryId, Stage), StoreError> {
         readings: Vec::new(),
         reference,
         cautions_read: true,
+        leave_ticked: Vec::new(),
     };
-    Ok((id, stage))
+    Ok((id, stage, left))
+}
+
+/// Copy the before-you-leave list, as ticked so far, in.
+fn show_leave(window: &AppWindow, state: &AppState) {
+    let a = window.global::<CheckAdapter>();
+    let v = crate::view::leave::view(&state.ui.check.leave_ticked, stage(state) == Stage::AsFound);
+    let (rows, status) = super::map_leave(&v);
+    a.set_leave_heading(v.heading.into());
+    a.set_leave_rows(rows);
+    a.set_leave_status(status);
+    a.set_leave_summary(v.summary.into());
 }
 
 /// Copy what does not depend on readings.
@@ -184,6 +206,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     a.set_stage(if stage(state) == Stage::AsLeft { 1 } else { 0 });
     a.set_reference_text(form.reference.clone().into());
     a.set_initials_text(state.ui.initials.clone().into());
+    show_leave(window, state);
     match state.open_tag() {
         Some(tag) => {
             a.set_tag_title(tag.number.clone().into());

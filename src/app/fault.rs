@@ -5,14 +5,16 @@
 //! The session lives in the saved screen state ([`FaultState`]: the session as JSON, the
 //! values half-typed at its step, the technician's words), so an unfinished session
 //! survives the app being killed and is resumed with [`Session::resume`] on the next start.
-//! Saving writes it to the tag's log (kind fault-finding, the session as the payload), and
-//! clears it.
+//! The before-you-leave list is ticked above "Save to log" and its ticks are kept in the
+//! same saved state. Saving writes the session to the tag's log (kind fault-finding, the
+//! session with the list as ticked as the payload), and clears it.
 
 use super::state::FaultState;
 use super::{model, AppState, AppWindow, FaultAdapter, Shared};
 use crate::diagnose::{procedure, Answer, Measurement, Procedure, Progress, Session, Settings};
 use crate::error::{FieldError, Result};
 use crate::journal::{Entry, EntryId, Kind};
+use crate::leave::{self, LeaveList};
 use crate::number::parse_in;
 use crate::store::StoreError;
 use crate::tag::Tag;
@@ -175,6 +177,7 @@ pub fn start(state: &mut AppState, index: usize) -> Result<()> {
     };
     state.ui.fault.inputs.clear();
     state.ui.fault.technician.clear();
+    state.ui.fault.leave_ticked.clear();
     keep(state, &run)
 }
 
@@ -213,14 +216,23 @@ pub fn restart(state: &mut AppState) {
 }
 
 /// Save the session, finished or not, to its tag's log: the text says what the procedure
-/// concluded (or that it is not finished) and the technician's own words, the session is
-/// the payload, and `initials` sign it. The session is then cleared; returns the entry's
-/// id once it is durable.
-pub fn save(state: &mut AppState, initials: &str) -> std::result::Result<EntryId, StoreError> {
+/// concluded (or that it is not finished), the technician's own words and what was not
+/// put right before leaving; the session with the before-you-leave list as ticked is the
+/// payload, and `initials` sign it. The session is then cleared; returns the entry's id
+/// once it is durable, and the list as recorded.
+pub fn save(
+    state: &mut AppState,
+    initials: &str,
+) -> std::result::Result<(EntryId, LeaveList), StoreError> {
     let run = current(state)?
         .ok_or_else(|| FieldError::new("session", "none is under way; choose a symptom first"))?;
     let mut session = run.session;
     session.conclude(&state.ui.fault.technician);
+    session.left(&leave::items_of(&state.ui.fault.leave_ticked));
+    let left = session
+        .before_leaving
+        .clone()
+        .unwrap_or_else(|| LeaveList::from_done(&[]));
     let tag_id = state
         .store
         .tag(&session.tag)
@@ -246,7 +258,7 @@ pub fn save(state: &mut AppState, initials: &str) -> std::result::Result<EntryId
     let id = state.store.append(entry)?;
     state.ui.initials = who;
     restart(state);
-    Ok(id)
+    Ok((id, left))
 }
 
 /// The line shown when an unfinished session is carried on after a restart.
@@ -324,16 +336,30 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     });
     let weak = window.as_weak();
     let st = state.clone();
+    a.on_leave_toggled(move |i, on| {
+        let Some(w) = weak.upgrade() else { return };
+        if let Ok(i) = usize::try_from(i) {
+            crate::view::leave::toggle(&mut st.borrow_mut().ui.fault.leave_ticked, i, on);
+        }
+        show_leave(&w, &st.borrow());
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
     a.on_save(move || {
         let Some(w) = weak.upgrade() else { return };
         let a = w.global::<FaultAdapter>();
         let initials = a.get_initials_text().to_string();
         let saved = save(&mut st.borrow_mut(), &initials);
         match saved {
-            Ok(id) => {
+            Ok((id, left)) => {
                 a.set_error_text("".into());
                 a.set_resume_text("".into());
-                a.set_message(format!("Saved to the log as {id}.").into());
+                let mut message = format!("Saved to the log as {id}.");
+                if !left.all_done() {
+                    message.push(' ');
+                    message.push_str(&left.summary());
+                }
+                a.set_message(message.into());
                 refresh(&w, &st.borrow());
                 super::log::refresh(&w, &st.borrow());
                 super::tags::refresh(&w, &st.borrow());
@@ -415,7 +441,19 @@ fn map_input(i: &fv::Input) -> super::FaultInput {
     }
 }
 
-/// Copy the cautions, the symptom menu and the session (if one is under way) in.
+/// Copy the before-you-leave list, as ticked so far, in.
+fn show_leave(window: &AppWindow, state: &AppState) {
+    let a = window.global::<FaultAdapter>();
+    let v = crate::view::leave::view(&state.ui.fault.leave_ticked, false);
+    let (rows, status) = super::map_leave(&v);
+    a.set_leave_heading(v.heading.into());
+    a.set_leave_rows(rows);
+    a.set_leave_status(status);
+    a.set_leave_summary(v.summary.into());
+}
+
+/// Copy the cautions, the symptom menu, the session (if one is under way) and the
+/// before-you-leave list in.
 pub fn refresh(window: &AppWindow, state: &AppState) {
     let a = window.global::<FaultAdapter>();
     let f = &state.ui.fault;
@@ -441,6 +479,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     a.set_technician_text(f.technician.clone().into());
     a.set_meter_text(f.meter_tolerance.clone().into());
     a.set_initials_text(state.ui.initials.clone().into());
+    show_leave(window, state);
     let run = current(state).ok().flatten();
     let Some(run) = run else {
         a.set_running(false);

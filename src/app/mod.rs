@@ -343,6 +343,28 @@ pub fn refresh_all(window: &AppWindow, state: &AppState) {
     about::refresh(window, state);
 }
 
+/// The before-you-leave list as the Check and Find fault adapters take it: its rows and
+/// its status.
+pub(crate) fn map_leave(
+    v: &crate::view::leave::LeaveView,
+) -> (slint::ModelRc<LeaveRow>, LeaveStatus) {
+    let rows = v
+        .rows
+        .iter()
+        .map(|r| LeaveRow {
+            label: r.label.clone().into(),
+            text: r.text.clone().into(),
+            done: r.done,
+            state: r.state.clone().into(),
+        })
+        .collect();
+    let status = match v.status {
+        crate::view::leave::LeaveStatus::AllDone => LeaveStatus::AllDone,
+        crate::view::leave::LeaveStatus::NotAllDone => LeaveStatus::NotAllDone,
+    };
+    (model(rows), status)
+}
+
 /// A Slint model from a vector.
 pub(crate) fn model<T: Clone + 'static>(items: Vec<T>) -> slint::ModelRc<T> {
     slint::ModelRc::new(slint::VecModel::from(items))

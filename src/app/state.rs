@@ -1,5 +1,6 @@
 //! What survives the app being closed or killed: the screen, the open tag, half-typed
-//! values (Convert, Power, an unfinished check), the theme. The register and the log are
+//! values (Convert, Power, an unfinished check or session with its before-you-leave ticks),
+//! the theme. The register and the log are
 //! not here: they are in the store (`crate::store`), which saves each change durably as it
 //! is made.
 //!
@@ -126,6 +127,8 @@ pub struct CheckForm {
     pub reference: String,
     /// The cautions were read for this check.
     pub cautions_read: bool,
+    /// Ids of the before-you-leave items ticked so far (`crate::leave`).
+    pub leave_ticked: Vec<String>,
 }
 
 impl Default for CheckForm {
@@ -136,6 +139,7 @@ impl Default for CheckForm {
             readings: Vec::new(),
             reference: String::new(),
             cautions_read: false,
+            leave_ticked: Vec::new(),
         }
     }
 }
@@ -311,6 +315,8 @@ pub struct FaultState {
     /// Allowance between two mA readings for the next session, mA, as typed (empty: the
     /// default, which suits a handheld meter on its mA range).
     pub meter_tolerance: String,
+    /// Ids of the before-you-leave items ticked so far (`crate::leave`).
+    pub leave_ticked: Vec<String>,
 }
 
 #[cfg(test)]

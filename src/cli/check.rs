@@ -15,6 +15,7 @@ use crate::diagnose::session::{Answer, AnswerSheet, Progress, Session};
 use crate::diagnose::Settings;
 use crate::error::FieldError;
 use crate::journal::{Entry, Kind};
+use crate::leave::{self, Item, LeaveList};
 use crate::number::{parse_in, parse_list, parse_quantity, parse_range};
 use crate::rtd::{RtdKind, Wiring};
 use crate::sensor::Sensor;
@@ -84,16 +85,50 @@ impl TagArgs {
     }
 }
 
+/// What was put right before leaving the loop (the list in [`crate::leave`]).
+#[derive(Debug, Args)]
+pub struct LeaveArgs {
+    /// Before-you-leave items done, comma-separated: loop (back in its normal mode), links
+    /// (closed, meter out, covers on), forces (and bypasses removed), operations (told); or
+    /// all. Items not named are recorded as NOT done (not confirmed).
+    #[arg(long, value_name = "ITEMS")]
+    done: Option<String>,
+}
+
+impl LeaveArgs {
+    /// The items named, or `None` when `--done` was not given.
+    fn items(&self) -> Result<Option<Vec<Item>>, FieldError> {
+        self.done
+            .as_deref()
+            .map(|t| leave::parse_list("done", t))
+            .transpose()
+    }
+}
+
+/// The hint printed when not everything was confirmed done.
+fn leave_hint(list: &LeaveList) -> Option<String> {
+    (!list.all_done()).then(|| {
+        format!(
+            "(name what was put right with --done {} or --done all)",
+            Item::ALL.map(Item::id).join(",")
+        )
+    })
+}
+
 /// `loopside check`
 #[derive(Debug, Args)]
 #[command(after_help = "Examples:\n  \
     loopside check --tag PT-204 --range 0..10 --unit bar --device transmitter \\\n    \
-    --applied 0,2.5,5,7.5,10,7.5,5,2.5,0 --measured 4.01,8.02,12.03,16.02,20.01,16.04,12.05,8.03,4.02\n  \
+    --applied 0,2.5,5,7.5,10,7.5,5,2.5,0 --measured 4.01,8.02,12.03,16.02,20.01,16.04,12.05,8.03,4.02 \\\n    \
+    --done loop,links,forces,operations\n  \
     loopside check --range 0..4,5 --unit m --device receiver --applied \"4;12;20\" --measured \"0,00;2,26;4,50\" --json\n\
-    Lists are in test order, rising then falling; use ';' between items to write decimal commas.")]
+    Lists are in test order, rising then falling; use ';' between items to write decimal commas.\n\
+    --done records what was put right before leaving the loop; items not named are recorded as NOT done.")]
 pub struct CheckArgs {
     #[command(flatten)]
     which: TagArgs,
+    #[command(flatten)]
+    leave: LeaveArgs,
     /// transmitter: apply engineering values, read mA; receiver: inject mA, read the display.
     #[arg(long, value_parser = ["transmitter", "receiver"])]
     device: String,
@@ -255,22 +290,17 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
             .collect::<Result<Vec<f64>, FieldError>>()?;
     }
     let measured = parse_list("measured", &args.measured)?;
-    let result = check.run(&applied, &measured)?;
+    let mut result = check.run(&applied, &measured)?;
+    result.left(&args.leave.items()?.unwrap_or_default());
     let mut value = serde_json::to_value(&result).map_err(|e| CliError::Failure(e.to_string()))?;
     if let Some((unit, inputs)) = &sensor_inputs {
         value["sensor_inputs"] = serde_json::json!({ "unit": unit, "values": inputs });
     }
     let saved = if args.which.save {
-        let text = format!(
-            "{} check, {}: {}",
-            result.device.as_str(),
-            result.stage.label(),
-            result.summary()
-        );
         Some(save_entry(
             &args.which,
             Kind::LoopCheck,
-            &text,
+            &result.log_text(),
             value.clone(),
         )?)
     } else {
@@ -294,6 +324,7 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
             .filter(|l| !l.starts_with("|---"))
             .map(str::to_string),
     );
+    lines.extend(result.before_leaving.as_ref().and_then(leave_hint));
     if let Some(id) = saved {
         lines.push(format!("saved to the log as {id}"));
     }
@@ -334,13 +365,17 @@ fn parse_accuracy(text: &str, tag: &Tag, input_unit: Option<&str>) -> Result<Acc
     after_help = "Symptoms: stuck-low, pegged-high, steady-wrong, short-of-top, noisy, disagree, hart-no-answer.\n\
 Examples:\n  \
     loopside diagnose --tag LT-101 --range 0..4,5 --unit m --supply 24 --min-volts 10,5 --load \"PLC input=250\" --symptom stuck-low\n  \
-    loopside diagnose --range 0..16 --unit bar --symptom steady-wrong --answers answers.json --json\n\
+    loopside diagnose --range 0..16 --unit bar --symptom steady-wrong --answers answers.json --done all --json\n\
+Without --answers the steps are asked on the terminal, and at the end what was put right before leaving\n\
+(unless --done names it; items not named or not answered yes are recorded as NOT done).\n\
 An answers file is one JSON object: measurement keys (tx_ma, rx_ma, supply_v, terminal_v, resistor_v, resistor_ohms,\n\
 loop_ohms, shield_ac_v, swing_ma, displayed, control_value, process_value) with numbers, and question step ids with yes/no."
 )]
 pub struct DiagnoseArgs {
     #[command(flatten)]
     which: TagArgs,
+    #[command(flatten)]
+    leave: LeaveArgs,
     /// The symptom (or procedure id).
     #[arg(long, value_name = "NAME")]
     symptom: String,
@@ -390,6 +425,7 @@ pub(super) fn diagnose(
     }
     settings.validate()?;
     let mut session = Session::start_with(&procedure, &tag, settings);
+    let named = args.leave.items()?;
     match &args.answers {
         Some(path) => {
             let sheet = AnswerSheet::from_json(&read_file("answers", path)?, &tag)?;
@@ -398,18 +434,25 @@ pub(super) fn diagnose(
                 return Err(CliError::Input(FieldError::new("answers", missing)));
             }
         }
-        None => interactive(&mut session, &procedure, &tag, input, out, !args.json)?,
+        None => {
+            interactive(&mut session, &procedure, &tag, input, out, !args.json)?;
+            if named.is_none() {
+                let done = ask_leave(input, out)?;
+                session.left(&done);
+            }
+        }
+    }
+    if let Some(done) = &named {
+        session.left(done);
+    } else if session.before_leaving.is_none() {
+        session.left(&[]);
     }
     let mut value = serde_json::to_value(&session).map_err(|e| CliError::Failure(e.to_string()))?;
     let saved = if args.which.save {
-        let text = match &session.conclusion {
-            Some(c) => format!("{}: {}", procedure.title, c.text),
-            None => format!("{}: not finished", procedure.title),
-        };
         Some(save_entry(
             &args.which,
             Kind::FaultFinding,
-            &text,
+            &session.log_text(),
             value.clone(),
         )?)
     } else {
@@ -428,6 +471,9 @@ pub(super) fn diagnose(
         lines.push(String::new());
     }
     lines.extend(report_lines(&session));
+    if args.answers.is_some() {
+        lines.extend(session.before_leaving.as_ref().and_then(leave_hint));
+    }
     if let Some(id) = saved {
         lines.push(format!("saved to the log as {id}"));
     }
@@ -463,7 +509,48 @@ fn report_lines(session: &Session) -> Vec<String> {
     if !session.technician_conclusion.is_empty() {
         lines.push(format!("Technician: {}", session.technician_conclusion));
     }
+    if let Some(l) = &session.before_leaving {
+        lines.push(String::new());
+        lines.push(format!("{}:", leave::HEADING));
+        lines.extend(l.lines().into_iter().map(|line| format!("  {line}")));
+    }
     lines
+}
+
+/// Ask on the terminal which before-you-leave items were done: yes or no for each; Enter
+/// or the end of input counts as not confirmed.
+fn ask_leave(input: &mut dyn BufRead, out: &mut dyn Write) -> Result<Vec<Item>, CliError> {
+    print_lines(
+        out,
+        &[format!(
+            "{} (yes for each thing done; Enter or no leaves it recorded as NOT done):",
+            leave::HEADING
+        )],
+    )?;
+    let mut done = Vec::new();
+    'items: for item in Item::ALL {
+        loop {
+            prompt(out, &format!("  {} (yes/no): ", item.text()))?;
+            let mut line = String::new();
+            let n = input
+                .read_line(&mut line)
+                .map_err(|e| CliError::Failure(format!("cannot read the answer: {e}")))?;
+            if n == 0 {
+                print_lines(out, &[String::new()])?;
+                break 'items;
+            }
+            match line.trim().to_lowercase().as_str() {
+                "y" | "yes" => {
+                    done.push(item);
+                    break;
+                }
+                "" | "n" | "no" => break,
+                _ => print_lines(out, &["  Please answer yes or no.".to_string()])?,
+            }
+        }
+    }
+    print_lines(out, &[String::new()])?;
+    Ok(done)
 }
 
 fn prompt(out: &mut dyn Write, text: &str) -> CliResult {

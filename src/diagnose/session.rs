@@ -16,6 +16,7 @@ use super::measure::Measurement;
 use super::procedure::{Procedure, Step, StepKind};
 use crate::caution::CAUTIONS;
 use crate::error::{FieldError, Result};
+use crate::leave::{Item, LeaveList};
 use crate::tag::Tag;
 use serde::{Deserialize, Serialize};
 use std::collections::BTreeMap;
@@ -123,6 +124,11 @@ pub struct Session {
     /// The technician's own words on what was found and done.
     #[serde(default)]
     pub technician_conclusion: String,
+    /// The before-you-leave list as the technician left it (payload key
+    /// `before_leaving`); `None` in sessions saved before loopside asked, and until a
+    /// front sets it with [`Session::left`].
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub before_leaving: Option<LeaveList>,
 }
 
 impl Session {
@@ -147,6 +153,7 @@ impl Session {
             findings: Vec::new(),
             conclusion: None,
             technician_conclusion: String::new(),
+            before_leaving: None,
         }
     }
 
@@ -215,6 +222,31 @@ impl Session {
     /// Record the technician's own conclusion.
     pub fn conclude(&mut self, text: &str) {
         self.technician_conclusion = text.trim().to_string();
+    }
+
+    /// Record what was put right before leaving the loop: `done` were ticked (or named on
+    /// the command line), the rest are recorded as not done.
+    pub fn left(&mut self, done: &[Item]) {
+        self.before_leaving = Some(LeaveList::from_done(done));
+    }
+
+    /// The text of the log entry the session is saved as: the procedure's title and its
+    /// conclusion (or that it is not finished), the technician's own words, and, when
+    /// recorded, what was and was not put right before leaving (the same words from the
+    /// app and the command line).
+    pub fn log_text(&self) -> String {
+        let mut text = match &self.conclusion {
+            Some(c) => format!("{}: {}", self.title, c.text),
+            None => format!("{}: not finished", self.title),
+        };
+        if !self.technician_conclusion.is_empty() {
+            text.push_str(&format!("\nTechnician: {}", self.technician_conclusion));
+        }
+        if let Some(l) = &self.before_leaving {
+            text.push('\n');
+            text.push_str(&l.summary());
+        }
+        text
     }
 
     /// Give the answer to the current step and move on. Values for a measure step may come

@@ -400,18 +400,10 @@ fn severity(t: Tone) -> u8 {
     }
 }
 
-/// The text of the log entry a session is saved as: the procedure's title and its
-/// conclusion (or that it is not finished), then the technician's own words.
+/// The text of the log entry a session is saved as: [`Session::log_text`], the one
+/// wording the command line uses too.
 pub fn log_text(session: &Session) -> String {
-    let head = match &session.conclusion {
-        Some(c) => format!("{}: {}", session.title, c.text),
-        None => format!("{}: not finished", session.title),
-    };
-    if session.technician_conclusion.is_empty() {
-        head
-    } else {
-        format!("{head}\nTechnician: {}", session.technician_conclusion)
-    }
+    session.log_text()
 }
 
 #[cfg(test)]

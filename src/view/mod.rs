@@ -9,6 +9,7 @@ pub mod bands;
 pub mod check;
 pub mod convert;
 pub mod fault;
+pub mod leave;
 pub mod log;
 pub mod power;
 pub mod sensor_calc;
