@@ -23,7 +23,12 @@ fn two_milliamps_on_a_zero_to_twenty_signal_is_ten_percent() {
     ]);
     assert_eq!(j["status"], "in-range");
     close(j["percent"].as_f64().unwrap(), 10.0, 1e-9, "CLI 2 mA");
+    let j = loopside_json(&["status", "2", "--signal", "0..20", "--json"]);
+    assert_eq!(j["status"], "in-range");
+    assert_eq!(j["failure"], false);
     // On 4–20 mA the same 2 mA is a downscale failure signal (NE 43: ≤ 3.6 mA).
+    let j = loopside_json(&["status", "2", "--json"]);
+    assert_eq!(j["status"], "fail-low");
     let j = loopside_json(&[
         "convert", "--range", "0..100", "--unit", "%", "--ma", "2", "--json",
     ]);

@@ -760,11 +760,16 @@ fn significant(value: f64, digits: i32) -> String {
 #[derive(Debug, Args)]
 #[command(after_help = "Examples:\n  \
     loopside status 3.55\n  \
-    loopside status 20,7 --json")]
+    loopside status 20,7 --json\n  \
+    loopside status 2 --signal 0..20")]
 pub struct StatusArgs {
     /// Loop current, mA.
     #[arg(allow_hyphen_values = true)]
     ma: String,
+    /// Signal span in mA, default 4..20. NE 43 bands apply to 4–20 mA only; on another
+    /// span (0..20) a current is under, within or over the span.
+    #[arg(long, allow_hyphen_values = true, value_name = "LOW..HIGH")]
+    signal: Option<String>,
     /// Print one JSON object.
     #[arg(long)]
     json: bool,
@@ -772,7 +777,13 @@ pub struct StatusArgs {
 
 pub(super) fn status(args: StatusArgs, out: &mut dyn Write) -> CliResult {
     let ma = parse_in("ma", &args.ma, "mA")?;
-    let span = SignalSpan::default();
+    let span = match &args.signal {
+        Some(text) => {
+            let (lo, hi) = parse_range("signal", text)?;
+            SignalSpan::new(lo, hi)?
+        }
+        None => SignalSpan::default(),
+    };
     let status = classify(ma, &BandLimits::default(), &span)?;
     if args.json {
         return print_json(

@@ -45,7 +45,7 @@ pub enum Command {
     Wire(calc::WireArgs),
     /// Convert a value between engineering units.
     Units(calc::UnitsArgs),
-    /// Classify a loop current by the NAMUR NE 43 bands.
+    /// Classify a loop current: NAMUR NE 43 bands on 4–20 mA, plain under/within/over on another signal span.
     Status(calc::StatusArgs),
     /// Volts, power and reading error of a sense resistor.
     Resistor(calc::ResistorArgs),
