@@ -27,6 +27,7 @@ pub mod budget;
 pub mod caution;
 pub mod check;
 pub mod cli;
+pub mod data_folder;
 pub mod demo;
 pub mod diagnose;
 pub mod display;

@@ -501,12 +501,8 @@ pub fn save(state: &AppState) -> std::io::Result<()> {
 /// (Not on Android, where the data folder comes from the activity: see `crate::android`.)
 #[cfg(not(target_os = "android"))]
 pub fn run_desktop() -> Result<(), Box<dyn std::error::Error>> {
-    let data_dir = match std::env::var_os(crate::cli::DATA_ENV).filter(|d| !d.is_empty()) {
-        Some(d) => PathBuf::from(d),
-        None => {
-            crate::cli::default_data_dir().ok_or("no home folder to keep loopside's data in")?
-        }
-    };
+    let data_dir =
+        crate::data_folder::resolve(None).ok_or("no home folder to keep loopside's data in")?;
     let mut state = load_or_demo(data_dir.clone())?;
     state.export_dir = directories::UserDirs::new()
         .and_then(|u| u.document_dir().map(Path::to_path_buf))

@@ -206,14 +206,15 @@ pub(super) fn convert(args: ConvertArgs, out: &mut dyn Write) -> CliResult {
             let target = units::lookup(to).ok_or_else(|| units::unknown_unit("to", to))?;
             let (atm_pa, given) = atmosphere(args.atm.as_deref())?;
             let v = units::convert_units_at(reading.value, from, target, atm_pa)?;
-            let span_to = units::convert_difference(value_span(&scale), from, target)?;
+            let span_to =
+                units::convert_difference(crate::view::convert::value_span(&scale), from, target)?;
             let atm = units::crosses_reference(from, target).then_some((atm_pa, given));
             (v, target.symbol.to_string(), span_to, atm)
         }
         None => (
             reading.value,
             reading.unit.clone(),
-            value_span(&scale),
+            crate::view::convert::value_span(&scale),
             None,
         ),
     };
@@ -285,16 +286,6 @@ pub(super) fn convert(args: ConvertArgs, out: &mut dyn Write) -> CliResult {
         status.meaning()
     ));
     print_lines(out, &lines)
-}
-
-fn value_span(scale: &Scale) -> f64 {
-    match &scale.transfer {
-        Transfer::Table(t) => {
-            let pts = t.points();
-            pts[pts.len() - 1].output - pts[0].output
-        }
-        _ => scale.span(),
-    }
 }
 
 /// `loopside budget`

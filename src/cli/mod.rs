@@ -11,8 +11,6 @@ mod calc;
 mod check;
 mod sensors;
 mod store;
-pub use store::default_data_dir;
-pub use store::DATA_ENV;
 
 use crate::error::FieldError;
 use clap::{Parser, Subcommand};

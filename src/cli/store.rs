@@ -25,9 +25,6 @@ use serde_json::json;
 use std::io::Write;
 use std::path::PathBuf;
 
-/// Environment variable naming the data folder.
-pub const DATA_ENV: &str = "LOOPSIDE_DATA";
-
 /// How long a command waits for a data folder another loopside has open.
 pub const LOCK_WAIT: std::time::Duration = std::time::Duration::from_millis(2500);
 
@@ -39,28 +36,9 @@ pub struct DataArgs {
     data_dir: Option<PathBuf>,
 }
 
-/// The platform's data folder for loopside (desktop systems only; on Android the folder
-/// comes from the activity and the command line must be given one).
-#[cfg(not(target_os = "android"))]
-pub fn default_data_dir() -> Option<PathBuf> {
-    directories::ProjectDirs::from("", "", "loopside").map(|p| p.data_dir().to_path_buf())
-}
-
-/// On Android there is no user data folder outside the app's own: none by default.
-#[cfg(target_os = "android")]
-pub fn default_data_dir() -> Option<PathBuf> {
-    None
-}
-
 impl DataArgs {
     fn folder(&self) -> Result<PathBuf, CliError> {
-        if let Some(d) = &self.data_dir {
-            return Ok(d.clone());
-        }
-        if let Some(d) = std::env::var_os(DATA_ENV).filter(|d| !d.is_empty()) {
-            return Ok(PathBuf::from(d));
-        }
-        default_data_dir().ok_or_else(|| {
+        crate::data_folder::resolve(self.data_dir.clone()).ok_or_else(|| {
             CliError::Failure(
                 "no data folder could be found for this user; give --data-dir DIR".into(),
             )
