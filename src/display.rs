@@ -66,16 +66,6 @@ pub fn trimmed(value: f64) -> String {
     }
 }
 
-/// A low-flow cutoff, in % of flow and the % of DP it equals (flow ∝ √ΔP):
-/// `1 % of flow (0.01 % of DP)`.
-pub fn cutoff(flow_percent: f64) -> String {
-    format!(
-        "{} % of flow ({} % of DP)",
-        trimmed(flow_percent),
-        trimmed(crate::scale::cutoff_dp_percent(flow_percent))
-    )
-}
-
 /// A number with a fixed count of decimals, never showing `-0.00`.
 pub fn fixed(value: f64, decimals: usize) -> String {
     let s = format!("{value:.decimals$}");

@@ -323,7 +323,7 @@ pub fn transfer_text(t: &Transfer) -> String {
                 RootLocation::Transmitter => "transmitter",
                 RootLocation::Receiver => "receiver",
             },
-            crate::display::cutoff(*cutoff_percent)
+            crate::view::cutoff(*cutoff_percent)
         ),
         Transfer::Table(table) => format!("table → {}", table.output_unit()),
     }

@@ -273,7 +273,7 @@ pub(super) fn convert(args: ConvertArgs, out: &mut dyn Write) -> CliResult {
             };
             lines.push(format!(
                 "cutoff   {} — {state}",
-                display::cutoff(cutoff_percent)
+                crate::view::cutoff(cutoff_percent)
             ));
         }
     }
@@ -683,7 +683,7 @@ pub struct UnitsArgs {
 /// The atmosphere a conversion uses: the typed one, or the standard atmosphere.
 fn atmosphere(atm: Option<&str>) -> Result<(f64, bool), FieldError> {
     match atm {
-        Some(text) => Ok((units::parse_atmosphere("atm", text)?, true)),
+        Some(text) => Ok((crate::number::parse_atmosphere("atm", text)?, true)),
         None => Ok((units::STANDARD_ATMOSPHERE_PA, false)),
     }
 }

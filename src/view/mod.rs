@@ -27,6 +27,16 @@ pub fn plain(v: f64) -> String {
     display::trimmed(v)
 }
 
+/// A low-flow cutoff, in % of flow and the % of DP it equals (flow ∝ √ΔP):
+/// `1 % of flow (0.01 % of DP)`.
+pub fn cutoff(flow_percent: f64) -> String {
+    format!(
+        "{} % of flow ({} % of DP)",
+        display::trimmed(flow_percent),
+        display::trimmed(crate::scale::cutoff_dp_percent(flow_percent))
+    )
+}
+
 /// A range as the register lists it: `0 – 4.5 m`, `250 – 0 mbar`.
 pub fn range_text(scale: &Scale) -> String {
     format!("{} – {} {}", plain(scale.lrv), plain(scale.urv), scale.unit)

@@ -52,7 +52,7 @@ pub fn transfer_words(t: &Transfer) -> String {
         Transfer::SquareRoot { cutoff_percent, .. } => {
             format!(
                 "square root, cutoff {}",
-                crate::display::cutoff(*cutoff_percent)
+                crate::view::cutoff(*cutoff_percent)
             )
         }
         Transfer::Table(table) => format!(
