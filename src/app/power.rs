@@ -164,7 +164,7 @@ pub fn form_from(tag: &str, c: &LoopConfig) -> PowerForm {
         tx_min: display::trimmed(c.tx_min_volts),
         // Empty when the device's configured fault current was not given: the field then
         // shows the default as a placeholder and the budget says it is a default.
-        fault: c.fault_ma.map(plain).unwrap_or_default(),
+        fault: c.fault_ma.map(display::trimmed).unwrap_or_default(),
         cable_m: c
             .cable
             .map(|k| display::trimmed(k.one_way_m))
