@@ -14,6 +14,7 @@ pub mod log;
 pub mod power;
 pub mod sensor_calc;
 pub mod tag_sheet;
+pub mod wording;
 
 use crate::display;
 use crate::scale::Scale;

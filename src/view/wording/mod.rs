@@ -1,0 +1,7 @@
+//! The words above the core, written once: the core returns numbers, codes and the
+//! limiting element; these turn them into the sentences the command line prints, the app
+//! shows, the log keeps and the report prints.
+//!
+//! - [`check`] — a loop check's verdict, log text, report section and warnings.
+
+pub mod check;
