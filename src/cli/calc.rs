@@ -506,9 +506,9 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
             "ok": b.ok,
             "ok_full_scale": b.ok_full_scale,
             "ok_fault": b.ok_fault,
-            "limit": b.limit,
+            "limit": crate::view::wording::power::limit(&b.limit),
             "hart_ok": b.hart_ok,
-            "hart_note": b.hart_note,
+            "hart_note": crate::view::wording::power::hart(&b.hart),
         });
         return print_json(out, &obj);
     }
@@ -568,12 +568,12 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
     lines.push(format!(
         "verdict: {} — {}",
         if b.ok { "OK" } else { "NOT ENOUGH VOLTAGE" },
-        b.limit
+        crate::view::wording::power::limit(&b.limit)
     ));
     lines.push(format!(
         "HART: {} — {}",
         if b.hart_ok { "ok" } else { "outside window" },
-        b.hart_note
+        crate::view::wording::power::hart(&b.hart)
     ));
     print_lines(out, &lines)
 }

@@ -226,7 +226,7 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
             } else {
                 "HART: loop resistance outside the window".to_string()
             },
-            capitalised(&b.hart_note),
+            capitalised(&crate::view::wording::power::hart(&b.hart)),
             if b.hart_ok { Tone::Good } else { Tone::Bad },
         )
     });
@@ -249,7 +249,7 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
         supply_label: format!("Supply {}", display::volts(b.lowest_supply_volts)),
         legend,
         verdict_title,
-        verdict_detail: capitalised(&b.limit),
+        verdict_detail: capitalised(&crate::view::wording::power::limit(&b.limit)),
         verdict_tone: tone_of(b.ok),
         figures,
         notes,

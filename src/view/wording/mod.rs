@@ -2,6 +2,8 @@
 //! limiting element; these turn them into the sentences the command line prints, the app
 //! shows, the log keeps and the report prints.
 //!
-//! - [`check`] — a loop check's verdict, log text, report section and warnings.
+//! - [`check`] — a loop check's verdict, log text, report section and warnings;
+//! - [`power`] — what limits a loop's voltage budget, and its HART verdict.
 
 pub mod check;
+pub mod power;
