@@ -144,13 +144,7 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
             fault: display::volts(p_fault.volts),
         });
     }
-    let spare_line = |p: &OperatingPoint| {
-        if p.headroom_volts >= 0.0 {
-            display::volts(p.headroom_volts)
-        } else {
-            format!("−{}", display::volts(-p.headroom_volts))
-        }
-    };
+    let spare_line = |p: &OperatingPoint| display::volts_spare(p.headroom_volts);
     legend.push(LegendLine {
         kind: if b.ok {
             SliceKind::Spare
