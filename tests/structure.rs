@@ -97,9 +97,7 @@ fn code_only(src: &str) -> String {
             }
             if c.get(j) == Some(&'"') {
                 let hashes = j - start;
-                for k in i..=j {
-                    out.push(c[k]);
-                }
+                out.extend(&c[i..=j]);
                 i = j + 1;
                 while i < c.len() {
                     if c[i] == '"' && (0..hashes).all(|h| c.get(i + 1 + h) == Some(&'#')) {
