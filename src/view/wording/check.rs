@@ -11,20 +11,20 @@ use crate::scale::{RootLocation, Transfer};
 /// A check warning in plain words.
 pub fn warning(w: &CheckWarning) -> String {
     match w {
-            CheckWarning::ReferencePastDue {
-                id,
-                due,
-                check_date,
-                days_over,
-            } => format!(
-                "reference {id} was due for calibration on {due}; on {check_date} it was {days_over} day(s) past due, so this check rests on an uncalibrated instrument"
-            ),
-            CheckWarning::LowTur { tur, minimum } => format!(
-                "test uncertainty ratio {}:1 is below {}:1 (common practice): the reference is not accurate enough to judge this tolerance with confidence",
-                display::fixed(*tur, 1),
-                display::fixed(*minimum, 0)
-            ),
-        }
+        CheckWarning::ReferencePastDue {
+            id,
+            due,
+            check_date,
+            days_over,
+        } => format!(
+            "reference {id} was due for calibration on {due}; on {check_date} it was {days_over} day(s) past due, so this check rests on an uncalibrated instrument"
+        ),
+        CheckWarning::LowTur { tur, minimum } => format!(
+            "test uncertainty ratio {}:1 is below {}:1 (common practice): the reference is not accurate enough to judge this tolerance with confidence",
+            display::fixed(*tur, 1),
+            display::fixed(*minimum, 0)
+        ),
+    }
 }
 
 /// Text safe inside a Markdown table cell.
@@ -38,7 +38,7 @@ fn input_text(r: &CheckResult, value: f64) -> String {
         Device::Receiver => display::ma(value),
         Device::Transmitter => {
             let span = match &r.input_range {
-                Some(r) => r.urv - r.lrv,
+                Some(range) => range.urv - range.lrv,
                 None => r.scale.span(),
             };
             display::value(value, &r.input_unit, span)
