@@ -521,7 +521,7 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
     for p in [&b.at_low, &b.at_full_scale, &b.at_fault] {
         lines.push(format!(
             "at {:>6}: transmitter gets {:>8}, headroom {:>8}  {}",
-            display::fixed(p.current_ma, 1) + " mA",
+            display::ma_setting(p.current_ma),
             display::volts(p.terminal_volts),
             display::volts(p.headroom_volts),
             if p.ok { "ok" } else { "NOT ENOUGH" }

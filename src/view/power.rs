@@ -275,7 +275,7 @@ pub fn notes(b: &Budget, give_sag: &str, give_fault: &str) -> Vec<String> {
     if b.fault_ma_is_default {
         out.push(format!(
             "{} is a default upscale fault current, not this device's: give the value the device is configured to drive {give_fault}.",
-            display::fixed(b.at_fault.current_ma, 1) + " mA"
+            display::ma_setting(b.at_fault.current_ma)
         ));
     }
     if b.max_cable_m.is_some() {
