@@ -105,7 +105,7 @@ fn what_was_not_done_is_said_plainly_in_the_log_text() {
     let mut session = open_wiring_session();
     session.conclude("Lifted wire at JB-01 terminal 4, re-terminated");
     session.left(&[]);
-    let text = session.log_text();
+    let text = loopside::view::wording::fault::log_text(&session);
     let lines: Vec<&str> = text.lines().collect();
     assert!(lines[0].starts_with("Reading stuck at or below zero: "));
     assert_eq!(

@@ -452,7 +452,7 @@ pub(super) fn diagnose(
         Some(save_entry(
             &args.which,
             Kind::FaultFinding,
-            &session.log_text(),
+            &crate::view::wording::fault::log_text(&session),
             value.clone(),
         )?)
     } else {

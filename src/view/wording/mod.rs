@@ -3,7 +3,9 @@
 //! shows, the log keeps and the report prints.
 //!
 //! - [`check`] — a loop check's verdict, log text, report section and warnings;
+//! - [`fault`] — the log text of a fault-finding session;
 //! - [`power`] — what limits a loop's voltage budget, and its HART verdict.
 
 pub mod check;
+pub mod fault;
 pub mod power;
