@@ -229,7 +229,7 @@ fn export_and_import_between_devices() {
             bundle.to_str().unwrap(),
         ],
     );
-    assert!(msg.contains("wrote 11 entries on 7 tags"), "{msg}");
+    assert!(msg.contains("Wrote 11 entries on 7 tags"), "{msg}");
     let r1 = json(&b, &["import", bundle.to_str().unwrap(), "--json"]);
     assert_eq!(r1["entries_added"], 11);
     let r2 = json(&b, &["import", bundle.to_str().unwrap(), "--json"]);
@@ -252,7 +252,7 @@ fn bad_input_names_the_field() {
     run(&dir, &["demo"]);
     assert!(refuses(&dir, &["note", "add", "XX-999", "text"]).contains("tag:"));
     assert!(refuses(&dir, &["note", "add", "LT-101", "text", "--kind", "memo"]).contains("kind:"));
-    assert!(refuses(&dir, &["note", "add", "LT-101", "   "]).contains("text:"));
+    assert!(refuses(&dir, &["note", "add", "LT-101", "   "]).contains("note:"));
     assert!(refuses(
         &dir,
         &["note", "add", "LT-101", "x", "--author", "Anna Brown"]

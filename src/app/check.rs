@@ -6,9 +6,10 @@
 //! [`crate::check::CheckResult`] with the list as ticked.
 
 use super::{model, AppState, AppWindow, CheckAdapter, Shared};
+use crate::action::check::{self as action, NewCheck, SensorInputs};
 use crate::check::Stage;
 use crate::error::FieldError;
-use crate::journal::{Entry, EntryId, Kind};
+use crate::journal::EntryId;
 use crate::leave::{self, LeaveList};
 use crate::store::StoreError;
 use crate::view::check::{check_for, result, view};
@@ -156,21 +157,21 @@ pub fn save(state: &mut AppState) -> Result<(EntryId, Stage, LeaveList), StoreEr
         .before_leaving
         .clone()
         .unwrap_or_else(|| LeaveList::from_done(&[]));
-    let mut payload = serde_json::to_value(&res)
-        .map_err(|e| FieldError::new("check", format!("cannot be written: {e}")))?;
-    if let Some(sensor) = &record.tag.sensor {
-        payload["sensor"] = serde_json::to_value(sensor)
-            .map_err(|e| FieldError::new("sensor", format!("cannot be written: {e}")))?;
-    }
-    let mut entry = Entry::new(
-        &record.id,
+    let sensor = match record.tag.sensor {
+        Some(sensor) => Some(SensorInputs::planned(sensor, &res)?),
+        None => None,
+    };
+    let id = action::save_check(
+        state.store.as_mut(),
         now,
-        &state.ui.initials.trim().to_uppercase(),
-        Kind::LoopCheck,
-        &res.log_text(),
-    )?;
-    entry.payload = Some(payload);
-    let id = state.store.append(entry)?;
+        NewCheck {
+            tag: &record.tag.number,
+            initials: &state.ui.initials,
+            result: &res,
+            sensor,
+        },
+    )?
+    .id;
     let tag = record.tag.number.clone();
     let reference = state.ui.check.reference.clone();
     state.ui.check = super::state::CheckForm {

@@ -13,7 +13,7 @@ use super::state::FaultState;
 use super::{model, AppState, AppWindow, FaultAdapter, Shared};
 use crate::diagnose::{procedure, Answer, Measurement, Procedure, Progress, Session, Settings};
 use crate::error::{FieldError, Result};
-use crate::journal::{Entry, EntryId, Kind};
+use crate::journal::EntryId;
 use crate::leave::{self, LeaveList};
 use crate::number::parse_in;
 use crate::store::StoreError;
@@ -233,29 +233,10 @@ pub fn save(
         .before_leaving
         .clone()
         .unwrap_or_else(|| LeaveList::from_done(&[]));
-    let tag_id = state
-        .store
-        .tag(&session.tag)
-        .map(|r| r.id.clone())
-        .ok_or_else(|| {
-            FieldError::new(
-                "tag",
-                format!("{} is no longer in the register", session.tag),
-            )
-        })?;
-    let who = initials.trim().to_uppercase();
-    let mut entry = Entry::new(
-        &tag_id,
-        state.now(),
-        &who,
-        Kind::FaultFinding,
-        &fv::log_text(&session),
-    )?;
-    entry.payload = Some(
-        serde_json::to_value(&session)
-            .map_err(|e| FieldError::new("session", format!("cannot be written: {e}")))?,
-    );
-    let id = state.store.append(entry)?;
+    let now = state.now();
+    let saved =
+        crate::action::session::save_session(state.store.as_mut(), now, &session, initials)?;
+    let (id, who) = (saved.id, saved.initials);
     state.ui.initials = who;
     restart(state);
     Ok((id, left))

@@ -3,10 +3,8 @@
 
 use super::data::{now_local, query_from, store_error, DataArgs};
 use super::{print_json, print_lines, CliError, CliResult};
+use crate::action::bundle::{export_handover, handover, import_bundle, Destination, Format};
 use crate::demo;
-use crate::error::FieldError;
-use crate::report;
-use crate::store::{record::write_atomically, Store};
 use clap::Args;
 use std::io::Write;
 use std::path::PathBuf;
@@ -40,27 +38,23 @@ pub struct ExportArgs {
 pub(super) fn export(args: ExportArgs, out: &mut dyn Write) -> CliResult {
     let store = args.data.open()?;
     let q = query_from(&store, &args.tags, &args.since, &args.until)?;
-    let bundle = report::select(&store, &q, now_local());
-    let text = match args.format.as_str() {
-        "md" => report::markdown(&bundle),
-        "csv" => report::csv(&bundle),
-        _ => report::json(&bundle) + "\n",
-    };
+    let format = Format::parse(&args.format)?;
     match &args.out {
         Some(path) => {
-            write_atomically(path, text.as_bytes())
-                .map_err(|e| CliError::Failure(format!("cannot write {}: {e}", path.display())))?;
-            print_lines(
-                out,
-                &[format!(
-                    "wrote {} entries on {} tags to {}",
-                    bundle.entries.len(),
-                    bundle.tags.len(),
-                    path.display()
-                )],
+            let done = export_handover(
+                &store,
+                now_local(),
+                &q,
+                format,
+                &Destination::File(path.clone()),
             )
+            .map_err(store_error)?;
+            print_lines(out, &[done.to_string()])
         }
-        None => out.write_all(text.as_bytes()).map_err(super::io_failure),
+        None => {
+            let h = handover(&store, now_local(), &q, format);
+            out.write_all(h.text.as_bytes()).map_err(super::io_failure)
+        }
     }
 }
 
@@ -80,26 +74,15 @@ pub struct ImportArgs {
 }
 
 pub(super) fn import(args: ImportArgs, out: &mut dyn Write) -> CliResult {
-    let text = std::fs::read_to_string(&args.file).map_err(|e| {
-        FieldError::new("file", format!("cannot read {}: {e}", args.file.display()))
-    })?;
-    let bundle = report::parse_bundle(&text)?;
     let mut store = args.data.open()?;
-    let r = store.import(&bundle).map_err(store_error)?;
+    let done = import_bundle(&mut store, &args.file).map_err(store_error)?;
     if args.json {
         return print_json(
             out,
-            &serde_json::to_value(&r).map_err(|e| CliError::Failure(e.to_string()))?,
+            &serde_json::to_value(&done.0).map_err(|e| CliError::Failure(e.to_string()))?,
         );
     }
-    let mut lines = vec![format!(
-        "added {} tag(s) and {} entr(ies); {} entr(ies) were already here",
-        r.tags_added, r.entries_added, r.entries_already_here
-    )];
-    for c in &r.conflicts {
-        lines.push(format!("conflict: {}: {}", c.number, c.detail));
-    }
-    print_lines(out, &lines)
+    print_lines(out, &done.lines())
 }
 
 /// `loopside demo`

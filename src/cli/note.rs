@@ -2,9 +2,10 @@
 
 use super::data::{now_local, query_from, store_error, DataArgs};
 use super::{print_json, print_lines, CliResult};
+use crate::action::note::{self as action, NewNote};
 use crate::error::FieldError;
 use crate::journal::{closed_follow_ups, is_open, Entry, FollowUpStatus, Kind};
-use crate::store::{Store, StoreError};
+use crate::store::Store;
 use clap::{Args, Subcommand};
 use serde_json::json;
 use std::io::Write;
@@ -145,60 +146,37 @@ pub(super) fn note(args: NoteArgs, out: &mut dyn Write) -> CliResult {
     let mut store = args.data.open()?;
     match args.command {
         NoteCommand::Add(a) => {
-            let tag = store
-                .require_tag(&a.number)
-                .map_err(store_error)?
-                .id
-                .clone();
             let kind = match &a.kind {
                 Some(k) => Kind::parse(k)?,
                 None => Kind::Note,
             };
-            let mut entry = Entry::new(
-                &tag,
+            let payload = a.payload.as_deref().map(parse_payload).transpose()?;
+            let added = action::add_note(
+                &mut store,
                 now_local(),
-                a.author.as_deref().unwrap_or(""),
-                kind,
-                &a.text,
-            )?;
-            if let Some(r) = &a.refers_to {
-                entry.refers_to = Some(
-                    store
-                        .find_entry(r)
-                        .map_err(|e| match e {
-                            StoreError::Input(f) => StoreError::Input(f.renamed("refers-to")),
-                            other => other,
-                        })
-                        .map_err(store_error)?
-                        .id
-                        .clone(),
-                );
-            }
-            if let Some(p) = &a.payload {
-                entry.payload = Some(parse_payload(p)?);
-            }
-            // The id is printed only after append returns: the entry is on disk by then.
-            let id = store.append(entry).map_err(store_error)?;
-            print_lines(out, &[id.to_string()])
+                NewNote {
+                    tag: &a.number,
+                    text: &a.text,
+                    initials: a.author.as_deref().unwrap_or(""),
+                    kind,
+                    refers_to: a.refers_to.as_deref(),
+                    payload,
+                },
+            )
+            .map_err(store_error)?;
+            // The bare id, for scripts; printed only after the entry is on disk.
+            print_lines(out, &[added.id.to_string()])
         }
         NoteCommand::Done(a) => {
-            let open = store.find_entry(&a.id).map_err(store_error)?.clone();
-            let closed = closed_follow_ups(store.entries());
-            if closed.contains(&open.id) {
-                return Err(FieldError::new(
-                    "id",
-                    format!("follow-up {} is already done", open.id),
-                )
-                .into());
-            }
-            let entry = Entry::closing(
-                &open,
+            let closed = action::close_follow_up(
+                &mut store,
                 now_local(),
+                &a.id,
                 a.author.as_deref().unwrap_or(""),
                 a.text.as_deref().unwrap_or(""),
-            )?;
-            let id = store.append(entry).map_err(store_error)?;
-            print_lines(out, &[id.to_string()])
+            )
+            .map_err(store_error)?;
+            print_lines(out, &[closed.id.to_string()])
         }
         NoteCommand::List(a) => {
             let tags: Vec<String> = a.number.iter().cloned().collect();
