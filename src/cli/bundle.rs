@@ -13,6 +13,7 @@ use std::path::PathBuf;
 #[derive(Debug, Args)]
 #[command(after_help = "Examples:\n  \
     loopside export --format md --since 2026-11-27\n  \
+    loopside export --format md --since 12h\n  \
     loopside export --format csv --tag LT-101 --tag PT-204 --out handoff.csv\n  \
     loopside export --format json --out bundle.json")]
 pub struct ExportArgs {
@@ -21,11 +22,12 @@ pub struct ExportArgs {
     /// md (readable), csv (spreadsheet) or json (for `loopside import`).
     #[arg(long, value_name = "FORMAT", value_parser = ["md", "csv", "json"])]
     format: String,
-    /// From this local date (YYYY-MM-DD) or time (RFC 3339).
-    #[arg(long, value_name = "DATE")]
+    /// From: 12 h or 3 d back, today, yesterday, a local date (YYYY-MM-DD), a local
+    /// date and time (YYYY-MM-DD HH:MM) or a time with its offset (RFC 3339).
+    #[arg(long, value_name = "WHEN")]
     since: Option<String>,
-    /// Up to and including this local date, or before this time.
-    #[arg(long, value_name = "DATE")]
+    /// Up to: the same forms; a day (today, yesterday, a date) is included in full.
+    #[arg(long, value_name = "WHEN")]
     until: Option<String>,
     /// Only this tag (repeat for several).
     #[arg(long = "tag", value_name = "NUMBER")]

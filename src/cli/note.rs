@@ -43,7 +43,8 @@ pub enum NoteCommand {
 pub struct NoteAddArgs {
     /// Tag number.
     number: String,
-    /// What was done or found.
+    /// What was done or found (may begin with `-`: "-5 mbar offset found").
+    #[arg(allow_hyphen_values = true)]
     text: String,
     /// note, finding, loop-check, fault-finding or follow-up (default note).
     #[arg(long, value_name = "K")]
@@ -80,6 +81,7 @@ pub struct NoteDoneArgs {
 #[command(after_help = "Examples:\n  \
     loopside note list LT-101\n  \
     loopside note list --search \"loose wire\" --since 2026-11-27 --json\n  \
+    loopside note list --since 12h\n  \
     loopside note list --open\n\
     Dates are local days: --since 2026-11-27 --until 2026-11-30 covers both days in full.")]
 pub struct NoteListArgs {
@@ -88,11 +90,12 @@ pub struct NoteListArgs {
     /// Text to look for (case-insensitive).
     #[arg(long, value_name = "TEXT")]
     search: Option<String>,
-    /// From this local date (YYYY-MM-DD) or time (RFC 3339).
-    #[arg(long, value_name = "DATE")]
+    /// From: 12 h or 3 d back, today, yesterday, a local date (YYYY-MM-DD), a local
+    /// date and time (YYYY-MM-DD HH:MM) or a time with its offset (RFC 3339).
+    #[arg(long, value_name = "WHEN")]
     since: Option<String>,
-    /// Up to and including this local date, or before this time (RFC 3339).
-    #[arg(long, value_name = "DATE")]
+    /// Up to: the same forms; a day (today, yesterday, a date) is included in full.
+    #[arg(long, value_name = "WHEN")]
     until: Option<String>,
     /// Only follow-ups still open.
     #[arg(long)]
