@@ -24,10 +24,10 @@ pub struct ExportArgs {
     format: String,
     /// From: 12 h or 3 d back, today, yesterday, a local date (YYYY-MM-DD), a local
     /// date and time (YYYY-MM-DD HH:MM) or a time with its offset (RFC 3339).
-    #[arg(long, value_name = "WHEN")]
+    #[arg(long, allow_hyphen_values = true, value_name = "WHEN")]
     since: Option<String>,
     /// Up to: the same forms; a day (today, yesterday, a date) is included in full.
-    #[arg(long, value_name = "WHEN")]
+    #[arg(long, allow_hyphen_values = true, value_name = "WHEN")]
     until: Option<String>,
     /// Only this tag (repeat for several).
     #[arg(long = "tag", value_name = "NUMBER")]

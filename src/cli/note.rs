@@ -92,10 +92,10 @@ pub struct NoteListArgs {
     search: Option<String>,
     /// From: 12 h or 3 d back, today, yesterday, a local date (YYYY-MM-DD), a local
     /// date and time (YYYY-MM-DD HH:MM) or a time with its offset (RFC 3339).
-    #[arg(long, value_name = "WHEN")]
+    #[arg(long, allow_hyphen_values = true, value_name = "WHEN")]
     since: Option<String>,
     /// Up to: the same forms; a day (today, yesterday, a date) is included in full.
-    #[arg(long, value_name = "WHEN")]
+    #[arg(long, allow_hyphen_values = true, value_name = "WHEN")]
     until: Option<String>,
     /// Only follow-ups still open.
     #[arg(long)]

@@ -159,3 +159,21 @@ pub fn ui_backend() {
         }
     });
 }
+
+/// Ways a technician types the start of a period, accepted alike by the Log screen's
+/// *Since* field and by `note list --since` / `export --since`.
+pub const PERIOD_FORMS: &[&str] = &[
+    "12 h",
+    "12h",
+    "1,5 hours",
+    "3 d",
+    "3 days",
+    "today",
+    "Yesterday",
+    "2026-11-28",
+    "2026-11-30 06:00",
+    "2026-11-30T06:00:00Z",
+];
+
+/// Texts that are not a period, refused alike by every front, naming the field.
+pub const NOT_PERIODS: &[&str] = &["last week", "-3 h", "9000 h", "400 d", "2026-13-01", "h"];
