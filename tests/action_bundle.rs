@@ -122,9 +122,15 @@ fn a_bundle_imports_once_and_older_check_records_survive_the_trip() {
     let came = other.entries().last().unwrap();
     assert_eq!(came.text, "old check");
     let p = came.payload.as_ref().unwrap();
-    assert!(p.get("payload_version").is_none(), "records are not rewritten");
+    assert!(
+        p.get("payload_version").is_none(),
+        "records are not rewritten"
+    );
     assert!(sensor_of(p).is_some());
-    assert!(sensor_inputs_of(p).is_none(), "no points recorded, nothing to work out");
+    assert!(
+        sensor_inputs_of(p).is_none(),
+        "no points recorded, nothing to work out"
+    );
 }
 
 #[test]

@@ -57,7 +57,10 @@ fn a_five_point_check_as_found_is_saved_with_the_technicians_words() {
         },
     )
     .unwrap();
-    assert_eq!(saved.to_string(), format!("Saved to the log as {}.", saved.id));
+    assert_eq!(
+        saved.to_string(),
+        format!("Saved to the log as {}.", saved.id)
+    );
     assert!(!saved.pass);
     let e = store.entry(&saved.id).unwrap();
     assert_eq!(e.kind, Kind::LoopCheck);
@@ -68,7 +71,10 @@ fn a_five_point_check_as_found_is_saved_with_the_technicians_words() {
         "{}",
         e.text
     );
-    assert_eq!(lines[1], "Reference: loop calibrator LC-07", "own words kept");
+    assert_eq!(
+        lines[1], "Reference: loop calibrator LC-07",
+        "own words kept"
+    );
     assert!(lines[2].starts_with("Before you leave:"), "{}", e.text);
     let p = e.payload.as_ref().unwrap();
     assert_eq!(p["payload_version"], PAYLOAD_VERSION);
@@ -98,7 +104,11 @@ fn an_rtd_check_records_the_ohms_applied_and_the_sensor() {
     let inputs = SensorInputs::planned(sensor, &res).unwrap();
     assert_eq!(inputs.unit, "Ω");
     for (i, ohms) in [(0, 92.16), (2, 111.67), (4, 130.90)] {
-        assert!((inputs.values[i] - ohms).abs() < 0.01, "{:?}", inputs.values);
+        assert!(
+            (inputs.values[i] - ohms).abs() < 0.01,
+            "{:?}",
+            inputs.values
+        );
     }
     let saved = save_check(
         &mut store,
@@ -169,7 +179,11 @@ fn a_fault_session_keeps_the_technicians_conclusion() {
     let e = store.entry(&saved.id).unwrap();
     assert_eq!(e.kind, Kind::FaultFinding);
     assert_eq!(e.author, "CD");
-    assert!(e.text.contains("\nTechnician: re-terminated JB-01/4\n"), "{}", e.text);
+    assert!(
+        e.text.contains("\nTechnician: re-terminated JB-01/4\n"),
+        "{}",
+        e.text
+    );
     assert!(e.text.ends_with("operations told)."), "{}", e.text);
     let payload = e.payload.as_ref().unwrap();
     assert_eq!(payload["payload_version"], 2);

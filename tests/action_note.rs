@@ -56,10 +56,18 @@ fn a_pasted_report_is_kept_whole_up_to_the_one_limit() {
     // screen used to take, and well inside the one limit every front now shares.
     let long = "Filter 3 backwash sequence observed. ".repeat(135);
     assert!(long.chars().count() > 2_000);
-    let added = add_note(&mut store, now(), NewNote::new("PDT-707", &long, "ef", false));
+    let added = add_note(
+        &mut store,
+        now(),
+        NewNote::new("PDT-707", &long, "ef", false),
+    );
     assert!(added.is_ok());
     let too_long = "x".repeat(MAX_NOTE_CHARS + 1);
-    let e = add_note(&mut store, now(), NewNote::new("PDT-707", &too_long, "ef", false));
+    let e = add_note(
+        &mut store,
+        now(),
+        NewNote::new("PDT-707", &too_long, "ef", false),
+    );
     assert_eq!(field(e.unwrap_err()), "note");
 }
 
@@ -70,10 +78,16 @@ fn bad_notes_name_their_field_and_save_nothing() {
     let cases = [
         (NewNote::new("LT-101", "   ", "AB", false), "note"),
         (NewNote::new("XX-999", "Walk-down", "AB", false), "tag"),
-        (NewNote::new("LT-101", "Walk-down", "Anna Brown", false), "author"),
+        (
+            NewNote::new("LT-101", "Walk-down", "Anna Brown", false),
+            "author",
+        ),
     ];
     for (note, expected) in cases {
-        assert_eq!(field(add_note(&mut store, now(), note).unwrap_err()), expected);
+        assert_eq!(
+            field(add_note(&mut store, now(), note).unwrap_err()),
+            expected
+        );
     }
     let mut correction = NewNote::new("TT-412", "Reference read 36.4 °C", "EF", false);
     correction.refers_to = Some("ffffffffffff");
@@ -102,7 +116,10 @@ fn a_follow_up_is_closed_once_by_a_new_entry() {
     assert_eq!(closing.text, "Card fitted");
     assert!(closed_follow_ups(store.entries()).contains(&open.id));
     // The follow-up itself is kept as written.
-    assert_eq!(store.entry(&open.id).unwrap().text, "Order a spare 250 Ω input card");
+    assert_eq!(
+        store.entry(&open.id).unwrap().text,
+        "Order a spare 250 Ω input card"
+    );
     // Closing it twice is refused, naming the id, and writes nothing.
     let count = store.entries().len();
     let e = close_follow_up(&mut store, now(), &open.id.0, "IJ", "").unwrap_err();

@@ -35,10 +35,16 @@ fn a_new_sludge_tank_tag_is_added_edited_renamed_and_archived() {
     // A new number in the form renames it; its id (and so its log) stays.
     lt606.number = "LT-606A".into();
     let renamed = edit_tag(&mut store, "LT-606", lt606).unwrap();
-    assert_eq!(renamed.to_string(), "Saved LT-606A (was LT-606; its log follows).");
+    assert_eq!(
+        renamed.to_string(),
+        "Saved LT-606A (was LT-606; its log follows)."
+    );
 
     let back = rename_tag(&mut store, "LT-606A", " LT-606 ").unwrap();
-    assert_eq!(back.to_string(), "Renamed LT-606A to LT-606; its log follows.");
+    assert_eq!(
+        back.to_string(),
+        "Renamed LT-606A to LT-606; its log follows."
+    );
     assert_eq!(store.tag("LT-606").unwrap().id, added.id);
 
     let archived = archive_tag(&mut store, "LT-606", true).unwrap();

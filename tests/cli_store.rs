@@ -460,7 +460,11 @@ fn the_data_folder_may_be_given_before_or_after_the_subcommand() {
     let dir = TempDir::new("cli-global-dir");
     let d = dir.arg();
     let out = loopside(&["--data-dir", &d, "demo"]);
-    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
     let before = loopside_json(&["--data-dir", &d, "note", "list", "--json"]);
     let after = loopside_json(&["note", "list", "--data-dir", &d, "--json"]);
     let between = loopside_json(&["note", "--data-dir", &d, "list", "--json"]);
@@ -484,7 +488,14 @@ fn a_note_may_begin_with_a_minus_sign() {
     // PT-204 reads 5 mbar low at zero: the technician writes the offset as found.
     let id = run(
         &dir,
-        &["note", "add", "PT-204", "-5 mbar offset found", "--author", "cd"],
+        &[
+            "note",
+            "add",
+            "PT-204",
+            "-5 mbar offset found",
+            "--author",
+            "cd",
+        ],
     );
     let listed = json(&dir, &["note", "list", "PT-204", "--json"]);
     let last = listed
@@ -511,7 +522,10 @@ fn note_list_and_export_take_the_same_periods_as_the_log_screen() {
         assert!(refuses(&dir, &["export", "--format", "csv", "--until", bad]).contains("until:"));
     }
     // A note written now is in the last 12 hours and today, not in anything up to yesterday.
-    let id = run(&dir, &["note", "add", "LT-101", "Wet well 1.80 m on the PLC"]);
+    let id = run(
+        &dir,
+        &["note", "add", "LT-101", "Wet well 1.80 m on the PLC"],
+    );
     let ids = |args: &[&str]| -> Vec<String> {
         let mut all = vec!["note", "list", "--json"];
         all.extend_from_slice(args);
@@ -537,7 +551,13 @@ fn a_local_day_across_the_spring_clock_change_starts_at_its_own_midnight() {
     let bundle = a.path().join("bundle.json");
     run(
         &a,
-        &["export", "--format", "json", "--out", bundle.to_str().unwrap()],
+        &[
+            "export",
+            "--format",
+            "json",
+            "--out",
+            bundle.to_str().unwrap(),
+        ],
     );
     // Three notes on LT-101 around the change: 23:30 GMT on Saturday 28 March, 00:30 GMT
     // on Sunday 29 March, and 23:30 UTC on Sunday, which is already 00:30 BST on Monday.
@@ -571,7 +591,11 @@ fn a_local_day_across_the_spring_clock_change_starts_at_its_own_midnight() {
             .env_remove("LOOPSIDE_DATA")
             .output()
             .unwrap();
-        assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+        assert!(
+            out.status.success(),
+            "{}",
+            String::from_utf8_lossy(&out.stderr)
+        );
         String::from_utf8(out.stdout).unwrap()
     };
     in_london(&["import", bundle.to_str().unwrap()]);
