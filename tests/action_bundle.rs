@@ -95,6 +95,11 @@ fn a_bundle_imports_once_and_older_check_records_survive_the_trip() {
         "sensor": {"kind": "rtd", "element": "pt100", "wiring": "three-wire", "lead_ohms": 0.0},
     }));
     store.append(old).unwrap();
+    // The readable hand-overs take it as they take any check.
+    for format in [Format::Markdown, Format::Csv] {
+        let h = handover(&store, now(), &Query::default(), format);
+        assert!(h.text.contains("old check"), "{format:?}");
+    }
     let dir = TempDir::new("action-import");
     let done = export_handover(
         &store,

@@ -59,7 +59,7 @@ fn a_five_point_check_as_found_is_saved_with_the_technicians_words() {
     .unwrap();
     assert_eq!(
         saved.to_string(),
-        format!("Saved to the log as {}.", saved.id)
+        format!("Saved the as found check as {}.", saved.id)
     );
     assert!(!saved.pass);
     let e = store.entry(&saved.id).unwrap();
@@ -176,6 +176,10 @@ fn a_fault_session_keeps_the_technicians_conclusion() {
     s.run_sheet(&p, &tag, &sheet).unwrap();
     s.left(&Item::ALL);
     let saved = save_session(&mut store, now(), &s, "cd").unwrap();
+    assert_eq!(
+        saved.to_string(),
+        format!("Saved to the log as {}.", saved.id)
+    );
     let e = store.entry(&saved.id).unwrap();
     assert_eq!(e.kind, Kind::FaultFinding);
     assert_eq!(e.author, "CD");

@@ -16,7 +16,7 @@
 //! three shapes.
 
 use super::initials;
-use crate::check::CheckResult;
+use crate::check::{CheckResult, Stage};
 use crate::error::FieldError;
 use crate::journal::{Entry, EntryId, Kind};
 use crate::sensor::Sensor;
@@ -80,13 +80,15 @@ pub struct CheckSaved {
     pub id: EntryId,
     /// The tag's number.
     pub tag: String,
+    /// As found or as left.
+    pub stage: Stage,
     /// Whether every point was within tolerance.
     pub pass: bool,
 }
 
 impl fmt::Display for CheckSaved {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        write!(f, "Saved to the log as {}.", self.id)
+        write!(f, "Saved the {} check as {}.", self.stage.label(), self.id)
     }
 }
 
@@ -137,6 +139,7 @@ pub fn save_check(
     Ok(CheckSaved {
         id,
         tag: number,
+        stage: check.result.stage,
         pass: check.result.pass,
     })
 }

@@ -6,10 +6,9 @@
 //! [`crate::check::CheckResult`] with the list as ticked.
 
 use super::{model, AppState, AppWindow, CheckAdapter, Shared};
-use crate::action::check::{self as action, NewCheck, SensorInputs};
+use crate::action::check::{self as action, CheckSaved, NewCheck, SensorInputs};
 use crate::check::Stage;
 use crate::error::FieldError;
-use crate::journal::EntryId;
 use crate::leave::{self, LeaveList};
 use crate::store::StoreError;
 use crate::view::check::{check_for, result, view};
@@ -85,9 +84,10 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         }
         let saved = save(&mut st.borrow_mut());
         match saved {
-            Ok((id, stage, left)) => {
+            Ok((saved, left)) => {
+                let stage = saved.stage;
                 a.set_error_text("".into());
-                let mut message = format!("Saved the {} check as {id}.", stage.label());
+                let mut message = saved.to_string();
                 if !left.all_done() {
                     message.push(' ');
                     message.push_str(&left.summary());
@@ -136,9 +136,9 @@ pub fn sync(state: &mut AppState) {
 }
 
 /// Save the check to the open tag's log, with the before-you-leave list as ticked; returns
-/// the entry id, the stage saved and the list as recorded. After an as-found check the
+/// what was saved ([`action::save_check`]) and the list as recorded. After an as-found check the
 /// form moves on to as-left with an empty table and nothing ticked.
-pub fn save(state: &mut AppState) -> Result<(EntryId, Stage, LeaveList), StoreError> {
+pub fn save(state: &mut AppState) -> Result<(CheckSaved, LeaveList), StoreError> {
     let record = state
         .open_record()
         .cloned()
@@ -161,7 +161,7 @@ pub fn save(state: &mut AppState) -> Result<(EntryId, Stage, LeaveList), StoreEr
         Some(sensor) => Some(SensorInputs::planned(sensor, &res)?),
         None => None,
     };
-    let id = action::save_check(
+    let saved = action::save_check(
         state.store.as_mut(),
         now,
         NewCheck {
@@ -170,8 +170,7 @@ pub fn save(state: &mut AppState) -> Result<(EntryId, Stage, LeaveList), StoreEr
             result: &res,
             sensor,
         },
-    )?
-    .id;
+    )?;
     let tag = record.tag.number.clone();
     let reference = state.ui.check.reference.clone();
     state.ui.check = super::state::CheckForm {
@@ -182,7 +181,7 @@ pub fn save(state: &mut AppState) -> Result<(EntryId, Stage, LeaveList), StoreEr
         cautions_read: true,
         leave_ticked: Vec::new(),
     };
-    Ok((id, stage, left))
+    Ok((saved, left))
 }
 
 /// Copy the before-you-leave list, as ticked so far, in.

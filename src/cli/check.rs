@@ -299,13 +299,13 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
             },
         )
         .map_err(super::data::store_error)?;
-        Some(saved.id.to_string())
+        Some(saved)
     } else {
         None
     };
     if args.json {
-        if let Some(id) = &saved {
-            value["saved"] = serde_json::json!(id);
+        if let Some(saved) = &saved {
+            value["saved"] = serde_json::json!(saved.id);
         }
         return print_json(out, &value);
     }
@@ -322,8 +322,8 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
             .map(str::to_string),
     );
     lines.extend(result.before_leaving.as_ref().and_then(leave_hint));
-    if let Some(id) = saved {
-        lines.push(format!("saved to the log as {id}"));
+    if let Some(saved) = saved {
+        lines.push(saved.to_string());
     }
     print_lines(out, &lines)
 }
@@ -454,13 +454,13 @@ pub(super) fn diagnose(
             args.which.author.as_deref().unwrap_or(""),
         )
         .map_err(super::data::store_error)?;
-        Some(saved.id.to_string())
+        Some(saved)
     } else {
         None
     };
     if args.json {
-        if let Some(id) = &saved {
-            value["saved"] = serde_json::json!(id);
+        if let Some(saved) = &saved {
+            value["saved"] = serde_json::json!(saved.id);
         }
         return print_json(out, &value);
     }
@@ -474,8 +474,8 @@ pub(super) fn diagnose(
     if args.answers.is_some() {
         lines.extend(session.before_leaving.as_ref().and_then(leave_hint));
     }
-    if let Some(id) = saved {
-        lines.push(format!("saved to the log as {id}"));
+    if let Some(saved) = saved {
+        lines.push(saved.to_string());
     }
     print_lines(out, &lines)
 }
