@@ -18,9 +18,7 @@ fn now() -> DateTime<FixedOffset> {
 }
 
 fn brindlemoor() -> MemoryStore {
-    let mut store = MemoryStore::new();
-    loopside::demo::fill(&mut store, now()).unwrap();
-    store
+    util::brindlemoor(now())
 }
 
 #[test]

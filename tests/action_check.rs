@@ -2,7 +2,8 @@
 //! one payload shape per log kind, one log text with the technician's own words, and
 //! older records of both earlier shapes still read.
 
-use chrono::{DateTime, FixedOffset};
+mod util;
+
 use loopside::action::check::{
     payload, save_check, sensor_inputs_of, sensor_of, NewCheck, SensorInputs, PAYLOAD_VERSION,
 };
@@ -15,15 +16,10 @@ use loopside::sensor::Sensor;
 use loopside::store::{MemoryStore, Store};
 use loopside::view::check::{check_for, result};
 
-/// Mid-afternoon at Brindlemoor, 1 December 2026 (UTC+1).
-fn now() -> DateTime<FixedOffset> {
-    DateTime::parse_from_rfc3339("2026-12-01T15:30:00+01:00").unwrap()
-}
+use util::afternoon as now;
 
 fn brindlemoor() -> MemoryStore {
-    let mut store = MemoryStore::new();
-    loopside::demo::fill(&mut store, now()).unwrap();
-    store
+    util::brindlemoor(now())
 }
 
 /// Readings as typed, with a decimal comma, each `offset_ma` off the ideal current at the

@@ -1,20 +1,16 @@
 //! Notes and follow-ups through the application layer (no UI): the same limits and the
 //! same initials rule the command line and the app both use.
 
-use chrono::{DateTime, FixedOffset};
+mod util;
+
 use loopside::action::note::{add_note, close_follow_up, NewNote, MAX_NOTE_CHARS};
 use loopside::journal::{closed_follow_ups, Kind};
 use loopside::store::{MemoryStore, Store, StoreError};
 
-/// Mid-afternoon at Brindlemoor, 1 December 2026 (UTC+1).
-fn now() -> DateTime<FixedOffset> {
-    DateTime::parse_from_rfc3339("2026-12-01T15:30:00+01:00").unwrap()
-}
+use util::afternoon as now;
 
 fn brindlemoor() -> MemoryStore {
-    let mut store = MemoryStore::new();
-    loopside::demo::fill(&mut store, now()).unwrap();
-    store
+    util::brindlemoor(now())
 }
 
 fn field(e: StoreError) -> String {

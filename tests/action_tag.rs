@@ -1,16 +1,15 @@
 //! The tag register through the application layer (no UI): add, edit, rename, archive,
 //! each worded once.
 
+mod util;
+
 use loopside::action::tag::{add_tag, archive_tag, edit_tag, rename_tag};
 use loopside::scale::Scale;
 use loopside::store::{MemoryStore, Store, StoreError};
 use loopside::tag::Tag;
 
 fn brindlemoor() -> MemoryStore {
-    let mut store = MemoryStore::new();
-    let now = chrono::DateTime::parse_from_rfc3339("2026-12-01T15:30:00+01:00").unwrap();
-    loopside::demo::fill(&mut store, now).unwrap();
-    store
+    util::brindlemoor(util::afternoon())
 }
 
 #[test]

@@ -177,3 +177,17 @@ pub const PERIOD_FORMS: &[&str] = &[
 
 /// Texts that are not a period, refused alike by every front, naming the field.
 pub const NOT_PERIODS: &[&str] = &["last week", "-3 h", "9000 h", "400 d", "2026-13-01", "h"];
+
+/// Mid-afternoon at Brindlemoor, 1 December 2026 (UTC+1): the moment the action tests
+/// act at.
+pub fn afternoon() -> chrono::DateTime<chrono::FixedOffset> {
+    chrono::DateTime::parse_from_rfc3339("2026-12-01T15:30:00+01:00").expect("a time")
+}
+
+/// The demo plant (Brindlemoor Water Reclamation Works) in a memory store, its log
+/// written up to `now`.
+pub fn brindlemoor(now: chrono::DateTime<chrono::FixedOffset>) -> loopside::store::MemoryStore {
+    let mut store = loopside::store::MemoryStore::new();
+    loopside::demo::fill(&mut store, now).expect("the demo fills an empty store");
+    store
+}
