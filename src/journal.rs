@@ -13,7 +13,7 @@
 //! tests and the UI with entries of their own.
 
 use crate::error::{FieldError, Result};
-use chrono::{DateTime, FixedOffset, Utc};
+use chrono::{DateTime, FixedOffset, TimeZone, Utc};
 use serde::{Deserialize, Serialize};
 use std::collections::HashSet;
 use std::fmt;
@@ -321,51 +321,101 @@ pub struct Query {
     pub open_only: bool,
 }
 
-/// Read the start of a handover period as typed: `12 h` (or `12h`, `12 hours`: that long
-/// before `now`), `today` or `yesterday` (from local midnight), a date `2026-11-30` (from
-/// its local midnight), a local date and time `2026-11-30 06:00`, or a full time with its
-/// offset (`2026-11-30T06:00:00+01:00`). "Local" is `now`'s offset, so the caller decides
-/// the time zone. An empty text is `None`: no start.
+/// Which end of a period a typed time is read for.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Bound {
+    /// The start: a day means from its first moment.
+    Since,
+    /// The end (exclusive): a day means up to and including it, so to the next midnight.
+    Until,
+}
+
+/// Read the start of a handover period as typed (the Log screen's *Since*):
+/// [`parse_period`] with `now`'s own offset as the local time zone. An empty text is
+/// `None`: no start.
 pub fn parse_since(text: &str, now: DateTime<FixedOffset>) -> Result<Option<DateTime<Utc>>> {
+    parse_period("since", text, Bound::Since, now, now.offset())
+}
+
+/// Read one end of a period as typed, on every front (the Log's *Since*, `note list` and
+/// `export --since/--until`):
+/// - `12 h` (or `12h`, `1,5 hours`) or `3 d` (`3 days`): that long before `now`;
+/// - `today`, `yesterday`: from that local day's midnight (for [`Bound::Until`], to the
+///   next midnight: the day is included);
+/// - a date `2026-11-30`: likewise, its local midnight (the next one for `Until`);
+/// - a local date and time `2026-11-30 06:00`, or a full time with its offset
+///   (`2026-11-30T06:00:00+01:00`): that moment.
+///
+/// "Local" is `zone`: the command line passes the computer's own time zone, so a day
+/// across a daylight-saving change starts at that day's own midnight offset; the app
+/// passes `now`'s offset. A local midnight that does not exist (a change at midnight) is
+/// read as the first moment of that day that does. The error names `field`. An empty text
+/// is `None`.
+pub fn parse_period<Tz: TimeZone>(
+    field: &str,
+    text: &str,
+    bound: Bound,
+    now: DateTime<FixedOffset>,
+    zone: &Tz,
+) -> Result<Option<DateTime<Utc>>> {
     let t = text.trim();
     if t.is_empty() {
         return Ok(None);
     }
+    let what = match bound {
+        Bound::Since => "start",
+        Bound::Until => "end",
+    };
     let bad = || {
         FieldError::new(
-            "since",
+            field,
             format!(
-                "'{t}' is not a start; type hours back (12 h), today, yesterday, a date \
-                 (2026-11-30) or a date and time (2026-11-30 06:00)"
+                "'{t}' is not a {what}; type hours or days back (12 h, 3 d), today, yesterday, \
+                 a date (2026-11-30), a date and time (2026-11-30 06:00) or a time with its \
+                 offset (2026-11-30T06:00:00+01:00)"
             ),
         )
     };
-    let local_midnight = |date: chrono::NaiveDate| {
-        date.and_hms_opt(0, 0, 0)
-            .and_then(|m| m.and_local_timezone(*now.offset()).single())
+    let day_start = |date: chrono::NaiveDate| {
+        let date = match bound {
+            Bound::Since => date,
+            Bound::Until => date.succ_opt().ok_or_else(bad)?,
+        };
+        // The first local moment of the day: midnight, or the end of a gap that swallowed it.
+        (0..=3)
+            .filter_map(|h| date.and_hms_opt(h, 0, 0))
+            .find_map(|m| zone.from_local_datetime(&m).earliest())
             .map(|d| d.with_timezone(&Utc))
             .ok_or_else(bad)
     };
+    let today = now.with_timezone(zone).date_naive();
     let lower = t.to_lowercase();
     match lower.as_str() {
-        "today" => return local_midnight(now.date_naive()).map(Some),
-        "yesterday" => {
-            let day = now.date_naive().pred_opt().ok_or_else(bad)?;
-            return local_midnight(day).map(Some);
-        }
+        "today" => return day_start(today).map(Some),
+        "yesterday" => return day_start(today.pred_opt().ok_or_else(bad)?).map(Some),
         _ => {}
     }
-    let hours_text = lower
-        .trim_end_matches("hours")
-        .trim_end_matches("hour")
-        .trim_end_matches('h')
-        .trim();
-    if hours_text.len() < lower.len() {
-        let hours = crate::number::parse_number("since", hours_text).map_err(|_| bad())?;
+    for (suffixes, hours_per, limit) in [
+        (
+            &["hours", "hour", "h"][..],
+            1.0,
+            "0 to 8784 hours back (one year)",
+        ),
+        (
+            &["days", "day", "d"][..],
+            24.0,
+            "0 to 366 days back (one year)",
+        ),
+    ] {
+        let Some(number) = suffixes.iter().find_map(|s| lower.strip_suffix(s)) else {
+            continue;
+        };
+        let n = crate::number::parse_number(field, number.trim()).map_err(|_| bad())?;
+        let hours = n * hours_per;
         if !(0.0..=24.0 * 366.0).contains(&hours) {
             return Err(FieldError::new(
-                "since",
-                format!("{hours} h is out of range; type 0 to 8784 hours back (one year)"),
+                field,
+                format!("{} is out of range; type {limit}", t),
             ));
         }
         let back = chrono::Duration::milliseconds((hours * 3_600_000.0).round() as i64);
@@ -375,13 +425,13 @@ pub fn parse_since(text: &str, now: DateTime<FixedOffset>) -> Result<Option<Date
         return Ok(Some(dt.with_timezone(&Utc)));
     }
     if let Ok(date) = chrono::NaiveDate::parse_from_str(t, "%Y-%m-%d") {
-        return local_midnight(date).map(Some);
+        return day_start(date).map(Some);
     }
     for format in ["%Y-%m-%d %H:%M", "%Y-%m-%dT%H:%M", "%Y-%m-%d %H:%M:%S"] {
         if let Ok(local) = chrono::NaiveDateTime::parse_from_str(t, format) {
-            return local
-                .and_local_timezone(*now.offset())
-                .single()
+            return zone
+                .from_local_datetime(&local)
+                .earliest()
                 .map(|d| Some(d.with_timezone(&Utc)))
                 .ok_or_else(bad);
         }

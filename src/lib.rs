@@ -13,6 +13,8 @@
 //!   should see for a given temperature or level;
 //! - [`caution`] and [`leave`] — the cautions shown before work on a loop, and the
 //!   "before you leave" list recorded after it;
+//! - [`action`] — one function per action a technician takes (notes, tags, checks,
+//!   sessions, hand-overs), called by the command line and the app alike;
 //! - [`view`] — what each screen shows, worked out and formatted (no UI toolkit); the
 //!   Slint app itself is `app` (feature `ui`), Android's entry `android`.
 
@@ -23,6 +25,7 @@ pub mod number;
 pub mod units;
 
 pub use error::{FieldError, Result};
+pub mod action;
 pub mod budget;
 pub mod caution;
 pub mod check;

@@ -229,7 +229,7 @@ fn export_and_import_between_devices() {
             bundle.to_str().unwrap(),
         ],
     );
-    assert!(msg.contains("wrote 11 entries on 7 tags"), "{msg}");
+    assert!(msg.contains("Wrote 11 entries on 7 tags"), "{msg}");
     let r1 = json(&b, &["import", bundle.to_str().unwrap(), "--json"]);
     assert_eq!(r1["entries_added"], 11);
     let r2 = json(&b, &["import", bundle.to_str().unwrap(), "--json"]);
@@ -252,7 +252,7 @@ fn bad_input_names_the_field() {
     run(&dir, &["demo"]);
     assert!(refuses(&dir, &["note", "add", "XX-999", "text"]).contains("tag:"));
     assert!(refuses(&dir, &["note", "add", "LT-101", "text", "--kind", "memo"]).contains("kind:"));
-    assert!(refuses(&dir, &["note", "add", "LT-101", "   "]).contains("text:"));
+    assert!(refuses(&dir, &["note", "add", "LT-101", "   "]).contains("note:"));
     assert!(refuses(
         &dir,
         &["note", "add", "LT-101", "x", "--author", "Anna Brown"]
@@ -453,4 +453,168 @@ fn a_tag_records_its_sensor_and_a_check_takes_applied_ohms() {
         &["tag", "edit", "TT-415", "--tc", "K", "--cj-c", "400"]
     )
     .contains("cj-c"));
+}
+
+#[test]
+fn the_data_folder_may_be_given_before_or_after_the_subcommand() {
+    let dir = TempDir::new("cli-global-dir");
+    let d = dir.arg();
+    let out = loopside(&["--data-dir", &d, "demo"]);
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let before = loopside_json(&["--data-dir", &d, "note", "list", "--json"]);
+    let after = loopside_json(&["note", "list", "--data-dir", &d, "--json"]);
+    let between = loopside_json(&["note", "--data-dir", &d, "list", "--json"]);
+    assert_eq!(before.as_array().unwrap().len(), 11);
+    assert_eq!(before, after);
+    assert_eq!(before, between);
+    // The environment variable still names it when no flag does.
+    let out = std::process::Command::new(env!("CARGO_BIN_EXE_loopside"))
+        .args(["tag", "list", "--json"])
+        .env("LOOPSIDE_DATA", dir.path())
+        .output()
+        .unwrap();
+    let tags: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(tags.as_array().unwrap().len(), 7);
+}
+
+#[test]
+fn a_note_may_begin_with_a_minus_sign() {
+    let dir = TempDir::new("cli-minus");
+    run(&dir, &["demo"]);
+    // PT-204 reads 5 mbar low at zero: the technician writes the offset as found.
+    let id = run(
+        &dir,
+        &[
+            "note",
+            "add",
+            "PT-204",
+            "-5 mbar offset found",
+            "--author",
+            "cd",
+        ],
+    );
+    let listed = json(&dir, &["note", "list", "PT-204", "--json"]);
+    let last = listed
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|e| e["id"] == id.trim())
+        .unwrap();
+    assert_eq!(last["text"], "-5 mbar offset found");
+    assert_eq!(last["author"], "CD", "initials are stored in capitals");
+}
+
+#[test]
+fn note_list_and_export_take_the_same_periods_as_the_log_screen() {
+    let dir = TempDir::new("cli-periods");
+    run(&dir, &["demo"]);
+    for form in util::PERIOD_FORMS {
+        run(&dir, &["note", "list", "--since", form]);
+        run(&dir, &["export", "--format", "md", "--since", form]);
+        run(&dir, &["note", "list", "--until", form]);
+    }
+    for bad in util::NOT_PERIODS {
+        assert!(refuses(&dir, &["note", "list", "--since", bad]).contains("since:"));
+        assert!(refuses(&dir, &["export", "--format", "csv", "--until", bad]).contains("until:"));
+    }
+    // A note written now is in the last 12 hours and today, not in anything up to yesterday.
+    let id = run(
+        &dir,
+        &["note", "add", "LT-101", "Wet well 1.80 m on the PLC"],
+    );
+    let ids = |args: &[&str]| -> Vec<String> {
+        let mut all = vec!["note", "list", "--json"];
+        all.extend_from_slice(args);
+        json(&dir, &all)
+            .as_array()
+            .unwrap()
+            .iter()
+            .map(|e| e["id"].as_str().unwrap().to_string())
+            .collect()
+    };
+    assert!(ids(&["--since", "12 h"]).contains(&id.trim().to_string()));
+    assert!(ids(&["--since", "today"]).contains(&id.trim().to_string()));
+    assert!(!ids(&["--until", "yesterday"]).contains(&id.trim().to_string()));
+}
+
+#[test]
+fn a_local_day_across_the_spring_clock_change_starts_at_its_own_midnight() {
+    // Europe/London, written as a POSIX rule so no time-zone database is needed: GMT in
+    // winter, BST (UTC+1) from 01:00 GMT on the last Sunday of March (29 March 2026).
+    const LONDON: &str = "GMT0BST,M3.5.0/1,M10.5.0";
+    let a = TempDir::new("cli-dst-a");
+    run(&a, &["demo"]);
+    let bundle = a.path().join("bundle.json");
+    run(
+        &a,
+        &[
+            "export",
+            "--format",
+            "json",
+            "--out",
+            bundle.to_str().unwrap(),
+        ],
+    );
+    // Three notes on LT-101 around the change: 23:30 GMT on Saturday 28 March, 00:30 GMT
+    // on Sunday 29 March, and 23:30 UTC on Sunday, which is already 00:30 BST on Monday.
+    let mut b: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(&bundle).unwrap()).unwrap();
+    let template = b["entries"][0].clone();
+    let times = [
+        ("019d36d7e480-0000000000000001", "2026-03-28T23:30:00+00:00"),
+        ("019d371ec000-0000000000000002", "2026-03-29T00:30:00+00:00"),
+        ("019d3c3d6880-0000000000000003", "2026-03-30T00:30:00+01:00"),
+    ];
+    b["entries"] = times
+        .iter()
+        .map(|(id, time)| {
+            let mut e = template.clone();
+            e["id"] = serde_json::json!(id);
+            e["time"] = serde_json::json!(time);
+            e["text"] = serde_json::json!(format!("Round at {time}"));
+            e
+        })
+        .collect();
+    std::fs::write(&bundle, b.to_string()).unwrap();
+    let c = TempDir::new("cli-dst-c");
+    let in_london = |args: &[&str]| {
+        let mut all: Vec<&str> = args.to_vec();
+        let d = c.arg();
+        all.extend(["--data-dir", &d]);
+        let out = std::process::Command::new(env!("CARGO_BIN_EXE_loopside"))
+            .args(&all)
+            .env("TZ", LONDON)
+            .env_remove("LOOPSIDE_DATA")
+            .output()
+            .unwrap();
+        assert!(
+            out.status.success(),
+            "{}",
+            String::from_utf8_lossy(&out.stderr)
+        );
+        String::from_utf8(out.stdout).unwrap()
+    };
+    in_london(&["import", bundle.to_str().unwrap()]);
+    let listed: serde_json::Value = serde_json::from_str(&in_london(&[
+        "note",
+        "list",
+        "--since",
+        "2026-03-29",
+        "--until",
+        "2026-03-29",
+        "--json",
+    ]))
+    .unwrap();
+    let ids: Vec<&str> = listed
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|e| e["id"].as_str().unwrap())
+        .collect();
+    // Sunday runs from 00:00 GMT to 00:00 BST (23:00 UTC): only the 00:30 GMT round.
+    assert_eq!(ids, vec![times[1].0]);
 }

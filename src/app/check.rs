@@ -6,9 +6,9 @@
 //! [`crate::check::CheckResult`] with the list as ticked.
 
 use super::{model, AppState, AppWindow, CheckAdapter, Shared};
+use crate::action::check::{self as action, CheckSaved, NewCheck, SensorInputs};
 use crate::check::Stage;
 use crate::error::FieldError;
-use crate::journal::{Entry, EntryId, Kind};
 use crate::leave::{self, LeaveList};
 use crate::store::StoreError;
 use crate::view::check::{check_for, result, view};
@@ -84,9 +84,10 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         }
         let saved = save(&mut st.borrow_mut());
         match saved {
-            Ok((id, stage, left)) => {
+            Ok((saved, left)) => {
+                let stage = saved.stage;
                 a.set_error_text("".into());
-                let mut message = format!("Saved the {} check as {id}.", stage.label());
+                let mut message = saved.to_string();
                 if !left.all_done() {
                     message.push(' ');
                     message.push_str(&left.summary());
@@ -135,9 +136,9 @@ pub fn sync(state: &mut AppState) {
 }
 
 /// Save the check to the open tag's log, with the before-you-leave list as ticked; returns
-/// the entry id, the stage saved and the list as recorded. After an as-found check the
+/// what was saved ([`action::save_check`]) and the list as recorded. After an as-found check the
 /// form moves on to as-left with an empty table and nothing ticked.
-pub fn save(state: &mut AppState) -> Result<(EntryId, Stage, LeaveList), StoreError> {
+pub fn save(state: &mut AppState) -> Result<(CheckSaved, LeaveList), StoreError> {
     let record = state
         .open_record()
         .cloned()
@@ -156,21 +157,20 @@ pub fn save(state: &mut AppState) -> Result<(EntryId, Stage, LeaveList), StoreEr
         .before_leaving
         .clone()
         .unwrap_or_else(|| LeaveList::from_done(&[]));
-    let mut payload = serde_json::to_value(&res)
-        .map_err(|e| FieldError::new("check", format!("cannot be written: {e}")))?;
-    if let Some(sensor) = &record.tag.sensor {
-        payload["sensor"] = serde_json::to_value(sensor)
-            .map_err(|e| FieldError::new("sensor", format!("cannot be written: {e}")))?;
-    }
-    let mut entry = Entry::new(
-        &record.id,
+    let sensor = match record.tag.sensor {
+        Some(sensor) => Some(SensorInputs::planned(sensor, &res)?),
+        None => None,
+    };
+    let saved = action::save_check(
+        state.store.as_mut(),
         now,
-        &state.ui.initials.trim().to_uppercase(),
-        Kind::LoopCheck,
-        &crate::view::wording::check::log_text(&res),
+        NewCheck {
+            tag: &record.tag.number,
+            initials: &state.ui.initials,
+            result: &res,
+            sensor,
+        },
     )?;
-    entry.payload = Some(payload);
-    let id = state.store.append(entry)?;
     let tag = record.tag.number.clone();
     let reference = state.ui.check.reference.clone();
     state.ui.check = super::state::CheckForm {
@@ -181,7 +181,7 @@ pub fn save(state: &mut AppState) -> Result<(EntryId, Stage, LeaveList), StoreEr
         cautions_read: true,
         leave_ticked: Vec::new(),
     };
-    Ok((id, stage, left))
+    Ok((saved, left))
 }
 
 /// Copy the before-you-leave list, as ticked so far, in.

@@ -11,9 +11,9 @@
 
 use super::state::FaultState;
 use super::{model, AppState, AppWindow, FaultAdapter, Shared};
+use crate::action::session::SessionSaved;
 use crate::diagnose::{procedure, Answer, Measurement, Procedure, Progress, Session, Settings};
 use crate::error::{FieldError, Result};
-use crate::journal::{Entry, EntryId, Kind};
 use crate::leave::{self, LeaveList};
 use crate::number::parse_in;
 use crate::store::StoreError;
@@ -223,7 +223,7 @@ pub fn restart(state: &mut AppState) {
 pub fn save(
     state: &mut AppState,
     initials: &str,
-) -> std::result::Result<(EntryId, LeaveList), StoreError> {
+) -> std::result::Result<(SessionSaved, LeaveList), StoreError> {
     let run = current(state)?
         .ok_or_else(|| FieldError::new("session", "none is under way; choose a symptom first"))?;
     let mut session = run.session;
@@ -233,32 +233,12 @@ pub fn save(
         .before_leaving
         .clone()
         .unwrap_or_else(|| LeaveList::from_done(&[]));
-    let tag_id = state
-        .store
-        .tag(&session.tag)
-        .map(|r| r.id.clone())
-        .ok_or_else(|| {
-            FieldError::new(
-                "tag",
-                format!("{} is no longer in the register", session.tag),
-            )
-        })?;
-    let who = initials.trim().to_uppercase();
-    let mut entry = Entry::new(
-        &tag_id,
-        state.now(),
-        &who,
-        Kind::FaultFinding,
-        &crate::view::wording::fault::log_text(&session),
-    )?;
-    entry.payload = Some(
-        serde_json::to_value(&session)
-            .map_err(|e| FieldError::new("session", format!("cannot be written: {e}")))?,
-    );
-    let id = state.store.append(entry)?;
-    state.ui.initials = who;
+    let now = state.now();
+    let saved =
+        crate::action::session::save_session(state.store.as_mut(), now, &session, initials)?;
+    state.ui.initials = saved.initials.clone();
     restart(state);
-    Ok((id, left))
+    Ok((saved, left))
 }
 
 /// The line shown when an unfinished session is carried on after a restart.
@@ -351,10 +331,10 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let initials = a.get_initials_text().to_string();
         let saved = save(&mut st.borrow_mut(), &initials);
         match saved {
-            Ok((id, left)) => {
+            Ok((saved, left)) => {
                 a.set_error_text("".into());
                 a.set_resume_text("".into());
-                let mut message = format!("Saved to the log as {id}.");
+                let mut message = saved.to_string();
                 if !left.all_done() {
                     message.push(' ');
                     message.push_str(&left.summary());

@@ -3,17 +3,17 @@
 //! goes through the store and is durable before the screen shows it.
 
 use super::{model, AppState, AppWindow, LogAdapter, Shared};
+use crate::action::{
+    self,
+    bundle::{Destination, Exported, Format, Imported},
+    note::{FollowUpClosed, NewNote, NoteAdded},
+};
 use crate::error::FieldError;
-use crate::journal::{Entry, EntryId, Kind, Query};
-use crate::report;
-use crate::store::record::write_atomically;
-use crate::store::{ImportReport, StoreError};
-use crate::view::log::{export_file_name, list, query, Row};
+use crate::journal::Query;
+use crate::store::StoreError;
+use crate::view::log::{list, query, Row};
 use slint::ComponentHandle;
 use std::path::{Path, PathBuf};
-
-/// Longest note accepted, in characters.
-pub const MAX_NOTE_CHARS: usize = 2000;
 
 /// Wire the adapter's callbacks.
 pub fn connect(window: &AppWindow, state: &Shared) {
@@ -50,10 +50,10 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let a = w.global::<LogAdapter>();
         let result = add_note(&mut st.borrow_mut(), &text, &who, follow_up);
         match result {
-            Ok(id) => {
+            Ok(added) => {
                 a.set_note_text("".into());
                 a.set_error_text("".into());
-                a.set_message(format!("Saved as {id}.").into());
+                a.set_message(added.to_string().into());
                 refresh(&w, &st.borrow());
                 super::tags::refresh(&w, &st.borrow());
             }
@@ -82,7 +82,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let folder = a.get_export_dir().to_string();
         st.borrow_mut().ui.export_dir = folder.clone();
         let message = match export(&st.borrow(), &format, &folder) {
-            Ok(path) => format!("Written to {}", path.display()),
+            Ok(done) => done.to_string(),
             Err(e) => format!("Not written: {e}"),
         };
         a.set_message(message.into());
@@ -97,7 +97,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let result = import(&mut st.borrow_mut(), Path::new(path.trim()));
         a.set_message(
             match result {
-                Ok(r) => import_summary(&r),
+                Ok(done) => done.to_string(),
                 Err(e) => format!("Nothing imported: {e}"),
             }
             .into(),
@@ -107,48 +107,33 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     });
 }
 
-/// Add a note (or an open follow-up) to the open tag's log; returns its id once durable.
+/// Add a note (or an open follow-up) to the open tag's log, signed with `who`; the
+/// initials are remembered for the next entry. See [`action::note::add_note`].
 pub fn add_note(
     state: &mut AppState,
     text: &str,
     who: &str,
     follow_up: bool,
-) -> Result<EntryId, StoreError> {
-    let text = text.trim();
-    if text.is_empty() {
-        return Err(FieldError::new("note", "is empty; type what you found or did").into());
-    }
-    if text.chars().count() > MAX_NOTE_CHARS {
-        return Err(FieldError::new(
-            "note",
-            format!("must be {MAX_NOTE_CHARS} characters or fewer"),
-        )
-        .into());
-    }
+) -> Result<NoteAdded, StoreError> {
     let tag = state
-        .open_tag_id()
+        .open_tag()
+        .map(|t| t.number.clone())
         .ok_or_else(|| FieldError::new("tag", "no tag is open; open one on Tags first"))?;
-    let kind = if follow_up {
-        Kind::FollowUp
-    } else {
-        Kind::Note
-    };
-    let who = who.trim().to_uppercase();
-    let entry = Entry::new(&tag, state.now(), &who, kind, text)?;
-    let id = state.store.append(entry)?;
-    state.ui.initials = who;
-    Ok(id)
+    let now = state.now();
+    let added = action::note::add_note(
+        state.store.as_mut(),
+        now,
+        NewNote::new(&tag, text, who, follow_up),
+    )?;
+    state.ui.initials = added.initials.clone();
+    Ok(added)
 }
 
-/// Mark the open follow-up `id` done: a new entry that refers to it (nothing is rewritten).
-pub fn mark_done(state: &mut AppState, id: &str, who: &str) -> Result<EntryId, StoreError> {
-    let open = state.store.find_entry(id)?.clone();
-    let closed = crate::journal::closed_follow_ups(state.store.entries());
-    if closed.contains(&open.id) {
-        return Err(FieldError::new("id", format!("{} is already done", open.id)).into());
-    }
-    let entry = Entry::closing(&open, state.now(), &who.trim().to_uppercase(), "")?;
-    state.store.append(entry)
+/// Mark the open follow-up `id` done, signed with `who`. See
+/// [`action::note::close_follow_up`].
+pub fn mark_done(state: &mut AppState, id: &str, who: &str) -> Result<FollowUpClosed, StoreError> {
+    let now = state.now();
+    action::note::close_follow_up(state.store.as_mut(), now, id, who, "")
 }
 
 /// The folder reports go to: the one typed, else the state's default.
@@ -183,66 +168,26 @@ fn whole_period_query(state: &AppState) -> Query {
     query(tag, &state.ui.log_search)
 }
 
-/// Write what the Log shows ([`shown_query`]) as a handoff report in `format` (`md`,
-/// `csv`, `json`) into `folder`; returns the file written. The file is written
-/// crash-safely ([`write_atomically`]), so it is never half there.
-pub fn export(state: &AppState, format: &str, folder: &str) -> Result<PathBuf, StoreError> {
+/// Write what the Log shows ([`shown_query`]) as a hand-over in `format` (`md`, `csv`,
+/// `json`) into `folder` (the one typed, else the default). See
+/// [`action::bundle::export_handover`].
+pub fn export(state: &AppState, format: &str, folder: &str) -> Result<Exported, StoreError> {
     let folder = export_folder(state, folder)?;
+    let format = Format::parse(format)?;
     let q = shown_query(state)?;
-    let now = state.now();
-    let bundle = report::select(state.store.as_ref(), &q, now);
-    let text = match format {
-        "md" => report::markdown(&bundle),
-        "csv" => report::csv(&bundle),
-        "json" => report::json(&bundle),
-        other => {
-            return Err(FieldError::new(
-                "format",
-                format!("'{other}' is not a report format; use md, csv or json"),
-            )
-            .into())
-        }
-    };
-    let path = folder.join(export_file_name(now, format));
-    std::fs::create_dir_all(&folder)
-        .and_then(|()| write_atomically(&path, text.as_bytes()))
-        .map_err(|source| StoreError::Io {
-            action: "write",
-            path: path.clone(),
-            source,
-        })?;
-    Ok(path)
+    action::bundle::export_handover(
+        state.store.as_ref(),
+        state.now(),
+        &q,
+        format,
+        &Destination::Folder(folder),
+    )
 }
 
-/// Merge a JSON bundle from another device into the store.
-pub fn import(state: &mut AppState, path: &Path) -> Result<ImportReport, StoreError> {
-    if path.as_os_str().is_empty() {
-        return Err(
-            FieldError::new("bundle file", "is empty; type the path of a .json bundle").into(),
-        );
-    }
-    let text = std::fs::read_to_string(path).map_err(|source| StoreError::Io {
-        action: "read",
-        path: path.to_path_buf(),
-        source,
-    })?;
-    let bundle = report::parse_bundle(&text)?;
-    state.store.import(&bundle)
-}
-
-/// What an import did, in one sentence or two.
-pub fn import_summary(r: &ImportReport) -> String {
-    let mut s = format!(
-        "Imported {} tag(s) and {} entr(ies); {} entr(ies) were already here.",
-        r.tags_added, r.entries_added, r.entries_already_here
-    );
-    for c in &r.conflicts {
-        s.push_str(&format!(
-            " {} differs from this register's and was kept as it is here ({}).",
-            c.number, c.detail
-        ));
-    }
-    s
+/// Merge a JSON bundle from another device into the store. See
+/// [`action::bundle::import_bundle`].
+pub fn import(state: &mut AppState, path: &Path) -> Result<Imported, StoreError> {
+    action::bundle::import_bundle(state.store.as_mut(), path)
 }
 
 /// Copy the entries into the adapter.

@@ -158,13 +158,12 @@ pub fn save_form(
         state.open_record().cloned()
     };
     let tag = tag_from_form(form, base.as_ref().map(|r| &r.tag))?;
-    let number = tag.number.clone();
-    match base {
-        Some(record) => state.store.update_tag(&record.id, tag)?,
-        None => {
-            state.store.add_tag(tag)?;
+    let number = match base {
+        Some(record) => {
+            crate::action::tag::edit_tag(state.store.as_mut(), &record.tag.number, tag)?.number
         }
-    }
+        None => crate::action::tag::add_tag(state.store.as_mut(), tag)?.number,
+    };
     state.ui.open_tag = Some(number);
     state.ui.power.tag.clear();
     super::power::sync_form(state);

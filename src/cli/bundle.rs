@@ -3,10 +3,8 @@
 
 use super::data::{now_local, query_from, store_error, DataArgs};
 use super::{print_json, print_lines, CliError, CliResult};
+use crate::action::bundle::{export_handover, handover, import_bundle, Destination, Format};
 use crate::demo;
-use crate::error::FieldError;
-use crate::report;
-use crate::store::{record::write_atomically, Store};
 use clap::Args;
 use std::io::Write;
 use std::path::PathBuf;
@@ -15,6 +13,7 @@ use std::path::PathBuf;
 #[derive(Debug, Args)]
 #[command(after_help = "Examples:\n  \
     loopside export --format md --since 2026-11-27\n  \
+    loopside export --format md --since 12h\n  \
     loopside export --format csv --tag LT-101 --tag PT-204 --out handoff.csv\n  \
     loopside export --format json --out bundle.json")]
 pub struct ExportArgs {
@@ -23,11 +22,12 @@ pub struct ExportArgs {
     /// md (readable), csv (spreadsheet) or json (for `loopside import`).
     #[arg(long, value_name = "FORMAT", value_parser = ["md", "csv", "json"])]
     format: String,
-    /// From this local date (YYYY-MM-DD) or time (RFC 3339).
-    #[arg(long, value_name = "DATE")]
+    /// From: 12 h or 3 d back, today, yesterday, a local date (YYYY-MM-DD), a local
+    /// date and time (YYYY-MM-DD HH:MM) or a time with its offset (RFC 3339).
+    #[arg(long, allow_hyphen_values = true, value_name = "WHEN")]
     since: Option<String>,
-    /// Up to and including this local date, or before this time.
-    #[arg(long, value_name = "DATE")]
+    /// Up to: the same forms; a day (today, yesterday, a date) is included in full.
+    #[arg(long, allow_hyphen_values = true, value_name = "WHEN")]
     until: Option<String>,
     /// Only this tag (repeat for several).
     #[arg(long = "tag", value_name = "NUMBER")]
@@ -40,27 +40,23 @@ pub struct ExportArgs {
 pub(super) fn export(args: ExportArgs, out: &mut dyn Write) -> CliResult {
     let store = args.data.open()?;
     let q = query_from(&store, &args.tags, &args.since, &args.until)?;
-    let bundle = report::select(&store, &q, now_local());
-    let text = match args.format.as_str() {
-        "md" => report::markdown(&bundle),
-        "csv" => report::csv(&bundle),
-        _ => report::json(&bundle) + "\n",
-    };
+    let format = Format::parse(&args.format)?;
     match &args.out {
         Some(path) => {
-            write_atomically(path, text.as_bytes())
-                .map_err(|e| CliError::Failure(format!("cannot write {}: {e}", path.display())))?;
-            print_lines(
-                out,
-                &[format!(
-                    "wrote {} entries on {} tags to {}",
-                    bundle.entries.len(),
-                    bundle.tags.len(),
-                    path.display()
-                )],
+            let done = export_handover(
+                &store,
+                now_local(),
+                &q,
+                format,
+                &Destination::File(path.clone()),
             )
+            .map_err(store_error)?;
+            print_lines(out, &[done.to_string()])
         }
-        None => out.write_all(text.as_bytes()).map_err(super::io_failure),
+        None => {
+            let h = handover(&store, now_local(), &q, format);
+            out.write_all(h.text.as_bytes()).map_err(super::io_failure)
+        }
     }
 }
 
@@ -80,26 +76,15 @@ pub struct ImportArgs {
 }
 
 pub(super) fn import(args: ImportArgs, out: &mut dyn Write) -> CliResult {
-    let text = std::fs::read_to_string(&args.file).map_err(|e| {
-        FieldError::new("file", format!("cannot read {}: {e}", args.file.display()))
-    })?;
-    let bundle = report::parse_bundle(&text)?;
     let mut store = args.data.open()?;
-    let r = store.import(&bundle).map_err(store_error)?;
+    let done = import_bundle(&mut store, &args.file).map_err(store_error)?;
     if args.json {
         return print_json(
             out,
-            &serde_json::to_value(&r).map_err(|e| CliError::Failure(e.to_string()))?,
+            &serde_json::to_value(&done.0).map_err(|e| CliError::Failure(e.to_string()))?,
         );
     }
-    let mut lines = vec![format!(
-        "added {} tag(s) and {} entr(ies); {} entr(ies) were already here",
-        r.tags_added, r.entries_added, r.entries_already_here
-    )];
-    for c in &r.conflicts {
-        lines.push(format!("conflict: {}: {}", c.number, c.detail));
-    }
-    print_lines(out, &lines)
+    print_lines(out, &done.lines())
 }
 
 /// `loopside demo`

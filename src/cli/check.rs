@@ -7,6 +7,7 @@
 
 use super::calc::{LoopArgs, RangeArgs};
 use super::{print_json, print_lines, CliError, CliResult};
+use crate::action::check::{self as action, SensorInputs};
 use crate::caution::CAUTIONS;
 use crate::check::{Accuracy, Device, InputRange, LoopCheck, ReferenceInstrument, Stage};
 use crate::diagnose::measure::Measurement;
@@ -14,7 +15,6 @@ use crate::diagnose::procedure::{self, Procedure, StepKind};
 use crate::diagnose::session::{Answer, AnswerSheet, Progress, Session};
 use crate::diagnose::Settings;
 use crate::error::FieldError;
-use crate::journal::{Entry, Kind};
 use crate::leave::{self, Item, LeaveList};
 use crate::number::{parse_in, parse_list, parse_quantity, parse_range};
 use crate::rtd::{RtdKind, Wiring};
@@ -37,6 +37,9 @@ pub struct TagArgs {
     /// Save the result to the tag's log (needs --tag of a tag in the register).
     #[arg(long, requires = "tag")]
     save: bool,
+    /// Initials to sign the saved entry with (stored upper-cased).
+    #[arg(long, value_name = "A", requires = "save")]
+    author: Option<String>,
     #[command(flatten)]
     range: Option<RangeArgs>,
     #[command(flatten)]
@@ -202,27 +205,13 @@ pub struct CheckArgs {
     json: bool,
 }
 
-/// Save `payload` to the tag's log as an entry of `kind`; returns the entry id.
-fn save_entry(
-    which: &TagArgs,
-    kind: Kind,
-    text: &str,
-    payload: serde_json::Value,
-) -> Result<String, CliError> {
+/// The tag `--save` writes to, and its store.
+fn save_target(which: &TagArgs) -> Result<(&str, crate::store::FileStore), CliError> {
     let number = which
         .tag
         .as_deref()
         .ok_or_else(|| FieldError::new("tag", "--save needs --tag NUMBER"))?;
-    let mut store = which.data.open()?;
-    let id = store
-        .require_tag(number)
-        .map_err(super::data::store_error)?
-        .id
-        .clone();
-    let mut entry = Entry::new(&id, chrono::Local::now().fixed_offset(), "", kind, text)?;
-    entry.payload = Some(payload);
-    let saved = store.append(entry).map_err(super::data::store_error)?;
-    Ok(saved.to_string())
+    Ok((number, which.data.open()?))
 }
 
 fn parse_date(field: &str, text: &str) -> Result<NaiveDate, FieldError> {
@@ -279,7 +268,11 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
                 "a sensor input (--rtd, --tc, --sensor-input) is applied to a transmitter",
             )));
         }
-        sensor_inputs = Some((sensor.applied_unit(), applied.clone()));
+        sensor_inputs = Some(SensorInputs {
+            sensor: Some(sensor),
+            unit: sensor.applied_unit().to_string(),
+            values: applied.clone(),
+        });
         applied = applied
             .iter()
             .map(|&v| {
@@ -292,23 +285,27 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
     let measured = parse_list("measured", &args.measured)?;
     let mut result = check.run(&applied, &measured)?;
     result.left(&args.leave.items()?.unwrap_or_default());
-    let mut value = serde_json::to_value(&result).map_err(|e| CliError::Failure(e.to_string()))?;
-    if let Some((unit, inputs)) = &sensor_inputs {
-        value["sensor_inputs"] = serde_json::json!({ "unit": unit, "values": inputs });
-    }
+    let mut value = action::payload(&result, sensor_inputs.as_ref())?;
     let saved = if args.which.save {
-        Some(save_entry(
-            &args.which,
-            Kind::LoopCheck,
-            &crate::view::wording::check::log_text(&result),
-            value.clone(),
-        )?)
+        let (number, mut store) = save_target(&args.which)?;
+        let saved = action::save_check(
+            &mut store,
+            chrono::Local::now().fixed_offset(),
+            action::NewCheck {
+                tag: number,
+                initials: args.which.author.as_deref().unwrap_or(""),
+                result: &result,
+                sensor: sensor_inputs,
+            },
+        )
+        .map_err(super::data::store_error)?;
+        Some(saved)
     } else {
         None
     };
     if args.json {
-        if let Some(id) = &saved {
-            value["saved"] = serde_json::json!(id);
+        if let Some(saved) = &saved {
+            value["saved"] = serde_json::json!(saved.id);
         }
         return print_json(out, &value);
     }
@@ -325,8 +322,8 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
             .map(str::to_string),
     );
     lines.extend(result.before_leaving.as_ref().and_then(leave_hint));
-    if let Some(id) = saved {
-        lines.push(format!("saved to the log as {id}"));
+    if let Some(saved) = saved {
+        lines.push(saved.to_string());
     }
     print_lines(out, &lines)
 }
@@ -449,18 +446,21 @@ pub(super) fn diagnose(
     }
     let mut value = serde_json::to_value(&session).map_err(|e| CliError::Failure(e.to_string()))?;
     let saved = if args.which.save {
-        Some(save_entry(
-            &args.which,
-            Kind::FaultFinding,
-            &crate::view::wording::fault::log_text(&session),
-            value.clone(),
-        )?)
+        let (_, mut store) = save_target(&args.which)?;
+        let saved = crate::action::session::save_session(
+            &mut store,
+            chrono::Local::now().fixed_offset(),
+            &session,
+            args.which.author.as_deref().unwrap_or(""),
+        )
+        .map_err(super::data::store_error)?;
+        Some(saved)
     } else {
         None
     };
     if args.json {
-        if let Some(id) = &saved {
-            value["saved"] = serde_json::json!(id);
+        if let Some(saved) = &saved {
+            value["saved"] = serde_json::json!(saved.id);
         }
         return print_json(out, &value);
     }
@@ -474,8 +474,8 @@ pub(super) fn diagnose(
     if args.answers.is_some() {
         lines.extend(session.before_leaving.as_ref().and_then(leave_hint));
     }
-    if let Some(id) = saved {
-        lines.push(format!("saved to the log as {id}"));
+    if let Some(saved) = saved {
+        lines.push(saved.to_string());
     }
     print_lines(out, &lines)
 }

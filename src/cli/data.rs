@@ -9,9 +9,9 @@
 
 use super::CliError;
 use crate::error::FieldError;
-use crate::journal::Query;
+use crate::journal::{parse_period, Bound, Query};
 use crate::store::{FileStore, Store, StoreError};
-use chrono::{DateTime, Duration, FixedOffset, Local, NaiveDate, TimeZone, Utc};
+use chrono::{DateTime, FixedOffset, Local};
 use clap::Args;
 use std::path::PathBuf;
 
@@ -63,31 +63,6 @@ pub(super) fn now_local() -> DateTime<FixedOffset> {
     Local::now().fixed_offset()
 }
 
-/// A local date (start of day, or start of the next day for an inclusive end) or an
-/// RFC 3339 time.
-fn parse_when(field: &str, text: &str, end_of_day: bool) -> Result<DateTime<Utc>, FieldError> {
-    let t = text.trim();
-    if let Ok(dt) = DateTime::parse_from_rfc3339(t) {
-        return Ok(dt.with_timezone(&Utc));
-    }
-    let bad = || {
-        FieldError::new(
-            field,
-            format!("'{t}' is not a date; use YYYY-MM-DD such as 2026-11-30, or a time such as 2026-11-30T07:00:00+01:00"),
-        )
-    };
-    let mut date = NaiveDate::parse_from_str(t, "%Y-%m-%d").map_err(|_| bad())?;
-    if end_of_day {
-        date = date.checked_add_signed(Duration::days(1)).ok_or_else(bad)?;
-    }
-    let midnight = date.and_hms_opt(0, 0, 0).ok_or_else(bad)?;
-    Local
-        .from_local_datetime(&midnight)
-        .earliest()
-        .map(|d| d.with_timezone(&Utc))
-        .ok_or_else(bad)
-}
-
 pub(super) fn query_from(
     store: &dyn Store,
     tags: &[String],
@@ -99,11 +74,14 @@ pub(super) fn query_from(
         q.tags
             .push(store.require_tag(n).map_err(store_error)?.id.clone());
     }
+    // The computer's own time zone: a day across a daylight-saving change starts at its
+    // own midnight.
+    let now = now_local();
     if let Some(s) = since {
-        q.since = Some(parse_when("since", s, false)?);
+        q.since = parse_period("since", s, Bound::Since, now, &Local)?;
     }
     if let Some(u) = until {
-        q.until = Some(parse_when("until", u, true)?);
+        q.until = parse_period("until", u, Bound::Until, now, &Local)?;
     }
     if let (Some(s), Some(u)) = (q.since, q.until) {
         if u <= s {

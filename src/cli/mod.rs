@@ -10,7 +10,7 @@
 mod bundle;
 mod calc;
 mod check;
-mod data;
+pub mod data;
 mod note;
 mod sensors;
 mod tag;
@@ -28,6 +28,10 @@ pub const EXIT_FAILURE: i32 = 1;
 #[derive(Debug, Parser)]
 #[command(name = "loopside", version, about, long_about = None)]
 pub struct Cli {
+    /// Data folder of the register and log, given before the subcommand
+    /// (`loopside --data-dir D note list`; after it works too).
+    #[command(flatten)]
+    pub data: data::DataArgs,
     /// What to do. With none, the app window opens (when built with the UI).
     #[command(subcommand)]
     pub command: Option<Command>,

@@ -2,9 +2,10 @@
 
 use super::data::{now_local, query_from, store_error, DataArgs};
 use super::{print_json, print_lines, CliResult};
+use crate::action::note::{self as action, NewNote};
 use crate::error::FieldError;
 use crate::journal::{closed_follow_ups, is_open, Entry, FollowUpStatus, Kind};
-use crate::store::{Store, StoreError};
+use crate::store::Store;
 use clap::{Args, Subcommand};
 use serde_json::json;
 use std::io::Write;
@@ -42,7 +43,8 @@ pub enum NoteCommand {
 pub struct NoteAddArgs {
     /// Tag number.
     number: String,
-    /// What was done or found.
+    /// What was done or found (may begin with `-`: "-5 mbar offset found").
+    #[arg(allow_hyphen_values = true)]
     text: String,
     /// note, finding, loop-check, fault-finding or follow-up (default note).
     #[arg(long, value_name = "K")]
@@ -79,6 +81,7 @@ pub struct NoteDoneArgs {
 #[command(after_help = "Examples:\n  \
     loopside note list LT-101\n  \
     loopside note list --search \"loose wire\" --since 2026-11-27 --json\n  \
+    loopside note list --since 12h\n  \
     loopside note list --open\n\
     Dates are local days: --since 2026-11-27 --until 2026-11-30 covers both days in full.")]
 pub struct NoteListArgs {
@@ -87,11 +90,12 @@ pub struct NoteListArgs {
     /// Text to look for (case-insensitive).
     #[arg(long, value_name = "TEXT")]
     search: Option<String>,
-    /// From this local date (YYYY-MM-DD) or time (RFC 3339).
-    #[arg(long, value_name = "DATE")]
+    /// From: 12 h or 3 d back, today, yesterday, a local date (YYYY-MM-DD), a local
+    /// date and time (YYYY-MM-DD HH:MM) or a time with its offset (RFC 3339).
+    #[arg(long, allow_hyphen_values = true, value_name = "WHEN")]
     since: Option<String>,
-    /// Up to and including this local date, or before this time (RFC 3339).
-    #[arg(long, value_name = "DATE")]
+    /// Up to: the same forms; a day (today, yesterday, a date) is included in full.
+    #[arg(long, allow_hyphen_values = true, value_name = "WHEN")]
     until: Option<String>,
     /// Only follow-ups still open.
     #[arg(long)]
@@ -145,60 +149,37 @@ pub(super) fn note(args: NoteArgs, out: &mut dyn Write) -> CliResult {
     let mut store = args.data.open()?;
     match args.command {
         NoteCommand::Add(a) => {
-            let tag = store
-                .require_tag(&a.number)
-                .map_err(store_error)?
-                .id
-                .clone();
             let kind = match &a.kind {
                 Some(k) => Kind::parse(k)?,
                 None => Kind::Note,
             };
-            let mut entry = Entry::new(
-                &tag,
+            let payload = a.payload.as_deref().map(parse_payload).transpose()?;
+            let added = action::add_note(
+                &mut store,
                 now_local(),
-                a.author.as_deref().unwrap_or(""),
-                kind,
-                &a.text,
-            )?;
-            if let Some(r) = &a.refers_to {
-                entry.refers_to = Some(
-                    store
-                        .find_entry(r)
-                        .map_err(|e| match e {
-                            StoreError::Input(f) => StoreError::Input(f.renamed("refers-to")),
-                            other => other,
-                        })
-                        .map_err(store_error)?
-                        .id
-                        .clone(),
-                );
-            }
-            if let Some(p) = &a.payload {
-                entry.payload = Some(parse_payload(p)?);
-            }
-            // The id is printed only after append returns: the entry is on disk by then.
-            let id = store.append(entry).map_err(store_error)?;
-            print_lines(out, &[id.to_string()])
+                NewNote {
+                    tag: &a.number,
+                    text: &a.text,
+                    initials: a.author.as_deref().unwrap_or(""),
+                    kind,
+                    refers_to: a.refers_to.as_deref(),
+                    payload,
+                },
+            )
+            .map_err(store_error)?;
+            // The bare id, for scripts; printed only after the entry is on disk.
+            print_lines(out, &[added.id.to_string()])
         }
         NoteCommand::Done(a) => {
-            let open = store.find_entry(&a.id).map_err(store_error)?.clone();
-            let closed = closed_follow_ups(store.entries());
-            if closed.contains(&open.id) {
-                return Err(FieldError::new(
-                    "id",
-                    format!("follow-up {} is already done", open.id),
-                )
-                .into());
-            }
-            let entry = Entry::closing(
-                &open,
+            let closed = action::close_follow_up(
+                &mut store,
                 now_local(),
+                &a.id,
                 a.author.as_deref().unwrap_or(""),
                 a.text.as_deref().unwrap_or(""),
-            )?;
-            let id = store.append(entry).map_err(store_error)?;
-            print_lines(out, &[id.to_string()])
+            )
+            .map_err(store_error)?;
+            print_lines(out, &[closed.id.to_string()])
         }
         NoteCommand::List(a) => {
             let tags: Vec<String> = a.number.iter().cloned().collect();

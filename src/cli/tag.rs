@@ -4,6 +4,7 @@ use super::calc::{LoopArgs, RangeArgs};
 use super::data::{store_error, DataArgs};
 use super::note::{entry_json, entry_line};
 use super::{print_json, print_lines, CliError, CliResult};
+use crate::action::tag as action;
 use crate::error::FieldError;
 use crate::journal::{closed_follow_ups, is_open, Entry};
 use crate::number::parse_in;
@@ -336,19 +337,23 @@ pub struct TagArchiveArgs {
 
 pub(super) fn tag(args: TagArgs, out: &mut dyn Write) -> CliResult {
     let mut store = args.data.open()?;
-    match args.command {
+    let said = match args.command {
         TagCommand::Add(a) => {
             let mut tag = Tag::new(&a.number, a.range.scale()?)?;
             a.describe.apply(&mut tag)?;
             if !a.loop_args.is_empty() {
                 tag.loop_config = Some(a.loop_args.loop_config()?);
             }
-            store.add_tag(tag.clone()).map_err(store_error)?;
-            print_lines(out, &[format!("added {}", tag.number)])
+            action::add_tag(&mut store, tag)
+                .map_err(store_error)?
+                .to_string()
         }
         TagCommand::Edit(a) => {
-            let record = store.require_tag(&a.number).map_err(store_error)?.clone();
-            let mut tag = record.tag.clone();
+            let mut tag = store
+                .require_tag(&a.number)
+                .map_err(store_error)?
+                .tag
+                .clone();
             if let Some(r) = a.range.range_args(&tag.scale.unit) {
                 tag.scale = r.scale()?;
             }
@@ -358,55 +363,20 @@ pub(super) fn tag(args: TagArgs, out: &mut dyn Write) -> CliResult {
             } else if !a.loop_args.is_empty() {
                 tag.loop_config = Some(a.loop_args.loop_config()?);
             }
-            let changed = tag != record.tag;
-            store.update_tag(&record.id, tag).map_err(store_error)?;
-            print_lines(
-                out,
-                &[if changed {
-                    format!("saved {}", record.tag.number)
-                } else {
-                    format!("{}: nothing changed", record.tag.number)
-                }],
-            )
-        }
-        TagCommand::List(a) => tag_list(&store, a, out),
-        TagCommand::Show(a) => tag_show(&store, a, out),
-        TagCommand::Rename(a) => {
-            let old = store
-                .require_tag(&a.number)
+            action::edit_tag(&mut store, &a.number, tag)
                 .map_err(store_error)?
-                .tag
-                .number
-                .clone();
-            store
-                .rename_tag(&a.number, &a.new_number)
-                .map_err(store_error)?;
-            print_lines(
-                out,
-                &[format!(
-                    "renamed {old} to {}; its log follows",
-                    a.new_number.trim()
-                )],
-            )
+                .to_string()
         }
-        TagCommand::Archive(a) => {
-            let number = store
-                .require_tag(&a.number)
-                .map_err(store_error)?
-                .tag
-                .number
-                .clone();
-            store
-                .set_archived(&a.number, !a.restore)
-                .map_err(store_error)?;
-            let what = if a.restore {
-                "restored"
-            } else {
-                "archived (its log is kept)"
-            };
-            print_lines(out, &[format!("{number} {what}")])
-        }
-    }
+        TagCommand::List(a) => return tag_list(&store, a, out),
+        TagCommand::Show(a) => return tag_show(&store, a, out),
+        TagCommand::Rename(a) => action::rename_tag(&mut store, &a.number, &a.new_number)
+            .map_err(store_error)?
+            .to_string(),
+        TagCommand::Archive(a) => action::archive_tag(&mut store, &a.number, !a.restore)
+            .map_err(store_error)?
+            .to_string(),
+    };
+    print_lines(out, &[said])
 }
 
 fn tag_json(store: &dyn Store, t: &TagRecord) -> serde_json::Value {

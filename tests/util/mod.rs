@@ -159,3 +159,35 @@ pub fn ui_backend() {
         }
     });
 }
+
+/// Ways a technician types the start of a period, accepted alike by the Log screen's
+/// *Since* field and by `note list --since` / `export --since`.
+pub const PERIOD_FORMS: &[&str] = &[
+    "12 h",
+    "12h",
+    "1,5 hours",
+    "3 d",
+    "3 days",
+    "today",
+    "Yesterday",
+    "2026-11-28",
+    "2026-11-30 06:00",
+    "2026-11-30T06:00:00Z",
+];
+
+/// Texts that are not a period, refused alike by every front, naming the field.
+pub const NOT_PERIODS: &[&str] = &["last week", "-3 h", "9000 h", "400 d", "2026-13-01", "h"];
+
+/// Mid-afternoon at Brindlemoor, 1 December 2026 (UTC+1): the moment the action tests
+/// act at.
+pub fn afternoon() -> chrono::DateTime<chrono::FixedOffset> {
+    chrono::DateTime::parse_from_rfc3339("2026-12-01T15:30:00+01:00").expect("a time")
+}
+
+/// The demo plant (Brindlemoor Water Reclamation Works) in a memory store, its log
+/// written up to `now`.
+pub fn brindlemoor(now: chrono::DateTime<chrono::FixedOffset>) -> loopside::store::MemoryStore {
+    let mut store = loopside::store::MemoryStore::new();
+    loopside::demo::fill(&mut store, now).expect("the demo fills an empty store");
+    store
+}

@@ -99,8 +99,9 @@ pub fn summary(r: &CheckResult) -> String {
     s
 }
 
-/// The text of the log entry: the kind of check, its verdict, and, when recorded, what
-/// was and was not put right before leaving (the same words from the app and the
+/// The text of the log entry: the kind of check, its verdict, the technician's own words
+/// (the check's note) when there are any, and, when recorded, what was and was not put
+/// right before leaving (the same words from the app and the
 /// command line).
 pub fn log_text(r: &CheckResult) -> String {
     let head = format!(
@@ -109,6 +110,13 @@ pub fn log_text(r: &CheckResult) -> String {
         r.stage.label(),
         summary(r)
     );
+    // The technician's own words (the check's note) follow the verdict on both fronts.
+    let note = r.note.trim();
+    let head = if note.is_empty() {
+        head
+    } else {
+        format!("{head}\n{note}")
+    };
     match &r.before_leaving {
         Some(l) => format!("{head}\n{}", l.summary()),
         None => head,
