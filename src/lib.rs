@@ -19,6 +19,7 @@
 #![warn(missing_docs)]
 
 pub mod error;
+pub mod form;
 pub mod number;
 pub mod units;
 
