@@ -272,12 +272,12 @@ fn bad_input_names_the_field() {
         &dir,
         &["tag", "add", "X-1", "--range", "1..1", "--unit", "m"]
     )
-    .contains("range:"));
+    .contains("range (--range):"));
     assert!(refuses(
         &dir,
         &["tag", "add", "X-1", "--range", "0..1", "--unit", "m", "--supply", "24"]
     )
-    .contains("min-volts:"));
+    .contains("transmitter minimum (--min-volts):"));
     assert!(refuses(&dir, &["tag", "rename", "LT-101", "PT-204"]).contains("new number:"));
     let f = dir.path().join("not-a-bundle.json");
     std::fs::write(&f, "{\"hello\": 1}").unwrap();
