@@ -96,7 +96,7 @@ pub fn update_calc(window: &AppWindow, state: &AppState, all: bool) {
     a.set_calc_unit(v.signal_unit.into());
     a.set_calc_tc(v.thermocouple);
     a.set_calc_note(v.note.into());
-    a.set_calc_error_field(v.error_field.into());
+    a.set_calc_error_field(super::form_field(&v.error_field));
     a.set_calc_error(v.error_text.into());
 }
 
@@ -196,7 +196,7 @@ fn update(window: &AppWindow, state: &AppState, all: bool) {
             if all {
                 set_source_text(&adapter, source, &c.text);
             }
-            adapter.set_error_field(e.field.clone().into());
+            adapter.set_error_field(super::form_field(&e.field));
             adapter.set_error_text(e.to_string().into());
         }
     }
@@ -240,7 +240,7 @@ pub fn map_convert(adapter: &ConvertAdapter, v: &ConvertView, source: Source, al
     adapter.set_notes(model(v.notes.iter().map(|n| n.into()).collect()));
     map_band_bar(adapter, &v.bar);
     adapter.set_bar_description(v.bar_description.clone().into());
-    adapter.set_error_field("".into());
+    adapter.set_error_field(super::FormField::None);
     adapter.set_error_text("".into());
 }
 

@@ -386,12 +386,12 @@ fn after(window: &AppWindow, state: &Shared, result: Result<()>) {
     match result {
         Ok(()) => {
             a.set_error_text("".into());
-            a.set_error_field("".into());
+            a.set_error_field(super::FormField::None);
             a.set_message("".into());
             refresh(window, &state.borrow());
         }
         Err(e) => {
-            a.set_error_field(e.field.clone().into());
+            a.set_error_field(super::form_field(&e.field));
             a.set_error_text(e.to_string().into());
         }
     }

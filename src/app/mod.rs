@@ -250,6 +250,55 @@ pub fn screen_name(screen: Screen) -> &'static str {
     }
 }
 
+/// The form field an error names, for the screen to outline (`FormField::None` for a
+/// name outside the table of fields, [`crate::form::Field`]).
+pub fn form_field(name: &str) -> FormField {
+    use crate::form::Field;
+    match Field::from_name(name) {
+        None => FormField::None,
+        Some(f) => match f {
+            Field::Tag => FormField::Tag,
+            Field::Service => FormField::Service,
+            Field::Area => FormField::Area,
+            Field::Lrv => FormField::Lrv,
+            Field::Urv => FormField::Urv,
+            Field::Range => FormField::Range,
+            Field::Unit => FormField::Unit,
+            Field::Transfer => FormField::Transfer,
+            Field::Cutoff => FormField::Cutoff,
+            Field::Table => FormField::Table,
+            Field::Signal => FormField::Signal,
+            Field::Tolerance => FormField::Tolerance,
+            Field::Supply => FormField::Supply,
+            Field::SupplySag => FormField::SupplySag,
+            Field::TxMin => FormField::TxMin,
+            Field::FaultCurrent => FormField::FaultCurrent,
+            Field::SeriesElement => FormField::SeriesElement,
+            Field::HartMax => FormField::HartMax,
+            Field::CableLength => FormField::CableLength,
+            Field::Conductor => FormField::Conductor,
+            Field::ConductorTemp => FormField::ConductorTemp,
+            Field::Sensor => FormField::Sensor,
+            Field::Wiring => FormField::Wiring,
+            Field::LeadOhms => FormField::LeadOhms,
+            Field::Ma => FormField::Ma,
+            Field::Percent => FormField::Percent,
+            Field::Value => FormField::Value,
+            Field::Volts => FormField::Volts,
+            Field::Ohms => FormField::Ohms,
+            Field::Temperature => FormField::Temperature,
+            Field::Millivolts => FormField::Millivolts,
+            Field::ColdJunction => FormField::ColdJunction,
+            Field::MeterTolerance => FormField::MeterTolerance,
+        },
+    }
+}
+
+/// The row of a form error for the screen (−1 when the error names no row).
+pub fn error_row(e: &crate::form::FormError) -> i32 {
+    e.row.and_then(|r| i32::try_from(r).ok()).unwrap_or(-1)
+}
+
 /// The screen for a saved name.
 pub fn screen_from_name(name: &str) -> Option<Screen> {
     SCREENS.into_iter().find(|s| screen_name(*s) == name)

@@ -105,8 +105,10 @@ pub struct TagDraft {
     pub urv: String,
     /// Engineering unit.
     pub unit: String,
-    /// Transfer, in words.
+    /// Transfer picked, in the picker's words (older drafts: typed words, cutoff included).
     pub transfer: String,
+    /// The square root's cutoff, % of flow, as typed.
+    pub cutoff: String,
     /// Check tolerance, ± % of span.
     pub tolerance: String,
     /// The loop, in the same fields as on Power.

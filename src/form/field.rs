@@ -56,11 +56,29 @@ pub enum Field {
     Wiring,
     /// Resistance of one RTD lead.
     LeadOhms,
+    /// A loop current typed on Convert, mA.
+    Ma,
+    /// A percentage of span typed on Convert.
+    Percent,
+    /// An engineering value typed on Convert.
+    Value,
+    /// Volts across the sense resistor typed on Convert.
+    Volts,
+    /// The sense resistor on Convert.
+    Ohms,
+    /// A sensor temperature typed in the sensor calculator.
+    Temperature,
+    /// A thermocouple's EMF typed in the sensor calculator.
+    Millivolts,
+    /// The thermocouple's cold-junction temperature.
+    ColdJunction,
+    /// The allowance between two mA readings in fault-finding.
+    MeterTolerance,
 }
 
 impl Field {
     /// Every field, in the order the forms show them.
-    pub const ALL: [Field; 24] = [
+    pub const ALL: [Field; 33] = [
         Field::Tag,
         Field::Service,
         Field::Area,
@@ -85,6 +103,15 @@ impl Field {
         Field::Sensor,
         Field::Wiring,
         Field::LeadOhms,
+        Field::Ma,
+        Field::Percent,
+        Field::Value,
+        Field::Volts,
+        Field::Ohms,
+        Field::Temperature,
+        Field::Millivolts,
+        Field::ColdJunction,
+        Field::MeterTolerance,
     ];
 
     /// The field's name in every error message, as the screen labels it.
@@ -114,6 +141,15 @@ impl Field {
             Field::Sensor => "sensor",
             Field::Wiring => "wiring",
             Field::LeadOhms => "lead ohms",
+            Field::Ma => "mA",
+            Field::Percent => "percent",
+            Field::Value => "value",
+            Field::Volts => "volts",
+            Field::Ohms => "ohms",
+            Field::Temperature => "temperature",
+            Field::Millivolts => "millivolts",
+            Field::ColdJunction => "cold junction",
+            Field::MeterTolerance => "meter tolerance",
         }
     }
 
@@ -139,9 +175,18 @@ impl Field {
             Field::CableLength => "--cable-m",
             Field::Conductor => "--awg / --mm2",
             Field::ConductorTemp => "--temp-c",
-            Field::Sensor => "--sensor",
+            Field::Sensor => "--rtd / --tc / --type",
             Field::Wiring => "--wires",
             Field::LeadOhms => "--lead-ohms",
+            Field::Ma => "--ma",
+            Field::Percent => "--percent",
+            Field::Value => "--value",
+            Field::Volts => "--volts",
+            Field::Ohms => "--ohms",
+            Field::Temperature => "--temp-c",
+            Field::Millivolts => "--mv",
+            Field::ColdJunction => "--cj-c",
+            Field::MeterTolerance => "--meter-tolerance",
         }
     }
 
