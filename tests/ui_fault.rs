@@ -347,7 +347,10 @@ fn a_coarser_meter_widens_the_allowance_of_the_next_session() {
     fault.invoke_meter_edited("9".into());
     fault.invoke_pick_symptom(0);
     assert!(!fault.get_running());
-    assert_eq!(fault.get_error_field(), "meter tolerance");
+    assert_eq!(
+        fault.get_error_field(),
+        loopside::app::FormField::MeterTolerance
+    );
     assert!(
         fault.get_error_text().contains("5"),
         "{}",

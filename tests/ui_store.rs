@@ -110,7 +110,7 @@ fn a_new_tag_is_in_the_register_and_opens() {
     // The same number again is refused and names the field.
     tags.invoke_new_tag();
     tags.invoke_save(form);
-    assert_eq!(tags.get_error_field(), "tag");
+    assert_eq!(tags.get_error_field(), loopside::app::FormField::Tag);
     assert!(tags.get_error_text().contains("already in the register"));
 }
 

@@ -421,6 +421,12 @@ pub fn matches(tag: &Tag, search: &str) -> bool {
 
 /// Copy the (filtered) register and the open tag's sheet into the adapter.
 pub fn refresh(window: &AppWindow, state: &AppState) {
+    window.global::<TagsAdapter>().set_transfer_options(model(
+        TransferChoice::ALL
+            .iter()
+            .map(|c| c.label().into())
+            .collect(),
+    ));
     window.global::<TagsAdapter>().set_fault_placeholder(
         format!(
             "{} (default)",
