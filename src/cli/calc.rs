@@ -251,7 +251,7 @@ pub(super) fn convert(args: ConvertArgs, out: &mut dyn Write) -> CliResult {
             };
             lines.push(format!(
                 "cutoff   {} — {state}",
-                display::cutoff(cutoff_percent)
+                crate::view::cutoff(cutoff_percent)
             ));
         }
     }
@@ -564,10 +564,10 @@ pub(super) fn wire(args: WireArgs, out: &mut dyn Write) -> CliResult {
         out,
         &[
             format!(
-                "{}: {:.3} mm², {:.3} mm diameter, {} Ω/km per conductor at {} °C",
+                "{}: {} mm², {} mm diameter, {} Ω/km per conductor at {} °C",
                 conductor.label(),
-                conductor.area_mm2(),
-                conductor.diameter_mm(),
+                display::fixed(conductor.area_mm2(), 3),
+                display::fixed(conductor.diameter_mm(), 3),
                 display::fixed(per_km, 3),
                 display::fixed(temp_c, 1)
             ),
@@ -613,7 +613,7 @@ pub struct UnitsArgs {
 /// The atmosphere a conversion uses: the typed one, or the standard atmosphere.
 fn atmosphere(atm: Option<&str>) -> Result<(f64, bool), FieldError> {
     match atm {
-        Some(text) => Ok((units::parse_atmosphere("atm", text)?, true)),
+        Some(text) => Ok((crate::number::parse_atmosphere("atm", text)?, true)),
         None => Ok((units::STANDARD_ATMOSPHERE_PA, false)),
     }
 }
@@ -623,7 +623,7 @@ fn atmosphere_line(atm_pa: f64, given: bool) -> String {
     if given {
         format!(
             "atmosphere {} kPa, as given",
-            significant(atm_pa / 1000.0, 6)
+            display::significant(atm_pa / 1000.0, 6)
         )
     } else {
         "atmosphere 101.325 kPa, the standard atmosphere (give --atm for the local one)".to_string()
@@ -650,7 +650,7 @@ pub(super) fn units(args: UnitsArgs, out: &mut dyn Write) -> CliResult {
         }
         return print_json(out, &obj);
     }
-    let mut lines = vec![format!("{} {}", significant(result, 7), to.symbol)];
+    let mut lines = vec![format!("{} {}", display::significant(result, 7), to.symbol)];
     for unit in [from, to] {
         if !unit.note.is_empty() {
             lines.push(format!("{}: {}", unit.symbol, unit.note));
@@ -660,21 +660,6 @@ pub(super) fn units(args: UnitsArgs, out: &mut dyn Write) -> CliResult {
         lines.push(atmosphere_line(atm_pa, given));
     }
     print_lines(out, &lines)
-}
-
-/// `significant` digits for a plain-number answer (units conversions).
-fn significant(value: f64, digits: i32) -> String {
-    if value == 0.0 {
-        return "0".to_string();
-    }
-    let magnitude = value.abs().log10().floor() as i32;
-    let decimals = (digits - 1 - magnitude).clamp(0, 12) as usize;
-    let s = display::fixed(value, decimals);
-    if s.contains('.') {
-        s.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
-        s
-    }
 }
 
 /// `loopside status`
@@ -773,12 +758,12 @@ pub(super) fn resistor(args: ResistorArgs, out: &mut dyn Write) -> CliResult {
     )];
     for p in &r.points {
         lines.push(format!(
-            "{:>10}  {:>8}  {:.3} W  reading error up to {} ({:.3} % of span)",
+            "{:>10}  {:>8}  {} W  reading error up to {} ({} % of span)",
             display::ma(p.current_ma),
             display::fixed(p.volts, 3) + " V",
-            p.watts,
+            display::fixed(p.watts, 3),
             display::ma(p.error_ma),
-            p.error_percent_of_span
+            display::fixed(p.error_percent_of_span, 3)
         ));
     }
     print_lines(out, &lines)
