@@ -114,11 +114,15 @@ fn editing_the_loop_moves_the_verdict() {
     let app = app();
     app.show_screen(Screen::Power);
     let adapter = app.window.global::<loopside::app::PowerAdapter>();
-    assert_eq!(adapter.get_verdict_kind(), 1, "LT-101 has enough voltage");
+    assert_eq!(
+        adapter.get_verdict_kind(),
+        loopside::app::Tone::Good,
+        "LT-101 has enough voltage"
+    );
     field(&app, "Supply").set_accessible_value("15");
     assert_eq!(
         adapter.get_verdict_kind(),
-        3,
+        loopside::app::Tone::Bad,
         "15 V is not enough for LT-101"
     );
     field(&app, "Supply").set_accessible_value("24 V x");

@@ -148,7 +148,11 @@ fn stuck_low_walked_through_the_screen_to_a_starved_transmitter() {
     let conclusion = a.get_conclusion_detail().to_string();
     assert!(conclusion.starts_with("The transmitter does not get its minimum voltage"));
     assert!(shows(&app, &format!("Conclusion. {conclusion}")));
-    assert_eq!(a.get_conclusion_kind(), 3, "it points at a fault");
+    assert_eq!(
+        a.get_conclusion_kind(),
+        loopside::app::Tone::Bad,
+        "it points at a fault"
+    );
     // Taking resistance out means opening the loop: its caution is shown with it.
     assert!(a
         .get_conclusion_cautions()
@@ -260,7 +264,11 @@ fn a_question_is_answered_with_yes() {
     assert!(a
         .get_conclusion_detail()
         .starts_with("The loop reads the process correctly"));
-    assert_eq!(a.get_conclusion_kind(), 0, "nothing pointed at a fault");
+    assert_eq!(
+        a.get_conclusion_kind(),
+        loopside::app::Tone::Neutral,
+        "nothing pointed at a fault"
+    );
 }
 
 #[test]

@@ -55,7 +55,12 @@ fn a_five_point_check_is_judged_and_saved_to_the_log() {
     let row = check.get_rows().row_data(2).unwrap();
     assert_eq!(row.apply, "2.2500 m", "50 % of 0–4.5 m");
     assert_eq!(row.expected, "12.000");
-    assert_eq!(row.kind, 3, "each point outside tolerance is marked");
+    assert_eq!(
+        row.tone,
+        loopside::app::Tone::Bad,
+        "each point outside tolerance is marked"
+    );
+    assert_eq!(row.verdict, "FAIL");
     check.set_initials_text("ef".into());
     check.invoke_save();
     assert_eq!(check.get_error_text(), "");

@@ -250,7 +250,8 @@ fn update(window: &AppWindow, state: &AppState, table: &VecModel<super::CheckRow
             expected: r.expected.clone().into(),
             found: readings.get(i).cloned().unwrap_or_default().into(),
             error: r.error.clone().into(),
-            kind: r.tone.code(),
+            tone: super::tone(r.tone),
+            verdict: r.verdict.clone().into(),
         };
         if i < table.row_count() {
             if table.row_data(i).as_ref() != Some(&row) {
@@ -296,6 +297,6 @@ fn update(window: &AppWindow, state: &AppState, table: &VecModel<super::CheckRow
     a.set_plot_description(format!("{}. {}", v.verdict.0, v.verdict.1).into());
     a.set_verdict_title(v.verdict.0.into());
     a.set_verdict_detail(v.verdict.1.into());
-    a.set_verdict_kind(v.verdict.2.code());
+    a.set_verdict_kind(super::tone(v.verdict.2));
     a.set_error_text(v.problem.into());
 }

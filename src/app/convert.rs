@@ -236,7 +236,7 @@ pub fn map_convert(adapter: &ConvertAdapter, v: &ConvertView, source: Source, al
     adapter.set_value_unit(v.value_unit.clone().into());
     adapter.set_status_title(v.status_title.clone().into());
     adapter.set_status_detail(v.status_detail.clone().into());
-    adapter.set_status_kind(v.tone.code());
+    adapter.set_status_kind(super::tone(v.tone));
     adapter.set_notes(model(v.notes.iter().map(|n| n.into()).collect()));
     map_band_bar(adapter, &v.bar);
     adapter.set_bar_description(v.bar_description.clone().into());
@@ -251,7 +251,7 @@ fn map_band_bar(adapter: &ConvertAdapter, bar: &BandBar) {
             .map(|b| super::BandSeg {
                 start: b.start as f32,
                 end: b.end as f32,
-                kind: b.kind(),
+                tone: super::tone(crate::view::convert::tone(b.status)),
             })
             .collect(),
     ));

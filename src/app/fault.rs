@@ -511,7 +511,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
                 instruction: d.instruction.clone().into(),
                 measured: d.lines.join("\n").into(),
                 outcome: d.outcome.clone().into(),
-                kind: d.tone.code(),
+                kind: super::tone(d.tone),
                 fault: d.points_to_fault,
             })
             .collect(),
@@ -541,7 +541,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
             .iter()
             .map(|f| super::FaultFinding {
                 text: f.text.clone().into(),
-                kind: f.tone.code(),
+                kind: super::tone(f.tone),
             })
             .collect(),
     ));
@@ -549,7 +549,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
         Some(c) => {
             a.set_conclusion_title(c.title.clone().into());
             a.set_conclusion_detail(c.detail.clone().into());
-            a.set_conclusion_kind(c.tone.code());
+            a.set_conclusion_kind(super::tone(c.tone));
             a.set_conclusion_cautions(model(
                 c.cautions.iter().map(|t| t.as_str().into()).collect(),
             ));

@@ -294,6 +294,32 @@ pub fn form_field(name: &str) -> FormField {
     }
 }
 
+/// A tone as the screens colour it.
+pub fn tone(t: crate::view::Tone) -> Tone {
+    use crate::view::Tone as T;
+    match t {
+        T::Neutral => Tone::Neutral,
+        T::Good => Tone::Good,
+        T::Caution => Tone::Caution,
+        T::Bad => Tone::Bad,
+        T::Outside => Tone::Outside,
+        T::Dead => Tone::Dead,
+    }
+}
+
+/// A budget bar slice's kind as the screens colour it.
+pub fn slice_kind(k: crate::view::power::SliceKind) -> SliceKind {
+    use crate::view::power::SliceKind as K;
+    match k {
+        K::Transmitter => SliceKind::Transmitter,
+        K::Resistance => SliceKind::Resistance,
+        K::Drop => SliceKind::Drop,
+        K::Cable => SliceKind::Cable,
+        K::Spare => SliceKind::Spare,
+        K::Shortfall => SliceKind::Shortfall,
+    }
+}
+
 /// The row of a form error for the screen (−1 when the error names no row).
 pub fn error_row(e: &crate::form::FormError) -> i32 {
     e.row.and_then(|r| i32::try_from(r).ok()).unwrap_or(-1)

@@ -306,7 +306,7 @@ fn map_slices(slices: &[Slice]) -> slint::ModelRc<super::BudgetSeg> {
             .map(|s| super::BudgetSeg {
                 start: s.start as f32,
                 width: s.width as f32,
-                kind: s.kind.code(),
+                kind: super::slice_kind(s.kind),
                 label: s.label.clone().into(),
             })
             .collect(),
@@ -327,7 +327,7 @@ pub fn map_power(adapter: &PowerAdapter, v: &PowerView) {
         v.legend
             .iter()
             .map(|l| super::LegendRow {
-                kind: l.kind.code(),
+                kind: super::slice_kind(l.kind),
                 name: l.name.clone().into(),
                 full: l.full.clone().into(),
                 fault: l.fault.clone().into(),
@@ -340,24 +340,24 @@ pub fn map_power(adapter: &PowerAdapter, v: &PowerView) {
             .map(|f| super::Figure {
                 label: f.label.clone().into(),
                 value: f.value.clone().into(),
-                kind: f.tone.code(),
+                kind: super::tone(f.tone),
             })
             .collect(),
     ));
     adapter.set_notes(model(v.notes.iter().map(|n| n.clone().into()).collect()));
     adapter.set_verdict_title(v.verdict_title.clone().into());
     adapter.set_verdict_detail(v.verdict_detail.clone().into());
-    adapter.set_verdict_kind(v.verdict_tone.code());
+    adapter.set_verdict_kind(super::tone(v.verdict_tone));
     match &v.hart {
         Some((title, detail, tone)) => {
             adapter.set_hart_title(title.clone().into());
             adapter.set_hart_detail(detail.clone().into());
-            adapter.set_hart_kind(tone.code());
+            adapter.set_hart_kind(super::tone(*tone));
         }
         None => {
             adapter.set_hart_title("".into());
             adapter.set_hart_detail("".into());
-            adapter.set_hart_kind(0);
+            adapter.set_hart_kind(super::Tone::Neutral);
         }
     }
     adapter.set_error_field(super::FormField::None);

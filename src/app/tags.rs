@@ -473,7 +473,7 @@ fn map_sheet(adapter: &TagsAdapter, state: &AppState) {
                     when: r.when.clone().into(),
                     title: r.title.clone().into(),
                     text: r.text.clone().into(),
-                    kind: r.kind.code(),
+                    open: r.kind == crate::view::log::RowKind::OpenFollowUp,
                 })
                 .collect(),
         )
