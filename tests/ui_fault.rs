@@ -138,11 +138,13 @@ fn stuck_low_walked_through_the_screen_to_a_starved_transmitter() {
         a.get_error_text()
     );
     assert_eq!(a.get_step_number(), 2, "still waiting at step 2");
+    assert_eq!(a.get_phase(), loopside::app::FaultPhase::Asking);
     // 8 V is under LT-101's 10.5 V minimum (plant standard in the demo).
     type_into(&app, "Voltage across the transmitter terminals (DC)", "8");
     tap(&app, "Next");
     assert_eq!(a.get_error_text(), "");
     assert_eq!(a.get_step_number(), 0, "concluded");
+    assert_eq!(a.get_phase(), loopside::app::FaultPhase::Concluded);
     assert!(a.get_inputs() != rows, "a new step gets new inputs");
     assert!(shows(&app, "Not enough voltage at the transmitter"));
     let conclusion = a.get_conclusion_detail().to_string();

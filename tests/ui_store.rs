@@ -66,7 +66,7 @@ fn a_five_point_check_is_judged_and_saved_to_the_log() {
     assert_eq!(check.get_error_text(), "");
     assert!(check.get_message().starts_with("Saved the as found check"));
     // The form moves on to as-left with an empty table.
-    assert_eq!(check.get_stage(), 1);
+    assert_eq!(check.get_stage(), loopside::app::CheckStage::AsLeft);
     assert_eq!(check.get_rows().row_data(0).unwrap().found, "");
     let state = app.state.borrow();
     let saved = state.store.entries().last().unwrap();

@@ -107,11 +107,10 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     update(window, &state.borrow(), &rows);
 }
 
-fn stage_of(code: i32) -> Stage {
-    if code == 1 {
-        Stage::AsLeft
-    } else {
-        Stage::AsFound
+fn stage_of(picked: super::CheckStage) -> Stage {
+    match picked {
+        super::CheckStage::AsLeft => Stage::AsLeft,
+        super::CheckStage::AsFound => Stage::AsFound,
     }
 }
 
@@ -203,7 +202,10 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     ));
     let form = &state.ui.check;
     a.set_cautions_read(form.cautions_read);
-    a.set_stage(if stage(state) == Stage::AsLeft { 1 } else { 0 });
+    a.set_stage(match stage(state) {
+        Stage::AsLeft => super::CheckStage::AsLeft,
+        Stage::AsFound => super::CheckStage::AsFound,
+    });
     a.set_reference_text(form.reference.clone().into());
     a.set_initials_text(state.ui.initials.clone().into());
     show_leave(window, state);

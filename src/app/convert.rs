@@ -171,7 +171,12 @@ fn update(window: &AppWindow, state: &AppState, all: bool) {
     let adapter = window.global::<ConvertAdapter>();
     let c = &state.ui.convert;
     let source = Source::from_name(&c.source).unwrap_or(Source::Ma);
-    adapter.set_source(source.name().into());
+    adapter.set_source(match source {
+        Source::Ma => super::ConvertSource::Ma,
+        Source::Percent => super::ConvertSource::Percent,
+        Source::Value => super::ConvertSource::Value,
+        Source::Volts => super::ConvertSource::Volts,
+    });
     let result = scale_and_bands(state).and_then(|(scale, bands, title, detail)| {
         adapter.set_tag_title(title.into());
         adapter.set_tag_detail(detail.into());

@@ -492,6 +492,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
         a.set_procedure_title("".into());
         a.set_steps(model(Vec::new()));
         a.set_step_number(0);
+        a.set_phase(super::FaultPhase::Idle);
         a.set_inputs(model(Vec::new()));
         a.set_findings(model(Vec::new()));
         a.set_conclusion_detail("".into());
@@ -519,6 +520,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     match &v.current {
         Some(c) => {
             a.set_step_number(c.number as i32);
+            a.set_phase(super::FaultPhase::Asking);
             a.set_step_instruction(c.instruction.clone().into());
             a.set_step_cautions(model(
                 c.cautions.iter().map(|t| t.as_str().into()).collect(),
@@ -529,6 +531,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
         }
         None => {
             a.set_step_number(0);
+            a.set_phase(super::FaultPhase::Concluded);
             a.set_step_instruction("".into());
             a.set_step_cautions(model(Vec::new()));
             a.set_question("".into());
