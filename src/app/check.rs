@@ -37,10 +37,10 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let Some(w) = weak.upgrade() else { return };
         {
             let mut s = st.borrow_mut();
-            let wanted = stage_of(stage).as_str();
+            let wanted = stage_of(stage);
             if s.ui.check.stage != wanted {
                 // A new stage is a new set of readings (as-left is read after the work).
-                s.ui.check.stage = wanted.to_string();
+                s.ui.check.stage = wanted;
                 s.ui.check.readings.clear();
             }
         }
@@ -116,7 +116,7 @@ fn stage_of(picked: super::CheckStage) -> Stage {
 
 /// The stage the saved form is at.
 fn stage(state: &AppState) -> Stage {
-    Stage::parse(&state.ui.check.stage).unwrap_or(Stage::AsFound)
+    state.ui.check.stage
 }
 
 /// Readings belong to one tag: when another tag is open, start a fresh check.
@@ -174,7 +174,7 @@ pub fn save(state: &mut AppState) -> Result<(EntryId, Stage, LeaveList), StoreEr
     let reference = state.ui.check.reference.clone();
     state.ui.check = super::state::CheckForm {
         tag,
-        stage: Stage::AsLeft.as_str().to_string(),
+        stage: Stage::AsLeft,
         readings: Vec::new(),
         reference,
         cautions_read: true,

@@ -25,8 +25,8 @@ pub fn connect(window: &AppWindow, state: &Shared) {
                 "urv" => c.urv = text.to_string(),
                 "unit" => c.unit = text.to_string(),
                 other => {
-                    if Source::from_name(other).is_some() {
-                        c.source = other.to_string();
+                    if let Some(source) = Source::from_name(other) {
+                        c.source = source;
                         c.text = text.to_string();
                     }
                 }
@@ -58,7 +58,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     let st = state.clone();
     adapter.on_change_tag(move || {
         if let Some(w) = weak.upgrade() {
-            st.borrow_mut().ui.return_to = Some("convert".to_string());
+            st.borrow_mut().ui.return_to = Some(super::Screen::Convert);
             navigate(&w, &st, Screen::Tags, true);
         }
     });
@@ -170,7 +170,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
 fn update(window: &AppWindow, state: &AppState, all: bool) {
     let adapter = window.global::<ConvertAdapter>();
     let c = &state.ui.convert;
-    let source = Source::from_name(&c.source).unwrap_or(Source::Ma);
+    let source = c.source;
     adapter.set_source(match source {
         Source::Ma => super::ConvertSource::Ma,
         Source::Percent => super::ConvertSource::Percent,

@@ -381,7 +381,7 @@ pub fn navigate(window: &AppWindow, state: &Shared, screen: Screen, remember: bo
         if remember {
             s.history.push(current);
         }
-        s.ui.screen = screen_name(screen).to_string();
+        s.ui.screen = screen;
     }
     adapter.set_screen(screen);
 }
@@ -406,9 +406,7 @@ pub fn refresh_all(window: &AppWindow, state: &AppState) {
     adapter.set_has_notice(!state.notices.is_empty());
     adapter.set_notice(state.notices.join(" ").into());
     adapter.set_open_tag(state.ui.open_tag.clone().unwrap_or_default().into());
-    if let Some(screen) = screen_from_name(&state.ui.screen) {
-        adapter.set_screen(screen);
-    }
+    adapter.set_screen(state.ui.screen);
     tags::refresh(window, state);
     convert::refresh(window, state);
     power::refresh(window, state);

@@ -111,7 +111,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     let st = state.clone();
     adapter.on_change_tag(move || {
         if let Some(w) = weak.upgrade() {
-            st.borrow_mut().ui.return_to = Some("power".to_string());
+            st.borrow_mut().ui.return_to = Some(Screen::Power);
             navigate(&w, &st, Screen::Tags, true);
         }
     });

@@ -213,7 +213,7 @@ pub fn open(window: &AppWindow, state: &Shared, number: &str) {
         s.ui.return_to.take()
     };
     refresh_all(window, &state.borrow());
-    if let Some(screen) = return_to.as_deref().and_then(screen_from_name) {
+    if let Some(screen) = return_to {
         navigate(window, state, screen, false);
         state.borrow_mut().history.pop();
     }
