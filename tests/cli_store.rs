@@ -454,3 +454,21 @@ fn a_tag_records_its_sensor_and_a_check_takes_applied_ohms() {
     )
     .contains("cj-c"));
 }
+
+#[test]
+fn a_new_range_keeps_the_tags_signal_span_and_unit() {
+    // PT-520 sends 0–20 mA to an old recorder; the range is re-set from 0–10 to 0–16 bar.
+    // As on the tag form, what is not given again (unit, signal span) is the tag's own.
+    let dir = TempDir::new("edit-range");
+    run(
+        &dir,
+        &[
+            "tag", "add", "PT-520", "--range", "0..10", "--unit", "bar", "--signal", "0..20",
+        ],
+    );
+    run(&dir, &["tag", "edit", "PT-520", "--range", "0..16"]);
+    let t = json(&dir, &["tag", "show", "PT-520", "--json"]);
+    assert_eq!(t["tag"]["scale"]["urv"], 16.0, "{t}");
+    assert_eq!(t["tag"]["scale"]["unit"], "bar");
+    assert_eq!(t["tag"]["scale"]["signal"]["low_ma"], 0.0, "{t}");
+}
