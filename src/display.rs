@@ -175,8 +175,11 @@ mod tests {
         assert_eq!(quoted_fixed(-0.5, 2), "\u{2212}0.50");
     }
 
+    /// A named format: its name, the decimals it rounds to near zero, the function.
+    type NamedFormat = (&'static str, usize, fn(f64) -> String);
+
     /// Every named format, with the decimals it rounds to for a value near zero.
-    fn near_zero_formats() -> Vec<(&'static str, usize, fn(f64) -> String)> {
+    fn near_zero_formats() -> Vec<NamedFormat> {
         vec![
             ("ma", 3, ma),
             ("percent", 2, percent),

@@ -45,7 +45,6 @@ enum Operand {
 }
 
 /// The operand right after a comparison operator (leading spaces skipped).
-
 fn operand_after(text: &str) -> Operand {
     let t = text.trim_start();
     if let Some(rest) = t.strip_prefix('"') {

@@ -212,7 +212,8 @@ mod tests {
 
     #[test]
     fn each_bad_field_is_named() {
-        let cases: [(fn(&mut LoopForm), Field); 9] = [
+        type Spoil = fn(&mut LoopForm);
+        let cases: [(Spoil, Field); 9] = [
             (|f| f.supply = "".into(), Field::Supply),
             (|f| f.supply = "-24".into(), Field::Supply),
             (|f| f.tx_min = "lots".into(), Field::TxMin),

@@ -343,7 +343,8 @@ mod tests {
 
     #[test]
     fn each_bad_field_is_named() {
-        let cases: [(fn(&mut RangeForm), Field); 7] = [
+        type Spoil = fn(&mut RangeForm);
+        let cases: [(Spoil, Field); 7] = [
             (|f| f.bounds = Bounds::Together("0-10".into()), Field::Range),
             (|f| f.bounds = Bounds::Together("5..5".into()), Field::Range),
             (
