@@ -180,10 +180,18 @@ impl RangeForm {
         if self.cutoff.trim().is_empty() {
             return Ok(0.0);
         }
-        let typed = parse_in(Field::Cutoff.name(), &self.cutoff, "%")
+        // The words `of DP` (`0,01 % of DP`) say the cutoff is a % of DP, as the flag
+        // --cutoff-dp does; `of flow` is the default made explicit.
+        let lower = self.cutoff.to_lowercase();
+        let (number, of) = match lower.find("of") {
+            Some(i) if lower[i..].contains("dp") => (&self.cutoff[..i], CutoffOf::Dp),
+            Some(i) if lower[i..].contains("flow") => (&self.cutoff[..i], CutoffOf::Flow),
+            _ => (self.cutoff.as_str(), self.cutoff_of),
+        };
+        let typed = parse_in(Field::Cutoff.name(), number, "%")
             .and_then(|v| within(Field::Cutoff.name(), v, 0.0, 100.0))
             .map_err(FormError::at(Field::Cutoff))?;
-        Ok(match self.cutoff_of {
+        Ok(match of {
             CutoffOf::Flow => typed,
             CutoffOf::Dp => crate::scale::cutoff_flow_percent(typed),
         })
@@ -295,11 +303,15 @@ mod tests {
         let mut f = flow();
         f.cutoff = "0,01".into();
         f.cutoff_of = CutoffOf::Dp;
-        match f.parse(None).unwrap().transfer {
-            Transfer::SquareRoot { cutoff_percent, .. } => {
-                assert!((cutoff_percent - 1.0).abs() < 1e-9)
+        let mut typed = flow();
+        typed.cutoff = "0,01 % of DP".into();
+        for form in [f, typed] {
+            match form.parse(None).unwrap().transfer {
+                Transfer::SquareRoot { cutoff_percent, .. } => {
+                    assert!((cutoff_percent - 1.0).abs() < 1e-9, "{form:?}")
+                }
+                other => panic!("{other:?}"),
             }
-            other => panic!("{other:?}"),
         }
     }
 
