@@ -21,6 +21,7 @@
 #![warn(missing_docs)]
 
 pub mod error;
+pub mod form;
 pub mod number;
 pub mod units;
 

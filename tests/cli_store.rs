@@ -272,12 +272,12 @@ fn bad_input_names_the_field() {
         &dir,
         &["tag", "add", "X-1", "--range", "1..1", "--unit", "m"]
     )
-    .contains("range:"));
+    .contains("range (--range):"));
     assert!(refuses(
         &dir,
         &["tag", "add", "X-1", "--range", "0..1", "--unit", "m", "--supply", "24"]
     )
-    .contains("min-volts:"));
+    .contains("transmitter minimum (--min-volts):"));
     assert!(refuses(&dir, &["tag", "rename", "LT-101", "PT-204"]).contains("new number:"));
     let f = dir.path().join("not-a-bundle.json");
     std::fs::write(&f, "{\"hello\": 1}").unwrap();
@@ -617,4 +617,22 @@ fn a_local_day_across_the_spring_clock_change_starts_at_its_own_midnight() {
         .collect();
     // Sunday runs from 00:00 GMT to 00:00 BST (23:00 UTC): only the 00:30 GMT round.
     assert_eq!(ids, vec![times[1].0]);
+}
+
+#[test]
+fn a_new_range_keeps_the_tags_signal_span_and_unit() {
+    // PT-520 sends 0–20 mA to an old recorder; the range is re-set from 0–10 to 0–16 bar.
+    // As on the tag form, what is not given again (unit, signal span) is the tag's own.
+    let dir = TempDir::new("edit-range");
+    run(
+        &dir,
+        &[
+            "tag", "add", "PT-520", "--range", "0..10", "--unit", "bar", "--signal", "0..20",
+        ],
+    );
+    run(&dir, &["tag", "edit", "PT-520", "--range", "0..16"]);
+    let t = json(&dir, &["tag", "show", "PT-520", "--json"]);
+    assert_eq!(t["tag"]["scale"]["urv"], 16.0, "{t}");
+    assert_eq!(t["tag"]["scale"]["unit"], "bar");
+    assert_eq!(t["tag"]["scale"]["signal"]["low_ma"], 0.0, "{t}");
 }

@@ -87,7 +87,7 @@ fn bad_input_names_the_field_and_keeps_the_text() {
     app.show_screen(Screen::Convert);
     field(&app, "Loop current").set_accessible_value("12 furlongs");
     let adapter = app.window.global::<ConvertAdapter>();
-    assert_eq!(adapter.get_error_field(), "mA");
+    assert_eq!(adapter.get_error_field(), loopside::app::FormField::Ma);
     assert!(adapter.get_error_text().starts_with("mA:"));
     assert_eq!(value_of(&app, "Loop current"), "12 furlongs");
     field(&app, "Loop current").set_accessible_value("4");
@@ -114,15 +114,19 @@ fn editing_the_loop_moves_the_verdict() {
     let app = app();
     app.show_screen(Screen::Power);
     let adapter = app.window.global::<loopside::app::PowerAdapter>();
-    assert_eq!(adapter.get_verdict_kind(), 1, "LT-101 has enough voltage");
+    assert_eq!(
+        adapter.get_verdict_kind(),
+        loopside::app::Tone::Good,
+        "LT-101 has enough voltage"
+    );
     field(&app, "Supply").set_accessible_value("15");
     assert_eq!(
         adapter.get_verdict_kind(),
-        3,
+        loopside::app::Tone::Bad,
         "15 V is not enough for LT-101"
     );
     field(&app, "Supply").set_accessible_value("24 V x");
-    assert_eq!(adapter.get_error_field(), "supply");
+    assert_eq!(adapter.get_error_field(), loopside::app::FormField::Supply);
 }
 
 #[test]
@@ -237,7 +241,10 @@ fn the_sensor_calculator_works_both_ways() {
     let t: f64 = a.get_calc_temp().parse().unwrap();
     assert!((t - 300.0).abs() <= 0.05, "{t}");
     a.invoke_calc_edited("cj".into(), "cold".into());
-    assert_eq!(a.get_calc_error_field(), "cold junction");
+    assert_eq!(
+        a.get_calc_error_field(),
+        loopside::app::FormField::ColdJunction
+    );
 }
 
 #[test]
@@ -251,7 +258,18 @@ fn a_new_tag_is_entered_with_its_whole_loop() {
     field(&app, "Service").set_accessible_value("Backwash water flow");
     field(&app, "URV").set_accessible_value("120");
     field(&app, "Unit").set_accessible_value("m³/h");
-    field(&app, "Transfer").set_accessible_value("square root, cutoff 1 %");
+    // The transfer is picked from the list, not typed; the cutoff field then appears.
+    let root_in_receiver = || {
+        with_role(
+            &app,
+            "Transfer: square root in the receiver",
+            AccessibleRole::Checkbox,
+        )
+    };
+    assert_eq!(root_in_receiver().accessible_checked(), Some(false));
+    root_in_receiver().invoke_accessible_default_action();
+    assert_eq!(root_in_receiver().accessible_checked(), Some(true));
+    field(&app, "Low-flow cutoff, % of flow").set_accessible_value("1");
     field(&app, "Loop supply").set_accessible_value("24");
     field(&app, "Transmitter minimum").set_accessible_value("10,5");
     button(&app, "Add resistor").invoke_accessible_default_action();
@@ -269,6 +287,13 @@ fn a_new_tag_is_entered_with_its_whole_loop() {
     let state = app.state.borrow();
     let tag = state.open_tag().expect("the new tag is open");
     assert_eq!(tag.number, "FT-640");
+    assert_eq!(
+        tag.scale.transfer,
+        loopside::scale::Transfer::SquareRoot {
+            cutoff_percent: 1.0,
+            root_in: loopside::scale::RootLocation::Receiver
+        }
+    );
     assert!(tag.hart);
     let c = tag.loop_config.as_ref().expect("the loop is recorded");
     assert_eq!(c.tx_min_volts, 10.5);

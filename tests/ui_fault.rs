@@ -138,17 +138,23 @@ fn stuck_low_walked_through_the_screen_to_a_starved_transmitter() {
         a.get_error_text()
     );
     assert_eq!(a.get_step_number(), 2, "still waiting at step 2");
+    assert_eq!(a.get_phase(), loopside::app::FaultPhase::Asking);
     // 8 V is under LT-101's 10.5 V minimum (plant standard in the demo).
     type_into(&app, "Voltage across the transmitter terminals (DC)", "8");
     tap(&app, "Next");
     assert_eq!(a.get_error_text(), "");
     assert_eq!(a.get_step_number(), 0, "concluded");
+    assert_eq!(a.get_phase(), loopside::app::FaultPhase::Concluded);
     assert!(a.get_inputs() != rows, "a new step gets new inputs");
     assert!(shows(&app, "Not enough voltage at the transmitter"));
     let conclusion = a.get_conclusion_detail().to_string();
     assert!(conclusion.starts_with("The transmitter does not get its minimum voltage"));
     assert!(shows(&app, &format!("Conclusion. {conclusion}")));
-    assert_eq!(a.get_conclusion_kind(), 3, "it points at a fault");
+    assert_eq!(
+        a.get_conclusion_kind(),
+        loopside::app::Tone::Bad,
+        "it points at a fault"
+    );
     // Taking resistance out means opening the loop: its caution is shown with it.
     assert!(a
         .get_conclusion_cautions()
@@ -260,7 +266,11 @@ fn a_question_is_answered_with_yes() {
     assert!(a
         .get_conclusion_detail()
         .starts_with("The loop reads the process correctly"));
-    assert_eq!(a.get_conclusion_kind(), 0, "nothing pointed at a fault");
+    assert_eq!(
+        a.get_conclusion_kind(),
+        loopside::app::Tone::Neutral,
+        "nothing pointed at a fault"
+    );
 }
 
 #[test]
@@ -347,7 +357,10 @@ fn a_coarser_meter_widens_the_allowance_of_the_next_session() {
     fault.invoke_meter_edited("9".into());
     fault.invoke_pick_symptom(0);
     assert!(!fault.get_running());
-    assert_eq!(fault.get_error_field(), "meter tolerance");
+    assert_eq!(
+        fault.get_error_field(),
+        loopside::app::FormField::MeterTolerance
+    );
     assert!(
         fault.get_error_text().contains("5"),
         "{}",

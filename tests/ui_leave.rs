@@ -58,7 +58,7 @@ fn ticking_the_list_on_check_and_saving() {
     app.show_screen(Screen::Check);
     tap(&app, "I have read these; start");
     let check = app.window.global::<CheckAdapter>();
-    check.invoke_pick_stage(1);
+    check.invoke_pick_stage(loopside::app::CheckStage::AsLeft);
     for (i, ma) in TRUE_READINGS.iter().enumerate() {
         check.invoke_found_edited(i as i32, (*ma).into());
     }
@@ -156,7 +156,7 @@ fn the_app_and_the_command_line_record_the_same_shape() {
         app.show_screen(Screen::Check);
         let check = app.window.global::<CheckAdapter>();
         check.invoke_read_cautions();
-        check.invoke_pick_stage(1);
+        check.invoke_pick_stage(loopside::app::CheckStage::AsLeft);
         for (i, ma) in TRUE_READINGS.iter().enumerate() {
             check.invoke_found_edited(i as i32, (*ma).into());
         }

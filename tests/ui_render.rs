@@ -77,7 +77,7 @@ fn band_bar_marker_sits_where_the_reading_puts_it() {
     // narrower bands, so only in-range readings are checked against the green edges.
     for (ma, fraction_of_span) in [("6", 0.125), ("12", 0.5), ("18,5", 0.906_25)] {
         let mut state = AppState::demo();
-        state.ui.convert.source = "ma".to_string();
+        state.ui.convert.source = loopside::view::convert::Source::Ma;
         state.ui.convert.text = ma.to_string();
         let h = Headless::new(state).unwrap();
         h.show(Screen::Convert);

@@ -56,13 +56,18 @@ fn a_five_point_check_is_judged_and_saved_to_the_log() {
     let row = check.get_rows().row_data(2).unwrap();
     assert_eq!(row.apply, "2.2500 m", "50 % of 0–4.5 m");
     assert_eq!(row.expected, "12.000");
-    assert_eq!(row.kind, 3, "each point outside tolerance is marked");
+    assert_eq!(
+        row.tone,
+        loopside::app::Tone::Bad,
+        "each point outside tolerance is marked"
+    );
+    assert_eq!(row.verdict, "FAIL");
     check.set_initials_text("ef".into());
     check.invoke_save();
     assert_eq!(check.get_error_text(), "");
     assert!(check.get_message().starts_with("Saved the as found check"));
     // The form moves on to as-left with an empty table.
-    assert_eq!(check.get_stage(), 1);
+    assert_eq!(check.get_stage(), loopside::app::CheckStage::AsLeft);
     assert_eq!(check.get_rows().row_data(0).unwrap().found, "");
     let state = app.state.borrow();
     let saved = state.store.entries().last().unwrap();
@@ -96,7 +101,7 @@ fn a_new_tag_is_in_the_register_and_opens() {
     // The same number again is refused and names the field.
     tags.invoke_new_tag();
     tags.invoke_save(form);
-    assert_eq!(tags.get_error_field(), "tag");
+    assert_eq!(tags.get_error_field(), loopside::app::FormField::Tag);
     assert!(tags.get_error_text().contains("already in the register"));
 }
 

@@ -37,10 +37,10 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let Some(w) = weak.upgrade() else { return };
         {
             let mut s = st.borrow_mut();
-            let wanted = stage_of(stage).as_str();
+            let wanted = stage_of(stage);
             if s.ui.check.stage != wanted {
                 // A new stage is a new set of readings (as-left is read after the work).
-                s.ui.check.stage = wanted.to_string();
+                s.ui.check.stage = wanted;
                 s.ui.check.readings.clear();
             }
         }
@@ -108,17 +108,16 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     update(window, &state.borrow(), &rows);
 }
 
-fn stage_of(code: i32) -> Stage {
-    if code == 1 {
-        Stage::AsLeft
-    } else {
-        Stage::AsFound
+fn stage_of(picked: super::CheckStage) -> Stage {
+    match picked {
+        super::CheckStage::AsLeft => Stage::AsLeft,
+        super::CheckStage::AsFound => Stage::AsFound,
     }
 }
 
 /// The stage the saved form is at.
 fn stage(state: &AppState) -> Stage {
-    Stage::parse(&state.ui.check.stage).unwrap_or(Stage::AsFound)
+    state.ui.check.stage
 }
 
 /// Readings belong to one tag: when another tag is open, start a fresh check.
@@ -175,7 +174,7 @@ pub fn save(state: &mut AppState) -> Result<(CheckSaved, LeaveList), StoreError>
     let reference = state.ui.check.reference.clone();
     state.ui.check = super::state::CheckForm {
         tag,
-        stage: Stage::AsLeft.as_str().to_string(),
+        stage: Stage::AsLeft,
         readings: Vec::new(),
         reference,
         cautions_read: true,
@@ -203,7 +202,10 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     ));
     let form = &state.ui.check;
     a.set_cautions_read(form.cautions_read);
-    a.set_stage(if stage(state) == Stage::AsLeft { 1 } else { 0 });
+    a.set_stage(match stage(state) {
+        Stage::AsLeft => super::CheckStage::AsLeft,
+        Stage::AsFound => super::CheckStage::AsFound,
+    });
     a.set_reference_text(form.reference.clone().into());
     a.set_initials_text(state.ui.initials.clone().into());
     show_leave(window, state);
@@ -250,7 +252,8 @@ fn update(window: &AppWindow, state: &AppState, table: &VecModel<super::CheckRow
             expected: r.expected.clone().into(),
             found: readings.get(i).cloned().unwrap_or_default().into(),
             error: r.error.clone().into(),
-            kind: r.tone.code(),
+            tone: super::tone(r.tone),
+            verdict: r.verdict.clone().into(),
         };
         if i < table.row_count() {
             if table.row_data(i).as_ref() != Some(&row) {
@@ -296,6 +299,6 @@ fn update(window: &AppWindow, state: &AppState, table: &VecModel<super::CheckRow
     a.set_plot_description(format!("{}. {}", v.verdict.0, v.verdict.1).into());
     a.set_verdict_title(v.verdict.0.into());
     a.set_verdict_detail(v.verdict.1.into());
-    a.set_verdict_kind(v.verdict.2.code());
+    a.set_verdict_kind(super::tone(v.verdict.2));
     a.set_error_text(v.problem.into());
 }

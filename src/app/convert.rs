@@ -25,8 +25,8 @@ pub fn connect(window: &AppWindow, state: &Shared) {
                 "urv" => c.urv = text.to_string(),
                 "unit" => c.unit = text.to_string(),
                 other => {
-                    if Source::from_name(other).is_some() {
-                        c.source = other.to_string();
+                    if let Some(source) = Source::from_name(other) {
+                        c.source = source;
                         c.text = text.to_string();
                     }
                 }
@@ -58,7 +58,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     let st = state.clone();
     adapter.on_change_tag(move || {
         if let Some(w) = weak.upgrade() {
-            st.borrow_mut().ui.return_to = Some("convert".to_string());
+            st.borrow_mut().ui.return_to = Some(super::Screen::Convert);
             navigate(&w, &st, Screen::Tags, true);
         }
     });
@@ -96,7 +96,7 @@ pub fn update_calc(window: &AppWindow, state: &AppState, all: bool) {
     a.set_calc_unit(v.signal_unit.into());
     a.set_calc_tc(v.thermocouple);
     a.set_calc_note(v.note.into());
-    a.set_calc_error_field(v.error_field.into());
+    a.set_calc_error_field(super::form_field(&v.error_field));
     a.set_calc_error(v.error_text.into());
 }
 
@@ -170,8 +170,13 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
 fn update(window: &AppWindow, state: &AppState, all: bool) {
     let adapter = window.global::<ConvertAdapter>();
     let c = &state.ui.convert;
-    let source = Source::from_name(&c.source).unwrap_or(Source::Ma);
-    adapter.set_source(source.name().into());
+    let source = c.source;
+    adapter.set_source(match source {
+        Source::Ma => super::ConvertSource::Ma,
+        Source::Percent => super::ConvertSource::Percent,
+        Source::Value => super::ConvertSource::Value,
+        Source::Volts => super::ConvertSource::Volts,
+    });
     let result = scale_and_bands(state).and_then(|(scale, bands, title, detail)| {
         adapter.set_tag_title(title.into());
         adapter.set_tag_detail(detail.into());
@@ -196,7 +201,7 @@ fn update(window: &AppWindow, state: &AppState, all: bool) {
             if all {
                 set_source_text(&adapter, source, &c.text);
             }
-            adapter.set_error_field(e.field.clone().into());
+            adapter.set_error_field(super::form_field(&e.field));
             adapter.set_error_text(e.to_string().into());
         }
     }
@@ -236,11 +241,11 @@ pub fn map_convert(adapter: &ConvertAdapter, v: &ConvertView, source: Source, al
     adapter.set_value_unit(v.value_unit.clone().into());
     adapter.set_status_title(v.status_title.clone().into());
     adapter.set_status_detail(v.status_detail.clone().into());
-    adapter.set_status_kind(v.tone.code());
+    adapter.set_status_kind(super::tone(v.tone));
     adapter.set_notes(model(v.notes.iter().map(|n| n.into()).collect()));
     map_band_bar(adapter, &v.bar);
     adapter.set_bar_description(v.bar_description.clone().into());
-    adapter.set_error_field("".into());
+    adapter.set_error_field(super::FormField::None);
     adapter.set_error_text("".into());
 }
 
@@ -251,7 +256,7 @@ fn map_band_bar(adapter: &ConvertAdapter, bar: &BandBar) {
             .map(|b| super::BandSeg {
                 start: b.start as f32,
                 end: b.end as f32,
-                kind: b.kind(),
+                tone: super::tone(crate::view::convert::tone(b.status)),
             })
             .collect(),
     ));

@@ -366,12 +366,12 @@ fn after(window: &AppWindow, state: &Shared, result: Result<()>) {
     match result {
         Ok(()) => {
             a.set_error_text("".into());
-            a.set_error_field("".into());
+            a.set_error_field(super::FormField::None);
             a.set_message("".into());
             refresh(window, &state.borrow());
         }
         Err(e) => {
-            a.set_error_field(e.field.clone().into());
+            a.set_error_field(super::form_field(&e.field));
             a.set_error_text(e.to_string().into());
         }
     }
@@ -472,6 +472,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
         a.set_procedure_title("".into());
         a.set_steps(model(Vec::new()));
         a.set_step_number(0);
+        a.set_phase(super::FaultPhase::Idle);
         a.set_inputs(model(Vec::new()));
         a.set_findings(model(Vec::new()));
         a.set_conclusion_detail("".into());
@@ -491,7 +492,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
                 instruction: d.instruction.clone().into(),
                 measured: d.lines.join("\n").into(),
                 outcome: d.outcome.clone().into(),
-                kind: d.tone.code(),
+                kind: super::tone(d.tone),
                 fault: d.points_to_fault,
             })
             .collect(),
@@ -499,6 +500,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     match &v.current {
         Some(c) => {
             a.set_step_number(c.number as i32);
+            a.set_phase(super::FaultPhase::Asking);
             a.set_step_instruction(c.instruction.clone().into());
             a.set_step_cautions(model(
                 c.cautions.iter().map(|t| t.as_str().into()).collect(),
@@ -509,6 +511,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
         }
         None => {
             a.set_step_number(0);
+            a.set_phase(super::FaultPhase::Concluded);
             a.set_step_instruction("".into());
             a.set_step_cautions(model(Vec::new()));
             a.set_question("".into());
@@ -521,7 +524,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
             .iter()
             .map(|f| super::FaultFinding {
                 text: f.text.clone().into(),
-                kind: f.tone.code(),
+                kind: super::tone(f.tone),
             })
             .collect(),
     ));
@@ -529,7 +532,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
         Some(c) => {
             a.set_conclusion_title(c.title.clone().into());
             a.set_conclusion_detail(c.detail.clone().into());
-            a.set_conclusion_kind(c.tone.code());
+            a.set_conclusion_kind(super::tone(c.tone));
             a.set_conclusion_cautions(model(
                 c.cautions.iter().map(|t| t.as_str().into()).collect(),
             ));

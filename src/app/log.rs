@@ -250,6 +250,7 @@ pub fn map_entry(r: &Row) -> super::LogRow {
         title: r.title.clone().into(),
         text: r.text.clone().into(),
         who: r.who.clone().into(),
-        kind: r.kind.code(),
+        tone: super::tone(r.kind.tone()),
+        open: r.kind == crate::view::log::RowKind::OpenFollowUp,
     }
 }

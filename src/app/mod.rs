@@ -250,6 +250,81 @@ pub fn screen_name(screen: Screen) -> &'static str {
     }
 }
 
+/// The form field an error names, for the screen to outline (`FormField::None` for a
+/// name outside the table of fields, [`crate::form::Field`]).
+pub fn form_field(name: &str) -> FormField {
+    use crate::form::Field;
+    match Field::from_name(name) {
+        None => FormField::None,
+        Some(f) => match f {
+            Field::Tag => FormField::Tag,
+            Field::Service => FormField::Service,
+            Field::Area => FormField::Area,
+            Field::Lrv => FormField::Lrv,
+            Field::Urv => FormField::Urv,
+            Field::Range => FormField::Range,
+            Field::Unit => FormField::Unit,
+            Field::Transfer => FormField::Transfer,
+            Field::Cutoff => FormField::Cutoff,
+            Field::Table => FormField::Table,
+            Field::Signal => FormField::Signal,
+            Field::Tolerance => FormField::Tolerance,
+            Field::Supply => FormField::Supply,
+            Field::SupplySag => FormField::SupplySag,
+            Field::TxMin => FormField::TxMin,
+            Field::FaultCurrent => FormField::FaultCurrent,
+            Field::SeriesElement => FormField::SeriesElement,
+            Field::HartMax => FormField::HartMax,
+            Field::CableLength => FormField::CableLength,
+            Field::Conductor => FormField::Conductor,
+            Field::ConductorTemp => FormField::ConductorTemp,
+            Field::Sensor => FormField::Sensor,
+            Field::Wiring => FormField::Wiring,
+            Field::LeadOhms => FormField::LeadOhms,
+            Field::Ma => FormField::Ma,
+            Field::Percent => FormField::Percent,
+            Field::Value => FormField::Value,
+            Field::Volts => FormField::Volts,
+            Field::Ohms => FormField::Ohms,
+            Field::Temperature => FormField::Temperature,
+            Field::Millivolts => FormField::Millivolts,
+            Field::ColdJunction => FormField::ColdJunction,
+            Field::MeterTolerance => FormField::MeterTolerance,
+        },
+    }
+}
+
+/// A tone as the screens colour it.
+pub fn tone(t: crate::view::Tone) -> Tone {
+    use crate::view::Tone as T;
+    match t {
+        T::Neutral => Tone::Neutral,
+        T::Good => Tone::Good,
+        T::Caution => Tone::Caution,
+        T::Bad => Tone::Bad,
+        T::Outside => Tone::Outside,
+        T::Dead => Tone::Dead,
+    }
+}
+
+/// A budget bar slice's kind as the screens colour it.
+pub fn slice_kind(k: crate::view::power::SliceKind) -> SliceKind {
+    use crate::view::power::SliceKind as K;
+    match k {
+        K::Transmitter => SliceKind::Transmitter,
+        K::Resistance => SliceKind::Resistance,
+        K::Drop => SliceKind::Drop,
+        K::Cable => SliceKind::Cable,
+        K::Spare => SliceKind::Spare,
+        K::Shortfall => SliceKind::Shortfall,
+    }
+}
+
+/// The row of a form error for the screen (−1 when the error names no row).
+pub fn error_row(e: &crate::form::FormError) -> i32 {
+    e.row.and_then(|r| i32::try_from(r).ok()).unwrap_or(-1)
+}
+
 /// The screen for a saved name.
 pub fn screen_from_name(name: &str) -> Option<Screen> {
     SCREENS.into_iter().find(|s| screen_name(*s) == name)
@@ -306,7 +381,7 @@ pub fn navigate(window: &AppWindow, state: &Shared, screen: Screen, remember: bo
         if remember {
             s.history.push(current);
         }
-        s.ui.screen = screen_name(screen).to_string();
+        s.ui.screen = screen;
     }
     adapter.set_screen(screen);
 }
@@ -331,9 +406,7 @@ pub fn refresh_all(window: &AppWindow, state: &AppState) {
     adapter.set_has_notice(!state.notices.is_empty());
     adapter.set_notice(state.notices.join(" ").into());
     adapter.set_open_tag(state.ui.open_tag.clone().unwrap_or_default().into());
-    if let Some(screen) = screen_from_name(&state.ui.screen) {
-        adapter.set_screen(screen);
-    }
+    adapter.set_screen(state.ui.screen);
     tags::refresh(window, state);
     convert::refresh(window, state);
     power::refresh(window, state);

@@ -3,13 +3,13 @@
 
 use super::state::PowerForm;
 use super::{model, navigate, AppState, AppWindow, PowerAdapter, Screen, Shared};
-use crate::budget::{Cable, ElementKind, LoopConfig, SeriesElement, DEFAULT_FAULT_MA};
+use crate::budget::{ElementKind, LoopConfig, DEFAULT_FAULT_MA};
 use crate::display;
 use crate::error::{FieldError, Result};
-use crate::number::{parse_in, parse_number};
+use crate::form::loop_form::{ElementText, LoopForm};
+use crate::form::{Field, FormError};
 use crate::store::StoreError;
 use crate::view::power::{view, PowerView, Slice};
-use crate::wire::Conductor;
 use slint::ComponentHandle;
 
 /// Wire the adapter's callbacks.
@@ -111,7 +111,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     let st = state.clone();
     adapter.on_change_tag(move || {
         if let Some(w) = weak.upgrade() {
-            st.borrow_mut().ui.return_to = Some("power".to_string());
+            st.borrow_mut().ui.return_to = Some(Screen::Power);
             navigate(&w, &st, Screen::Tags, true);
         }
     });
@@ -192,68 +192,38 @@ pub fn keep_unshown(config: &mut LoopConfig, saved: Option<&LoopConfig>) {
     }
 }
 
-/// Read a conductor as typed: `1.0 mm²`, `1,5 mm2`, `18 AWG`, `AWG 18`, `2/0 awg`.
-pub fn parse_conductor(text: &str) -> Result<Conductor> {
-    let t = text.trim();
-    let lower = t.to_lowercase();
-    if lower.contains("awg") {
-        let bare = lower.replace("awg", "");
-        return Conductor::parse_awg(bare.trim()).map_err(|e| e.renamed("conductor"));
+/// The Power form as the loop form ([`crate::form::loop_form`]): the one parser the tag
+/// form and the command line's loop flags use too.
+pub fn loop_form(form: &PowerForm) -> LoopForm {
+    LoopForm {
+        supply: form.supply.clone(),
+        sag: form.tolerance.clone(),
+        tx_min: form.tx_min.clone(),
+        fault: form.fault.clone(),
+        elements: form
+            .elements
+            .iter()
+            .map(|(name, value, drop)| ElementText {
+                name: name.clone(),
+                value: value.clone(),
+                drop: *drop,
+            })
+            .collect(),
+        cable_m: form.cable_m.clone(),
+        conductor: form.cable_size.clone(),
+        ..Default::default()
     }
-    let bare = t.trim_end_matches("mm²").trim_end_matches("mm2").trim();
-    let area = parse_number("conductor", bare)?;
-    Conductor::mm2(area).map_err(|e| e.renamed("conductor"))
 }
 
-/// Build the loop from the form; the error names the first field that is wrong.
+/// Build the loop from the form; the error names the first field that is wrong (and the
+/// row of a series element).
+pub fn read_loop(form: &PowerForm) -> std::result::Result<LoopConfig, FormError> {
+    loop_form(form).parse()
+}
+
+/// Build the loop from the form, the error as the screens show it.
 pub fn config_from(form: &PowerForm) -> Result<LoopConfig> {
-    let supply = parse_in("supply", &form.supply, "V")?;
-    let tx_min = parse_in("transmitter minimum", &form.tx_min, "V")?;
-    let mut c = LoopConfig::new(supply, tx_min);
-    if !form.tolerance.trim().is_empty() {
-        c.supply_tolerance_percent =
-            parse_number("supply sag", form.tolerance.trim_end_matches('%'))?;
-    }
-    c.fault_ma = if form.fault.trim().is_empty() {
-        None
-    } else {
-        Some(parse_in("fault current", &form.fault, "mA")?)
-    };
-    for (i, (name, value, drop)) in form.elements.iter().enumerate() {
-        let field = if name.trim().is_empty() {
-            format!("element {}", i + 1)
-        } else {
-            name.trim().to_string()
-        };
-        c.elements.push(if *drop {
-            SeriesElement::drop(&field, parse_in(&field, value, "V")?)
-        } else {
-            SeriesElement::ohms(&field, parse_in(&field, value, "Ω")?)
-        });
-    }
-    if !form.cable_m.trim().is_empty() {
-        let one_way_m = parse_in("cable length", &form.cable_m, "m")?;
-        if form.cable_size.trim().is_empty() {
-            return Err(FieldError::new(
-                "conductor",
-                "is empty; type a size such as 1.0 mm² or 18 AWG",
-            ));
-        }
-        c.cable = Some(Cable {
-            one_way_m,
-            conductor: parse_conductor(&form.cable_size)?,
-            temp_c: 20.0,
-        });
-    }
-    c.validate().map_err(|e| match e.field.as_str() {
-        "supply_volts" => e.renamed("supply"),
-        "supply_tolerance_percent" => e.renamed("supply sag"),
-        "tx_min_volts" => e.renamed("transmitter minimum"),
-        "fault_ma" => e.renamed("fault current"),
-        "cable_m" => e.renamed("cable length"),
-        _ => e,
-    })?;
-    Ok(c)
+    read_loop(form).map_err(FieldError::from)
 }
 
 /// Fill the form from the open tag when the tag changed, then copy everything in.
@@ -316,10 +286,14 @@ fn update(window: &AppWindow, state: &AppState) {
     adapter.set_tag_detail(tag.map(|t| t.service.clone()).unwrap_or_default().into());
     adapter.set_can_save(tag.is_some());
     adapter.set_message("".into());
-    match config_from(&state.ui.power).and_then(|c| view(&c, state.ui.power.hart)) {
+    let worked = read_loop(&state.ui.power).and_then(|c| {
+        view(&c, state.ui.power.hart).map_err(|e| FormError::from_core(e, Field::Supply))
+    });
+    match worked {
         Ok(v) => map_power(&adapter, &v),
         Err(e) => {
-            adapter.set_error_field(e.field.clone().into());
+            adapter.set_error_field(super::form_field(e.field.name()));
+            adapter.set_error_row(super::error_row(&e));
             adapter.set_error_text(e.to_string().into());
         }
     }
@@ -332,7 +306,7 @@ fn map_slices(slices: &[Slice]) -> slint::ModelRc<super::BudgetSeg> {
             .map(|s| super::BudgetSeg {
                 start: s.start as f32,
                 width: s.width as f32,
-                kind: s.kind.code(),
+                kind: super::slice_kind(s.kind),
                 label: s.label.clone().into(),
             })
             .collect(),
@@ -353,7 +327,7 @@ pub fn map_power(adapter: &PowerAdapter, v: &PowerView) {
         v.legend
             .iter()
             .map(|l| super::LegendRow {
-                kind: l.kind.code(),
+                kind: super::slice_kind(l.kind),
                 name: l.name.clone().into(),
                 full: l.full.clone().into(),
                 fault: l.fault.clone().into(),
@@ -366,41 +340,34 @@ pub fn map_power(adapter: &PowerAdapter, v: &PowerView) {
             .map(|f| super::Figure {
                 label: f.label.clone().into(),
                 value: f.value.clone().into(),
-                kind: f.tone.code(),
+                kind: super::tone(f.tone),
             })
             .collect(),
     ));
     adapter.set_notes(model(v.notes.iter().map(|n| n.clone().into()).collect()));
     adapter.set_verdict_title(v.verdict_title.clone().into());
     adapter.set_verdict_detail(v.verdict_detail.clone().into());
-    adapter.set_verdict_kind(v.verdict_tone.code());
+    adapter.set_verdict_kind(super::tone(v.verdict_tone));
     match &v.hart {
         Some((title, detail, tone)) => {
             adapter.set_hart_title(title.clone().into());
             adapter.set_hart_detail(detail.clone().into());
-            adapter.set_hart_kind(tone.code());
+            adapter.set_hart_kind(super::tone(*tone));
         }
         None => {
             adapter.set_hart_title("".into());
             adapter.set_hart_detail("".into());
-            adapter.set_hart_kind(0);
+            adapter.set_hart_kind(super::Tone::Neutral);
         }
     }
-    adapter.set_error_field("".into());
+    adapter.set_error_field(super::FormField::None);
+    adapter.set_error_row(-1);
     adapter.set_error_text("".into());
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn conductors_as_typed() {
-        assert_eq!(parse_conductor("1,5 mm²").unwrap(), Conductor::Mm2(1.5));
-        assert_eq!(parse_conductor("18 AWG").unwrap(), Conductor::Awg(18));
-        assert_eq!(parse_conductor("AWG 2/0").unwrap(), Conductor::Awg(-1));
-        assert_eq!(parse_conductor("thick").unwrap_err().field, "conductor");
-    }
 
     #[test]
     fn form_round_trips_and_names_bad_fields() {
@@ -415,6 +382,8 @@ mod tests {
         assert_eq!(config_from(&bad).unwrap_err().field, "supply");
         let mut bad = form;
         bad.elements[0].1 = "-250".to_string();
-        assert_eq!(config_from(&bad).unwrap_err().field, "PLC input");
+        let e = read_loop(&bad).unwrap_err();
+        assert_eq!((e.field, e.row), (Field::SeriesElement, Some(0)));
+        assert!(e.reason.starts_with("PLC input:"), "{e}");
     }
 }

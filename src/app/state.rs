@@ -8,8 +8,10 @@
 //! folder, fsync, rename over the old file, fsync the folder), so a power cut leaves
 //! either the old state or the new one.
 
-use super::AppState;
+use super::{AppState, Screen};
+use crate::check::Stage;
 use crate::store::record::write_atomically;
+use crate::view::convert::Source;
 use serde::{Deserialize, Serialize};
 use std::fs;
 use std::path::Path;
@@ -21,8 +23,9 @@ pub const STATE_FILE: &str = "app-state.json";
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(default)]
 pub struct ConvertState {
-    /// Field typed into: `ma`, `percent`, `value`, `volts`.
-    pub source: String,
+    /// Field typed into (saved as `ma`, `percent`, `value`, `volts`).
+    #[serde(with = "source_by_name")]
+    pub source: Source,
     /// Its text as typed.
     pub text: String,
     /// The resistor for volts, as typed.
@@ -48,7 +51,7 @@ pub struct ConvertState {
 impl Default for ConvertState {
     fn default() -> Self {
         ConvertState {
-            source: "ma".to_string(),
+            source: Source::Ma,
             text: "12".to_string(),
             ohms: "250".to_string(),
             typed_range: false,
@@ -105,8 +108,10 @@ pub struct TagDraft {
     pub urv: String,
     /// Engineering unit.
     pub unit: String,
-    /// Transfer, in words.
+    /// Transfer picked, in the picker's words (older drafts: typed words, cutoff included).
     pub transfer: String,
+    /// The square root's cutoff, % of flow, as typed.
+    pub cutoff: String,
     /// Check tolerance, ± % of span.
     pub tolerance: String,
     /// The loop, in the same fields as on Power.
@@ -119,8 +124,9 @@ pub struct TagDraft {
 pub struct CheckForm {
     /// The tag the readings belong to (readings of another tag are not restored).
     pub tag: String,
-    /// `as-found` or `as-left`.
-    pub stage: String,
+    /// As found or as left (saved as `as-found` / `as-left`).
+    #[serde(deserialize_with = "stage_from_saved")]
+    pub stage: Stage,
     /// Readings as typed, one per test point (empty: not read yet).
     pub readings: Vec<String>,
     /// The reference instrument, as typed.
@@ -135,7 +141,7 @@ impl Default for CheckForm {
     fn default() -> Self {
         CheckForm {
             tag: String::new(),
-            stage: "as-found".to_string(),
+            stage: Stage::AsFound,
             readings: Vec::new(),
             reference: String::new(),
             cautions_read: false,
@@ -148,8 +154,9 @@ impl Default for CheckForm {
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(default)]
 pub struct UiState {
-    /// Screen name (`convert`, …).
-    pub screen: String,
+    /// The screen shown (saved by its name: `convert`, …).
+    #[serde(with = "screen_by_name")]
+    pub screen: Screen,
     /// The open tag's number.
     pub open_tag: Option<String>,
     /// Dark theme.
@@ -171,7 +178,8 @@ pub struct UiState {
     /// `2026-11-30 06:00`; empty: the whole log).
     pub log_since: String,
     /// The screen to return to after a tag is picked.
-    pub return_to: Option<String>,
+    #[serde(with = "screen_by_name::optional")]
+    pub return_to: Option<Screen>,
     /// The technician's initials, kept for the next note or check.
     pub initials: String,
     /// Check screen.
@@ -191,7 +199,7 @@ pub struct UiState {
 impl Default for UiState {
     fn default() -> Self {
         UiState {
-            screen: "convert".to_string(),
+            screen: Screen::Convert,
             open_tag: None,
             dark: false,
             convert: ConvertState::default(),
@@ -211,6 +219,85 @@ impl Default for UiState {
             log_note: String::new(),
         }
     }
+}
+
+/// A value saved as a name by older and newer versions alike, read leniently: a name this
+/// version does not know (written by a newer one) falls back to the default rather than
+/// making the whole saved state unreadable.
+fn name_or_number<'de, D: serde::Deserializer<'de>>(d: D) -> Result<serde_json::Value, D::Error> {
+    serde_json::Value::deserialize(d)
+}
+
+/// The screen saved by its stable name ([`super::screen_name`]); an unknown name, or the
+/// screen's place in the navigation as a number, is also read.
+mod screen_by_name {
+    use super::super::{screen_from_name, screen_name, Screen, SCREENS};
+    use serde::{Deserializer, Serializer};
+
+    /// The screen from a saved name or number (Convert when unknown).
+    pub fn from_value(v: &serde_json::Value) -> Option<Screen> {
+        match v {
+            serde_json::Value::String(name) => {
+                Some(screen_from_name(name).unwrap_or(Screen::Convert))
+            }
+            serde_json::Value::Number(n) => Some(
+                n.as_u64()
+                    .and_then(|i| SCREENS.get(usize::try_from(i).ok()?).copied())
+                    .unwrap_or(Screen::Convert),
+            ),
+            _ => None,
+        }
+    }
+
+    pub fn serialize<S: Serializer>(screen: &Screen, s: S) -> Result<S::Ok, S::Error> {
+        s.serialize_str(screen_name(*screen))
+    }
+
+    pub fn deserialize<'de, D: Deserializer<'de>>(d: D) -> Result<Screen, D::Error> {
+        Ok(from_value(&super::name_or_number(d)?).unwrap_or(Screen::Convert))
+    }
+
+    /// The same for an optional screen (`null` or absent: none).
+    pub mod optional {
+        use super::super::super::{screen_name, Screen};
+        use serde::{Deserializer, Serializer};
+
+        pub fn serialize<S: Serializer>(screen: &Option<Screen>, s: S) -> Result<S::Ok, S::Error> {
+            match screen {
+                Some(screen) => s.serialize_some(screen_name(*screen)),
+                None => s.serialize_none(),
+            }
+        }
+
+        pub fn deserialize<'de, D: Deserializer<'de>>(d: D) -> Result<Option<Screen>, D::Error> {
+            Ok(super::from_value(&super::super::name_or_number(d)?))
+        }
+    }
+}
+
+/// Convert's source field saved by name (`ma`, `percent`, `value`, `volts`).
+mod source_by_name {
+    use super::Source;
+    use serde::{Deserializer, Serializer};
+
+    pub fn serialize<S: Serializer>(source: &Source, s: S) -> Result<S::Ok, S::Error> {
+        s.serialize_str(source.name())
+    }
+
+    pub fn deserialize<'de, D: Deserializer<'de>>(d: D) -> Result<Source, D::Error> {
+        let v = super::name_or_number(d)?;
+        Ok(v.as_str().and_then(Source::from_name).unwrap_or(Source::Ma))
+    }
+}
+
+/// The check stage as saved: `as-found` / `as-left` (also `found`, `left`, or 0 / 1 as the
+/// Check screen numbered them); anything else is as found.
+fn stage_from_saved<'de, D: serde::Deserializer<'de>>(d: D) -> Result<Stage, D::Error> {
+    Ok(match name_or_number(d)? {
+        serde_json::Value::String(s) => Stage::parse(&s).unwrap_or(Stage::AsFound),
+        serde_json::Value::Number(n) if n.as_u64() == Some(1) => Stage::AsLeft,
+        _ => Stage::AsFound,
+    })
 }
 
 /// What is written to disk. (Files written before the store existed also hold the
@@ -328,11 +415,40 @@ mod tests {
         let dir = std::env::temp_dir().join(format!("loopside-state-{}", std::process::id()));
         let mut state = AppState::demo();
         state.ui.convert.text = "12,5".to_string();
-        state.ui.screen = "power".to_string();
+        state.ui.screen = Screen::Power;
+        state.ui.return_to = Some(Screen::Check);
+        state.ui.check.stage = Stage::AsLeft;
+        state.ui.convert.source = Source::Volts;
         save(&dir, &Saved::from_state(&state)).unwrap();
         let back = load(&dir).unwrap().unwrap();
         assert_eq!(back.ui, state.ui);
         fs::remove_dir_all(&dir).unwrap();
         assert!(load(&dir).unwrap().is_none());
+    }
+
+    #[test]
+    fn a_state_saved_by_an_older_version_still_reads() {
+        // Screen, return screen, stage and source were plain strings (and the stage a
+        // number on the Check screen); a newer version may save a screen this one lacks.
+        let old = r#"{"ui": {"screen": "check", "return_to": "power",
+            "convert": {"source": "percent", "text": "50"},
+            "check": {"tag": "LT-101", "stage": "as-left"}}}"#;
+        let saved: Saved = serde_json::from_str(old).unwrap();
+        assert_eq!(saved.ui.screen, Screen::Check);
+        assert_eq!(saved.ui.return_to, Some(Screen::Power));
+        assert_eq!(saved.ui.convert.source, Source::Percent);
+        assert_eq!(saved.ui.check.stage, Stage::AsLeft);
+        let odd = r#"{"ui": {"screen": "tank-farm", "return_to": null,
+            "convert": {"source": "kelvin"}, "check": {"stage": 1}}}"#;
+        let saved: Saved = serde_json::from_str(odd).unwrap();
+        assert_eq!(saved.ui.screen, Screen::Convert);
+        assert_eq!(saved.ui.return_to, None);
+        assert_eq!(saved.ui.convert.source, Source::Ma);
+        assert_eq!(saved.ui.check.stage, Stage::AsLeft);
+        // And what this version writes is the same names.
+        let json = serde_json::to_value(&saved).unwrap();
+        assert_eq!(json["ui"]["screen"], "convert");
+        assert_eq!(json["ui"]["check"]["stage"], "as-left");
+        assert_eq!(json["ui"]["convert"]["source"], "ma");
     }
 }

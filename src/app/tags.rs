@@ -8,10 +8,13 @@ use super::{
 use crate::budget::LoopConfig;
 use crate::display;
 use crate::error::{FieldError, Result};
+use crate::form::range::{
+    choice_from_words, cutoff_text, Bounds, CutoffOf, RangeForm, TransferChoice,
+};
+use crate::form::{Field, FormError};
 use crate::journal::{Entry, TagId};
 use crate::number::parse_number;
-use crate::scale::Scale;
-use crate::scale::{RootLocation, Transfer};
+use crate::scale::Transfer;
 use crate::store::StoreError;
 use crate::tag::{clean_number, Tag};
 use slint::ComponentHandle;
@@ -48,8 +51,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         a.set_form(empty_form());
         a.set_is_new(true);
         a.set_editing(true);
-        a.set_error_field("".into());
-        a.set_error_text("".into());
+        clear_error(&a);
     });
     let weak = window.as_weak();
     let st = state.clone();
@@ -60,8 +62,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
             a.set_form(form_of(tag));
             a.set_is_new(false);
             a.set_editing(true);
-            a.set_error_field("".into());
-            a.set_error_text("".into());
+            clear_error(&a);
         }
     });
     let weak = window.as_weak();
@@ -98,6 +99,15 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         })
     });
     let weak = window.as_weak();
+    adapter.on_pick_transfer(move |i| {
+        let Some(w) = weak.upgrade() else { return };
+        let a = w.global::<TagsAdapter>();
+        let mut form = a.get_form();
+        form.transfer = TransferChoice::from_index(i).index();
+        form.cutoff_shown = cutoff_shown(form.transfer);
+        a.set_form(form);
+    });
+    let weak = window.as_weak();
     let st = state.clone();
     adapter.on_cancel(move || {
         if let Some(w) = weak.upgrade() {
@@ -123,11 +133,29 @@ pub fn connect(window: &AppWindow, state: &Shared) {
                     StoreError::Input(f) => (f.field.clone(), f.to_string()),
                     other => (String::new(), other.to_string()),
                 };
-                a.set_error_field(field.into());
+                // The series element a loop error names, read again from the form.
+                let row = read_loop(&form).err().map_or(-1, |e| super::error_row(&e));
+                a.set_error_field(super::form_field(&field));
+                a.set_error_row(row);
                 a.set_error_text(text.into());
             }
         }
     });
+}
+
+/// No error shown on the form.
+fn clear_error(a: &TagsAdapter) {
+    a.set_error_field(super::FormField::None);
+    a.set_error_row(-1);
+    a.set_error_text("".into());
+}
+
+/// The cutoff field is shown for a square root only.
+fn cutoff_shown(transfer: i32) -> bool {
+    matches!(
+        TransferChoice::from_index(transfer),
+        TransferChoice::RootInReceiver | TransferChoice::RootInTransmitter
+    )
 }
 
 /// Change the form's series elements: read the form back (with what is typed in its other
@@ -184,7 +212,7 @@ pub fn open(window: &AppWindow, state: &Shared, number: &str) {
         s.ui.return_to.take()
     };
     refresh_all(window, &state.borrow());
-    if let Some(screen) = return_to.as_deref().and_then(screen_from_name) {
+    if let Some(screen) = return_to {
         navigate(window, state, screen, false);
         state.borrow_mut().history.pop();
     }
@@ -202,7 +230,7 @@ pub fn empty_form() -> super::TagForm {
             lrv: "0".into(),
             urv: "100".into(),
             unit: "%".into(),
-            transfer: "linear".into(),
+            transfer: TransferChoice::Linear.index(),
             tolerance: display::fixed(crate::tag::DEFAULT_TOLERANCE_PERCENT, 2).into(),
             ..Default::default()
         },
@@ -214,7 +242,7 @@ pub fn empty_form() -> super::TagForm {
 
 /// The form filled from a tag.
 pub fn form_of(tag: &Tag) -> super::TagForm {
-    let transfer = transfer_text(&tag.scale.transfer);
+    let transfer = TransferChoice::of(&tag.scale.transfer).index();
     let mut loop_part = match &tag.loop_config {
         Some(c) => super::power::form_from(&tag.number, c),
         None => PowerForm::default(),
@@ -228,7 +256,9 @@ pub fn form_of(tag: &Tag) -> super::TagForm {
             lrv: crate::display::trimmed(tag.scale.lrv).into(),
             urv: crate::display::trimmed(tag.scale.urv).into(),
             unit: tag.scale.unit.clone().into(),
-            transfer: transfer.into(),
+            transfer,
+            cutoff: cutoff_text(&tag.scale.transfer).into(),
+            cutoff_shown: cutoff_shown(transfer),
             tolerance: crate::display::trimmed(tag.tolerance_percent).into(),
             ..Default::default()
         },
@@ -246,7 +276,8 @@ pub fn draft_of(f: &super::TagForm, is_new: bool) -> TagDraft {
         lrv: f.lrv.to_string(),
         urv: f.urv.to_string(),
         unit: f.unit.to_string(),
-        transfer: f.transfer.to_string(),
+        transfer: TransferChoice::from_index(f.transfer).label().to_string(),
+        cutoff: f.cutoff.to_string(),
         tolerance: f.tolerance.to_string(),
         loop_form: loop_form_of(f),
     }
@@ -254,6 +285,13 @@ pub fn draft_of(f: &super::TagForm, is_new: bool) -> TagDraft {
 
 /// The form as it was typed before the app closed.
 pub fn form_of_draft(d: &TagDraft) -> super::TagForm {
+    // A draft from before the picker has the transfer in words, cutoff included.
+    let (choice, cutoff_in_words) = choice_from_words(&d.transfer);
+    let cutoff = if d.cutoff.trim().is_empty() {
+        cutoff_in_words
+    } else {
+        d.cutoff.clone()
+    };
     with_loop(
         super::TagForm {
             number: d.number.clone().into(),
@@ -262,7 +300,9 @@ pub fn form_of_draft(d: &TagDraft) -> super::TagForm {
             lrv: d.lrv.clone().into(),
             urv: d.urv.clone().into(),
             unit: d.unit.clone().into(),
-            transfer: d.transfer.clone().into(),
+            transfer: choice.index(),
+            cutoff: cutoff.into(),
+            cutoff_shown: cutoff_shown(choice.index()),
             tolerance: d.tolerance.clone().into(),
             ..Default::default()
         },
@@ -309,124 +349,46 @@ pub fn loop_form_of(f: &super::TagForm) -> PowerForm {
     }
 }
 
-/// The transfer as the form shows it; [`transfer_from_text`] reads it back.
-pub fn transfer_text(t: &Transfer) -> String {
-    match t {
-        Transfer::Linear => "linear".to_string(),
-        Transfer::SquareRoot {
-            cutoff_percent,
-            root_in,
-        } => format!(
-            "square root in the {}, cutoff {}",
-            match root_in {
-                RootLocation::Transmitter => "transmitter",
-                RootLocation::Receiver => "receiver",
-            },
-            crate::view::cutoff(*cutoff_percent)
-        ),
-        Transfer::Table(table) => format!("table → {}", table.output_unit()),
+/// The form's range and transfer as the range form ([`crate::form::range`]); the signal
+/// span, which the form does not show, is the tag's own.
+pub fn range_form_of(f: &super::TagForm, base: Option<&Tag>) -> RangeForm {
+    RangeForm {
+        bounds: Bounds::Apart {
+            lrv: f.lrv.to_string(),
+            urv: f.urv.to_string(),
+        },
+        unit: f.unit.to_string(),
+        transfer: TransferChoice::from_index(f.transfer),
+        cutoff: f.cutoff.to_string(),
+        cutoff_of: CutoffOf::Flow,
+        signal: base
+            .map(|b| format!("{}..{}", b.scale.signal.low_ma, b.scale.signal.high_ma))
+            .unwrap_or_default(),
+        ..Default::default()
     }
 }
 
-/// Read the transfer typed on the form: `linear`; `square root` (or `sqrt`) with an
-/// optional cutoff in % of flow and where the root is taken (`in the transmitter`, else the
-/// receiver, as most flow loops do); a `table` is kept as it is (tables come in through
-/// the command line or a bundle).
-pub fn transfer_from_text(text: &str, base: Option<&Transfer>) -> Result<Transfer> {
-    let t = text.trim().to_lowercase();
-    if t.is_empty() || t == "linear" {
-        return Ok(Transfer::Linear);
-    }
-    if t.starts_with("table") {
-        return match base {
-            Some(Transfer::Table(table)) => Ok(Transfer::Table(table.clone())),
-            _ => Err(FieldError::new(
-                "transfer",
-                "a characterisation table is entered with `loopside tag edit NUMBER --table IN:OUT;…`; here type linear or square root",
-            )),
-        };
-    }
-    if t.contains("root") || t.contains("sqrt") {
-        let base_root = match base {
-            Some(Transfer::SquareRoot {
-                cutoff_percent,
-                root_in,
-            }) => Some((*cutoff_percent, *root_in)),
-            _ => None,
-        };
-        // The first number is the cutoff: in % of flow, or in % of DP when the words after
-        // it say so before any other number (`cutoff 0,01 % of DP`).
-        let words: Vec<&str> = t.split_whitespace().collect();
-        let first = words
-            .iter()
-            .position(|w| w.starts_with(|c: char| c.is_ascii_digit()));
-        let cutoff_percent = match first {
-            Some(i) => {
-                let n = parse_number(
-                    "transfer cutoff",
-                    words[i].trim_end_matches([',', ';', '%']),
-                )?;
-                let of_dp = words[i + 1..]
-                    .iter()
-                    .take_while(|w| !w.starts_with(|c: char| c.is_ascii_digit() || c == '('))
-                    .any(|w| w.trim_matches(|c: char| !c.is_alphanumeric()) == "dp");
-                if of_dp {
-                    crate::scale::cutoff_flow_percent(n)
-                } else {
-                    n
-                }
-            }
-            None => base_root.map(|b| b.0).unwrap_or(0.0),
-        };
-        let root_in = if t.contains("transmitter") {
-            RootLocation::Transmitter
-        } else if t.contains("receiver") {
-            RootLocation::Receiver
-        } else {
-            base_root.map(|b| b.1).unwrap_or(RootLocation::Receiver)
-        };
-        return Ok(Transfer::SquareRoot {
-            cutoff_percent,
-            root_in,
-        });
-    }
-    Err(FieldError::new(
-        "transfer",
-        format!(
-            "'{}' is not a transfer; type linear, or square root with its cutoff (square root, cutoff 1 %)",
-            text.trim()
-        ),
-    ))
+/// The form's loop, read by the loop form.
+fn read_loop(f: &super::TagForm) -> std::result::Result<crate::budget::LoopConfig, FormError> {
+    super::power::read_loop(&loop_form_of(f))
 }
 
 /// Build a tag from the form, keeping what the form does not show from `base`.
 pub fn tag_from_form(form: &super::TagForm, base: Option<&Tag>) -> Result<Tag> {
     let number = clean_number(&form.number)?;
-    let lrv = parse_number("LRV", &form.lrv)?;
-    let urv = parse_number("URV", &form.urv)?;
+    let kept_table = match base.map(|b| &b.scale.transfer) {
+        Some(Transfer::Table(t)) => Some(t),
+        _ => None,
+    };
+    let scale = range_form_of(form, base).parse(kept_table)?;
     let mut tag = match base {
         Some(b) => {
             let mut t = b.clone();
             t.number = number;
-            t.scale = Scale::new(
-                lrv,
-                urv,
-                &form.unit,
-                transfer_from_text(&form.transfer, Some(&b.scale.transfer))?,
-                b.scale.signal,
-            )?;
+            t.scale = scale;
             t
         }
-        None => Tag::new(
-            &number,
-            Scale::new(
-                lrv,
-                urv,
-                &form.unit,
-                transfer_from_text(&form.transfer, None)?,
-                Default::default(),
-            )?,
-        )?,
+        None => Tag::new(&number, scale)?,
     };
     tag.service = form.service.trim().to_string();
     tag.area = form.area.trim().to_string();
@@ -438,15 +400,12 @@ pub fn tag_from_form(form: &super::TagForm, base: Option<&Tag>) -> Result<Tag> {
     tag.loop_config = if unknown && !described {
         None
     } else {
-        let mut config = super::power::config_from(&lf)?;
+        let mut config = read_loop(form)?;
         super::power::keep_unshown(&mut config, base.and_then(|b| b.loop_config.as_ref()));
         Some(config)
     };
-    tag.validate().map_err(|e| match e.field.as_str() {
-        "supply_volts" => e.renamed("supply"),
-        "tx_min_volts" => e.renamed("transmitter minimum"),
-        _ => e,
-    })?;
+    tag.validate()
+        .map_err(|e| FieldError::from(FormError::from_core(e, Field::Tag)))?;
     Ok(tag)
 }
 
@@ -461,6 +420,12 @@ pub fn matches(tag: &Tag, search: &str) -> bool {
 
 /// Copy the (filtered) register and the open tag's sheet into the adapter.
 pub fn refresh(window: &AppWindow, state: &AppState) {
+    window.global::<TagsAdapter>().set_transfer_options(model(
+        TransferChoice::ALL
+            .iter()
+            .map(|c| c.label().into())
+            .collect(),
+    ));
     window.global::<TagsAdapter>().set_fault_placeholder(
         format!(
             "{} (default)",
@@ -507,7 +472,7 @@ fn map_sheet(adapter: &TagsAdapter, state: &AppState) {
                     when: r.when.clone().into(),
                     title: r.title.clone().into(),
                     text: r.text.clone().into(),
-                    kind: r.kind.code(),
+                    open: r.kind == crate::view::log::RowKind::OpenFollowUp,
                 })
                 .collect(),
         )
@@ -649,12 +614,15 @@ mod tests {
         f.elements =
             super::super::power::element_rows(&[("Card input".into(), "250".into(), false)]);
         assert_eq!(tag_from_form(&f, None).unwrap_err().field, "supply");
-        // A bad element value names the element.
+        // A bad element value is a series-element error naming the element, on its row.
         f.supply = "24".into();
         f.tx_min = "12".into();
         f.elements =
             super::super::power::element_rows(&[("Card input".into(), "lots".into(), false)]);
-        assert_eq!(tag_from_form(&f, None).unwrap_err().field, "Card input");
+        let e = tag_from_form(&f, None).unwrap_err();
+        assert_eq!(e.field, "series element");
+        assert!(e.reason.starts_with("Card input:"), "{e}");
+        assert_eq!(read_loop(&f).unwrap_err().row, Some(0));
         // A bad supply sag is not taken for the check tolerance.
         f.elements = Default::default();
         f.sag = "-3".into();
@@ -662,57 +630,50 @@ mod tests {
     }
 
     #[test]
-    fn the_transfer_is_typed_in_words() {
+    fn the_transfer_is_picked_and_the_cutoff_typed() {
+        // FT-311: a DP flow loop, root in the receiver, cutoff 1,5 % of flow.
+        let mut f = form("FT-311", "0");
+        f.transfer = TransferChoice::RootInReceiver.index();
+        f.cutoff = "1,5".into();
+        let tag = tag_from_form(&f, None).unwrap();
         assert_eq!(
-            transfer_from_text(" Linear ", None).unwrap(),
-            Transfer::Linear
-        );
-        let sqrt = transfer_from_text("square root, cutoff 1,5 %", None).unwrap();
-        assert_eq!(
-            sqrt,
+            tag.scale.transfer,
             Transfer::SquareRoot {
                 cutoff_percent: 1.5,
-                root_in: RootLocation::Receiver
+                root_in: crate::scale::RootLocation::Receiver
             }
         );
-        // A cutoff typed in % of DP is kept in % of flow: flow ∝ √ΔP (ISO 5167 relation),
-        // so 0.01 % of DP is 1 % of flow and 1 % of DP is 10 % of flow.
-        for (typed, flow) in [
-            ("square root, cutoff 0,01 % of DP", 1.0),
-            ("sqrt cutoff 1 % dp", 10.0),
-        ] {
-            match transfer_from_text(typed, None).unwrap() {
-                Transfer::SquareRoot { cutoff_percent, .. } => {
-                    assert!((cutoff_percent - flow).abs() < 1e-9, "{typed}")
-                }
-                other => panic!("{typed} gave {other:?}"),
-            }
-        }
-        // What the form shows reads back as the same transfer.
-        let in_tx = Transfer::SquareRoot {
-            cutoff_percent: 0.8,
-            root_in: RootLocation::Transmitter,
-        };
-        assert_eq!(
-            transfer_from_text(&transfer_text(&in_tx), None).unwrap(),
-            in_tx
-        );
-        assert_eq!(
-            transfer_from_text("cubic", None).unwrap_err().field,
-            "transfer"
-        );
-        assert_eq!(
-            transfer_from_text("table", None).unwrap_err().field,
-            "transfer"
-        );
-        // A square-root tag typed onto the form becomes one.
-        let mut f = form("FT-311", "0");
-        f.transfer = "sqrt 2 %".into();
-        let tag = tag_from_form(&f, None).unwrap();
-        assert!(matches!(
-            tag.scale.transfer,
-            Transfer::SquareRoot { cutoff_percent, .. } if cutoff_percent == 2.0
-        ));
+        // The form filled from the tag shows the same choice and cutoff.
+        let back = form_of(&tag);
+        assert_eq!(back.transfer, f.transfer);
+        assert_eq!(back.cutoff, "1.5");
+        assert!(back.cutoff_shown);
+        assert!(!form_of(&tag_from_form(&form("LT-1", "0"), None).unwrap()).cutoff_shown);
+        // A cutoff outside 0–100 % names the cutoff field.
+        f.cutoff = "120".into();
+        assert_eq!(tag_from_form(&f, None).unwrap_err().field, "cutoff");
+        // A table is kept from the tag when picked on the form; a new tag cannot pick one
+        // without its pairs.
+        f.transfer = TransferChoice::Table.index();
+        assert_eq!(tag_from_form(&f, None).unwrap_err().field, "table");
+    }
+
+    #[test]
+    fn a_draft_typed_before_the_picker_still_opens() {
+        // app-state.json written when Transfer was typed in words.
+        let draft: TagDraft = serde_json::from_str(
+            r#"{"is_new": true, "number": "FT-312", "lrv": "0", "urv": "300", "unit": "m3/h",
+                "transfer": "square root in the transmitter, cutoff 0,01 % of DP",
+                "tolerance": "0.5"}"#,
+        )
+        .unwrap();
+        let f = form_of_draft(&draft);
+        assert_eq!(f.transfer, TransferChoice::RootInTransmitter.index());
+        // 0.01 % of DP is 1 % of flow (flow ∝ √ΔP, ISO 5167 relation).
+        assert_eq!(f.cutoff, "1");
+        // And the draft as now written reads back the same.
+        let again = form_of_draft(&draft_of(&f, true));
+        assert_eq!((again.transfer, again.cutoff), (f.transfer, f.cutoff));
     }
 
     #[test]

@@ -1,11 +1,15 @@
 //! Calculator subcommands: convert, budget, wire, units, status, resistor.
 
 use super::{print_json, print_lines, CliError, CliResult};
-use crate::budget::{Cable, LoopConfig, SeriesElement};
+use crate::budget::LoopConfig;
 use crate::display;
 use crate::error::FieldError;
+use crate::form::conductor::parse_conductor;
+use crate::form::loop_form::{ElementText, LoopForm};
+use crate::form::range::{Bounds, CutoffOf, RangeForm, TransferChoice};
+use crate::form::FormError;
 use crate::number::{parse_in, parse_number, parse_range};
-use crate::scale::{CharTable, RootLocation, Scale, SignalSpan, TablePoint, Transfer};
+use crate::scale::{Scale, SignalSpan, Transfer};
 use crate::signal::{classify, BandLimits};
 use crate::units;
 use crate::wire::Conductor;
@@ -69,69 +73,43 @@ pub struct RangeArgs {
 }
 
 impl RangeArgs {
+    /// The flags as the range form ([`crate::form::range`]): the one parser the tag form
+    /// on the screen uses too.
+    pub fn form(&self) -> RangeForm {
+        let transfer = if self.sqrt {
+            match self.root_in.as_deref() {
+                Some("transmitter") => TransferChoice::RootInTransmitter,
+                _ => TransferChoice::RootInReceiver,
+            }
+        } else if self.table.is_some() {
+            TransferChoice::Table
+        } else {
+            TransferChoice::Linear
+        };
+        RangeForm {
+            bounds: Bounds::Together(self.range.clone()),
+            unit: self.unit.clone(),
+            transfer,
+            cutoff: self
+                .cutoff
+                .clone()
+                .or_else(|| self.cutoff_dp.clone())
+                .unwrap_or_default(),
+            cutoff_of: if self.cutoff.is_none() && self.cutoff_dp.is_some() {
+                CutoffOf::Dp
+            } else {
+                CutoffOf::Flow
+            },
+            table: self.table.clone().unwrap_or_default(),
+            table_unit: self.table_unit.clone().unwrap_or_default(),
+            signal: self.signal.clone().unwrap_or_default(),
+        }
+    }
+
     /// Build the core scale from the flags.
     pub fn scale(&self) -> Result<Scale, FieldError> {
-        let (lrv, urv) = parse_range("range", &self.range)?;
-        let signal = match &self.signal {
-            Some(text) => {
-                let (lo, hi) = parse_range("signal", text)?;
-                SignalSpan::new(lo, hi)?
-            }
-            None => SignalSpan::default(),
-        };
-        let transfer = if self.sqrt {
-            let cutoff_percent = match (&self.cutoff, &self.cutoff_dp) {
-                (Some(t), _) => parse_in("cutoff", t, "%")?,
-                (None, Some(t)) => {
-                    let dp = crate::error::within(
-                        "cutoff-dp",
-                        parse_in("cutoff-dp", t, "%")?,
-                        0.0,
-                        100.0,
-                    )?;
-                    crate::scale::cutoff_flow_percent(dp)
-                }
-                (None, None) => 0.0,
-            };
-            let root_in = match self.root_in.as_deref() {
-                Some("transmitter") => RootLocation::Transmitter,
-                _ => RootLocation::Receiver,
-            };
-            Transfer::SquareRoot {
-                cutoff_percent,
-                root_in,
-            }
-        } else if let Some(text) = &self.table {
-            Transfer::Table(parse_table(text, self.table_unit.as_deref().unwrap_or(""))?)
-        } else {
-            Transfer::Linear
-        };
-        Scale::new(lrv, urv, &self.unit, transfer, signal)
+        self.form().parse(None).map_err(FormError::on_command_line)
     }
-}
-
-/// Parse `IN:OUT` pairs separated by `;` (or `,` when no `;` is present).
-pub fn parse_table(text: &str, output_unit: &str) -> Result<CharTable, FieldError> {
-    let rows: Vec<&str> = if text.contains(';') {
-        text.split(';').collect()
-    } else {
-        text.split(',').collect()
-    };
-    let mut points = Vec::new();
-    for (i, row) in rows.iter().enumerate() {
-        let field = format!("table[{}]", i + 1);
-        let Some((a, b)) = row.split_once(':') else {
-            return Err(FieldError::new(
-                field,
-                format!("'{}' is not an IN:OUT pair", row.trim()),
-            ));
-        };
-        points.push(TablePoint {
-            input: parse_number(&field, a)?,
-            output: parse_number(&field, b)?,
-        });
-    }
-    CharTable::new(points, output_unit)
 }
 
 /// `loopside convert`
@@ -338,14 +316,6 @@ pub(crate) struct LoopArgs {
     hart_max_ohms: Option<String>,
 }
 
-/// Split `NAME=VALUE` (or just `VALUE`) into a name and the number text.
-fn named<'a>(text: &'a str, default_name: &str, index: usize) -> (String, &'a str) {
-    match text.split_once('=') {
-        Some((name, value)) if !name.trim().is_empty() => (name.trim().to_string(), value),
-        _ => (format!("{default_name} {index}"), text),
-    }
-}
-
 /// The conductor size flags, `--awg` or `--mm2` (shared by `budget`, `wire`, `rtd` and
 /// `tag add/edit`).
 #[derive(Debug, Clone, Default, Args)]
@@ -369,16 +339,23 @@ impl ConductorArgs {
         self.awg.is_none() && self.mm2.is_none()
     }
 
+    /// The size as the conductor form reads it (`AWG 18`, `1,5 mm²`), empty when none.
+    pub(crate) fn text(&self) -> String {
+        match (&self.awg, &self.mm2) {
+            (Some(a), _) => format!("AWG {}", a.trim()),
+            (None, Some(m)) => m.trim().to_string(),
+            (None, None) => String::new(),
+        }
+    }
+
     /// The conductor, if a size was given.
     pub(crate) fn conductor(&self) -> Result<Option<Conductor>, FieldError> {
-        match (&self.awg, &self.mm2) {
-            (Some(a), _) => Conductor::parse_awg(a).map(Some),
-            (None, Some(m)) => {
-                let bare = m.trim().trim_end_matches("mm²").trim_end_matches("mm2");
-                Conductor::mm2(parse_number("mm2", bare)?).map(Some)
-            }
-            (None, None) => Ok(None),
+        if self.is_empty() {
+            return Ok(None);
         }
+        parse_conductor(&self.text())
+            .map(Some)
+            .map_err(FormError::on_command_line)
     }
 }
 
@@ -397,83 +374,36 @@ impl LoopArgs {
             && self.hart_max_ohms.is_none()
     }
 
+    /// The flags as the loop form ([`crate::form::loop_form`]), the one parser the Power
+    /// screen and the tag form use too.
+    pub(crate) fn form(&self) -> LoopForm {
+        let text = |t: &Option<String>| t.clone().unwrap_or_default();
+        let loads = self
+            .load
+            .iter()
+            .enumerate()
+            .map(|(i, t)| ElementText::from_flag(t, false, i + 1));
+        let drops = self
+            .drops
+            .iter()
+            .enumerate()
+            .map(|(i, t)| ElementText::from_flag(t, true, i + 1));
+        LoopForm {
+            supply: text(&self.supply),
+            sag: text(&self.supply_tolerance),
+            tx_min: text(&self.min_volts),
+            fault: text(&self.fault_ma),
+            elements: loads.chain(drops).collect(),
+            cable_m: text(&self.cable_m),
+            conductor: self.conductor.text(),
+            temp_c: text(&self.temp_c),
+            hart_max: text(&self.hart_max_ohms),
+        }
+    }
+
     /// Build the loop from the flags; `--supply` and `--min-volts` are required.
     pub(crate) fn loop_config(&self) -> Result<LoopConfig, FieldError> {
-        let supply = self.supply.as_deref().ok_or_else(|| {
-            FieldError::new("supply", "give the nominal loop supply with --supply V")
-        })?;
-        let min_volts = self.min_volts.as_deref().ok_or_else(|| {
-            FieldError::new(
-                "min-volts",
-                "give the transmitter minimum terminal voltage with --min-volts V",
-            )
-        })?;
-        let supply = parse_in("supply", supply, "V")?;
-        let min_volts = parse_in("min-volts", min_volts, "V")?;
-        let mut config = LoopConfig::new(supply, min_volts);
-        if let Some(t) = &self.supply_tolerance {
-            config.supply_tolerance_percent = parse_in("supply-tolerance", t, "%")?;
-        }
-        if let Some(t) = &self.fault_ma {
-            config.fault_ma = Some(parse_in("fault-ma", t, "mA")?);
-        }
-        if let Some(t) = &self.hart_max_ohms {
-            config.hart_window_ohms.1 = parse_in("hart-max-ohms", t, "Ω")?;
-        }
-        for (i, text) in self.load.iter().enumerate() {
-            let (name, value) = named(text, "load", i + 1);
-            let ohms = parse_in("load", value, "Ω")?;
-            if ohms < 0.0 {
-                return Err(FieldError::new(
-                    "load",
-                    format!("{name}: ohms must be 0 or more, got {ohms}"),
-                ));
-            }
-            config.elements.push(SeriesElement::ohms(&name, ohms));
-        }
-        for (i, text) in self.drops.iter().enumerate() {
-            let (name, value) = named(text, "drop", i + 1);
-            let volts = parse_in("drop", value, "V")?;
-            if volts < 0.0 {
-                return Err(FieldError::new(
-                    "drop",
-                    format!("{name}: volts must be 0 or more, got {volts}"),
-                ));
-            }
-            config.elements.push(SeriesElement::drop(&name, volts));
-        }
-        let conductor = self.conductor.conductor()?;
-        let temp_c = match &self.temp_c {
-            Some(t) => parse_in("temp-c", t, "°C")?,
-            None => 20.0,
-        };
-        match (conductor, &self.cable_m) {
-            (Some(conductor), length) => {
-                let one_way_m = match length {
-                    Some(t) => parse_in("cable-m", t, "m")?,
-                    None => 0.0,
-                };
-                if one_way_m < 0.0 {
-                    return Err(FieldError::new(
-                        "cable-m",
-                        format!("must be 0 or more, got {one_way_m}"),
-                    ));
-                }
-                config.cable = Some(Cable {
-                    one_way_m,
-                    conductor,
-                    temp_c,
-                });
-            }
-            (None, Some(_)) => {
-                return Err(FieldError::new(
-                    "cable-m",
-                    "give the conductor size with --awg or --mm2",
-                ))
-            }
-            (None, None) => {}
-        }
-        Ok(config)
+        self.form().parse().map_err(FormError::on_command_line)
     }
 }
 

@@ -269,22 +269,26 @@ pub struct EditRangeArgs {
 }
 
 impl EditRangeArgs {
-    /// The new range, if one was given, as the same flags `tag add` takes.
-    fn range_args(&self, current_unit: &str) -> Option<RangeArgs> {
+    /// The new range, if one was given, as the same flags `tag add` takes (so it is read
+    /// by the same range form); the unit and the signal span not given are the tag's own,
+    /// as on the tag form.
+    fn range_args(&self, current: &crate::scale::Scale) -> Option<RangeArgs> {
         let range = self.range.clone()?;
         Some(RangeArgs {
             range,
-            unit: self
-                .unit
-                .clone()
-                .unwrap_or_else(|| current_unit.to_string()),
+            unit: self.unit.clone().unwrap_or_else(|| current.unit.clone()),
             sqrt: self.sqrt,
             cutoff: self.cutoff.clone(),
             cutoff_dp: self.cutoff_dp.clone(),
             root_in: self.root_in.clone(),
             table: self.table.clone(),
             table_unit: self.table_unit.clone(),
-            signal: self.signal.clone(),
+            signal: self.signal.clone().or_else(|| {
+                Some(format!(
+                    "{}..{}",
+                    current.signal.low_ma, current.signal.high_ma
+                ))
+            }),
         })
     }
 }
@@ -354,7 +358,7 @@ pub(super) fn tag(args: TagArgs, out: &mut dyn Write) -> CliResult {
                 .map_err(store_error)?
                 .tag
                 .clone();
-            if let Some(r) = a.range.range_args(&tag.scale.unit) {
+            if let Some(r) = a.range.range_args(&tag.scale) {
                 tag.scale = r.scale()?;
             }
             a.describe.apply(&mut tag)?;

@@ -19,20 +19,6 @@ pub struct BandSeg {
     pub status: SignalStatus,
 }
 
-impl BandSeg {
-    /// The colour class the UI uses: 0 no current, 1 failure, 2 suspect, 3 measurement
-    /// outside the span, 4 within the span.
-    pub fn kind(&self) -> i32 {
-        match self.status {
-            SignalStatus::NoLoopCurrent => 0,
-            SignalStatus::FailLow | SignalStatus::FailHigh => 1,
-            SignalStatus::SuspectLow | SignalStatus::SuspectHigh => 2,
-            SignalStatus::UnderRange | SignalStatus::OverRange => 3,
-            SignalStatus::InRange => 4,
-        }
-    }
-}
-
 /// A tick under the bar: position (0..1) and label (empty for an unlabelled tick).
 #[derive(Debug, Clone, PartialEq)]
 pub struct Tick {

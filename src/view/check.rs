@@ -29,6 +29,8 @@ pub struct Row {
     pub error: String,
     /// How it stands (neutral when not read).
     pub tone: Tone,
+    /// The point's verdict in words: `pass`, `FAIL`, or empty when not judged.
+    pub verdict: String,
     /// Error in % of span, if read.
     pub error_percent: Option<f64>,
 }
@@ -185,6 +187,7 @@ pub fn view(tag: &Tag, stage: Stage, readings: &[String], date: NaiveDate) -> Ch
             expected: display::fixed(p.expected, 3),
             error: String::new(),
             tone: Tone::Neutral,
+            verdict: String::new(),
             error_percent: None,
         };
         match r {
@@ -192,6 +195,7 @@ pub fn view(tag: &Tag, stage: Stage, readings: &[String], date: NaiveDate) -> Ch
                 if let Some(pr) = run.as_ref().ok().and_then(|res| res.points.get(i)) {
                     row.error = display::percent(pr.error_pct);
                     row.tone = if pr.pass { Tone::Good } else { Tone::Bad };
+                    row.verdict = if pr.pass { "pass" } else { "FAIL" }.to_string();
                     row.error_percent = Some(pr.error_pct);
                     worst = worst.max(pr.error_pct.abs());
                 }
@@ -296,6 +300,8 @@ mod tests {
         assert_eq!(v.rows[5].point, "75 % ↓");
         assert_eq!(v.rows[0].error, "0.50 %");
         assert_eq!(v.rows[0].tone, Tone::Good);
+        assert_eq!(v.rows[0].verdict, "pass");
+        assert_eq!(v.rows[4].verdict, "");
         assert_eq!(v.rows[2].error, "0.00 %");
         assert_eq!(v.rows[4].tone, Tone::Caution);
         assert!(v.problem.contains("reading at 100 %"), "{}", v.problem);

@@ -29,18 +29,6 @@ pub enum RowKind {
 }
 
 impl RowKind {
-    /// The number the Log screen's colour key uses.
-    pub fn code(self) -> i32 {
-        match self {
-            RowKind::Note => 0,
-            RowKind::OpenFollowUp => 1,
-            RowKind::DoneFollowUp => 2,
-            RowKind::CheckPassed => 3,
-            RowKind::CheckFailed => 4,
-            RowKind::Fault => 5,
-        }
-    }
-
     /// How the kind stands, for colour (always shown with the title in words).
     pub fn tone(self) -> Tone {
         match self {

@@ -62,20 +62,6 @@ pub enum Tone {
     Dead,
 }
 
-impl Tone {
-    /// The number the UI's colour tables use (`StatusColors.of` in `ui/widgets/card.slint`).
-    pub fn code(self) -> i32 {
-        match self {
-            Tone::Neutral => 0,
-            Tone::Good => 1,
-            Tone::Caution => 2,
-            Tone::Bad => 3,
-            Tone::Outside => 4,
-            Tone::Dead => 5,
-        }
-    }
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -40,20 +40,6 @@ pub enum SliceKind {
     Shortfall,
 }
 
-impl SliceKind {
-    /// The number the UI's colour table uses (`BudgetColors.of`).
-    pub fn code(self) -> i32 {
-        match self {
-            SliceKind::Transmitter => 0,
-            SliceKind::Resistance => 1,
-            SliceKind::Drop => 2,
-            SliceKind::Cable => 3,
-            SliceKind::Spare => 4,
-            SliceKind::Shortfall => 5,
-        }
-    }
-}
-
 /// One line of the legend: the slice's kind and name, its volts at 20 mA and at the fault.
 #[derive(Debug, Clone, PartialEq)]
 pub struct LegendLine {

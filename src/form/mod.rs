@@ -1,0 +1,18 @@
+//! Forms: one text → domain parser per form, called by the command line and by the app
+//! alike, so a value typed on the ladder and the same value given as a flag at the desk
+//! give the same loop, the same scale and the same error.
+//!
+//! - [`range`] — LRV, URV, unit, signal span and transfer;
+//! - [`loop_form`] — supply, sag, transmitter minimum, fault current, series elements, cable;
+//! - [`conductor`] — conductor size and temperature;
+//! - [`field`] — the one table of field names every form error uses.
+//!
+//! Each parser returns a [`FormError`] naming a [`Field`]; the screens show its name, the
+//! command line adds the flag ([`FormError::on_command_line`]).
+
+pub mod conductor;
+pub mod field;
+pub mod loop_form;
+pub mod range;
+
+pub use field::{Field, FormError};

@@ -1,0 +1,414 @@
+//! The range form: LRV, URV, unit, signal span and transfer (linear, square root with its
+//! cutoff and where the root is taken, or a characterisation table), as typed on the tag
+//! form or given with the command line's range flags.
+
+use super::{Field, FormError};
+use crate::error::within;
+use crate::number::{parse_in, parse_number, parse_range};
+use crate::scale::{CharTable, RootLocation, Scale, SignalSpan, TablePoint, Transfer};
+
+/// The transfers a technician picks from (the screens' transfer picker lists these).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum TransferChoice {
+    /// The value is linear in current.
+    #[default]
+    Linear,
+    /// DP flow with the root taken in the receiver (the current is linear in ΔP).
+    RootInReceiver,
+    /// DP flow with the root taken in the transmitter (the current is linear in flow).
+    RootInTransmitter,
+    /// Through a characterisation table.
+    Table,
+}
+
+impl TransferChoice {
+    /// Every choice, in the picker's order.
+    pub const ALL: [TransferChoice; 4] = [
+        TransferChoice::Linear,
+        TransferChoice::RootInReceiver,
+        TransferChoice::RootInTransmitter,
+        TransferChoice::Table,
+    ];
+
+    /// The words the picker shows.
+    pub fn label(self) -> &'static str {
+        match self {
+            TransferChoice::Linear => "linear",
+            TransferChoice::RootInReceiver => "square root in the receiver",
+            TransferChoice::RootInTransmitter => "square root in the transmitter",
+            TransferChoice::Table => "characterisation table",
+        }
+    }
+
+    /// The choice a transfer was made from.
+    pub fn of(t: &Transfer) -> TransferChoice {
+        match t {
+            Transfer::Linear => TransferChoice::Linear,
+            Transfer::SquareRoot {
+                root_in: RootLocation::Receiver,
+                ..
+            } => TransferChoice::RootInReceiver,
+            Transfer::SquareRoot {
+                root_in: RootLocation::Transmitter,
+                ..
+            } => TransferChoice::RootInTransmitter,
+            Transfer::Table(_) => TransferChoice::Table,
+        }
+    }
+
+    /// The choice at `index` in [`TransferChoice::ALL`] (linear for anything else).
+    pub fn from_index(index: i32) -> TransferChoice {
+        usize::try_from(index)
+            .ok()
+            .and_then(|i| TransferChoice::ALL.get(i).copied())
+            .unwrap_or_default()
+    }
+
+    /// This choice's place in [`TransferChoice::ALL`].
+    pub fn index(self) -> i32 {
+        TransferChoice::ALL
+            .iter()
+            .position(|c| *c == self)
+            .map_or(0, |i| i as i32)
+    }
+}
+
+/// What a typed square-root cutoff is a percentage of.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum CutoffOf {
+    /// % of flow span (what the tag keeps).
+    #[default]
+    Flow,
+    /// % of DP span: 0.01 % of DP is 1 % of flow (flow ∝ √ΔP, ISO 5167).
+    Dp,
+}
+
+/// LRV and URV, typed apart (the tag form) or together as `LRV..URV` (the command line).
+#[derive(Debug, Clone, PartialEq)]
+pub enum Bounds {
+    /// `LRV..URV` in one text.
+    Together(String),
+    /// LRV and URV in two texts.
+    Apart {
+        /// The value at the low end of the signal.
+        lrv: String,
+        /// The value at the high end of the signal.
+        urv: String,
+    },
+}
+
+impl Default for Bounds {
+    fn default() -> Self {
+        Bounds::Apart {
+            lrv: String::new(),
+            urv: String::new(),
+        }
+    }
+}
+
+/// A range and its transfer as typed.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct RangeForm {
+    /// LRV and URV (LRV above URV for a reversed range: `250..0`).
+    pub bounds: Bounds,
+    /// The engineering unit (`bar`, `m³/h`, or free text such as `pH`).
+    pub unit: String,
+    /// The transfer picked.
+    pub transfer: TransferChoice,
+    /// A square root's low-flow cutoff, % (empty is 0, no cutoff).
+    pub cutoff: String,
+    /// What the cutoff is a percentage of.
+    pub cutoff_of: CutoffOf,
+    /// A table's `IN:OUT` pairs (`0:0; 1:5,1; 2:12`); empty keeps the table given to
+    /// [`RangeForm::parse`].
+    pub table: String,
+    /// The unit of the table's output (`m³`).
+    pub table_unit: String,
+    /// The signal span in mA, `LOW..HIGH` (empty is 4..20).
+    pub signal: String,
+}
+
+impl RangeForm {
+    /// Build the scale; `kept_table` is the tag's table as saved, used when the table is
+    /// picked but no pairs were typed (the screens do not retype a table).
+    pub fn parse(&self, kept_table: Option<&CharTable>) -> Result<Scale, FormError> {
+        let (lrv, urv) = match &self.bounds {
+            Bounds::Together(text) => {
+                parse_range(Field::Range.name(), text).map_err(FormError::at(Field::Range))?
+            }
+            Bounds::Apart { lrv, urv } => (
+                parse_number(Field::Lrv.name(), lrv).map_err(FormError::at(Field::Lrv))?,
+                parse_number(Field::Urv.name(), urv).map_err(FormError::at(Field::Urv))?,
+            ),
+        };
+        let signal = if self.signal.trim().is_empty() {
+            SignalSpan::default()
+        } else {
+            let (lo, hi) = parse_range(Field::Signal.name(), &self.signal)
+                .map_err(FormError::at(Field::Signal))?;
+            SignalSpan::new(lo, hi).map_err(FormError::at(Field::Signal))?
+        };
+        let transfer = match self.transfer {
+            TransferChoice::Linear => Transfer::Linear,
+            TransferChoice::RootInReceiver | TransferChoice::RootInTransmitter => {
+                Transfer::SquareRoot {
+                    cutoff_percent: self.cutoff_flow_percent()?,
+                    root_in: if self.transfer == TransferChoice::RootInTransmitter {
+                        RootLocation::Transmitter
+                    } else {
+                        RootLocation::Receiver
+                    },
+                }
+            }
+            TransferChoice::Table => Transfer::Table(if self.table.trim().is_empty() {
+                kept_table.cloned().ok_or_else(|| {
+                    FormError::new(
+                        Field::Table,
+                        "is empty; give the table as IN:OUT pairs (loopside tag edit NUMBER --table \"0:0;1:5,1\")",
+                    )
+                })?
+            } else {
+                parse_table(&self.table, &self.table_unit)?
+            }),
+        };
+        Scale::new(lrv, urv, &self.unit, transfer, signal)
+            .map_err(|e| FormError::from_core(e, Field::Range))
+    }
+
+    /// The cutoff in % of flow, 0–100.
+    fn cutoff_flow_percent(&self) -> Result<f64, FormError> {
+        if self.cutoff.trim().is_empty() {
+            return Ok(0.0);
+        }
+        // The words `of DP` (`0,01 % of DP`) say the cutoff is a % of DP, as the flag
+        // --cutoff-dp does; `of flow` is the default made explicit.
+        let lower = self.cutoff.to_lowercase();
+        let (number, of) = match lower.find("of") {
+            Some(i) if lower[i..].contains("dp") => (&self.cutoff[..i], CutoffOf::Dp),
+            Some(i) if lower[i..].contains("flow") => (&self.cutoff[..i], CutoffOf::Flow),
+            _ => (self.cutoff.as_str(), self.cutoff_of),
+        };
+        let typed = parse_in(Field::Cutoff.name(), number, "%")
+            .and_then(|v| within(Field::Cutoff.name(), v, 0.0, 100.0))
+            .map_err(FormError::at(Field::Cutoff))?;
+        Ok(match of {
+            CutoffOf::Flow => typed,
+            CutoffOf::Dp => crate::scale::cutoff_flow_percent(typed),
+        })
+    }
+}
+
+/// Read `IN:OUT` pairs separated by `;` (or `,` when no `;` is present).
+pub fn parse_table(text: &str, output_unit: &str) -> Result<CharTable, FormError> {
+    let rows: Vec<&str> = if text.contains(';') {
+        text.split(';').collect()
+    } else {
+        text.split(',').collect()
+    };
+    let mut points = Vec::new();
+    for (i, row) in rows.iter().enumerate() {
+        let row_error = |reason: String| FormError {
+            field: Field::Table,
+            row: Some(i),
+            reason: format!("row {}: {reason}", i + 1),
+        };
+        let Some((a, b)) = row.split_once(':') else {
+            return Err(row_error(format!("'{}' is not an IN:OUT pair", row.trim())));
+        };
+        let number =
+            |t: &str| parse_number(Field::Table.name(), t).map_err(|e| row_error(e.reason));
+        points.push(TablePoint {
+            input: number(a)?,
+            output: number(b)?,
+        });
+    }
+    CharTable::new(points, output_unit).map_err(FormError::at(Field::Table))
+}
+
+/// The cutoff as the form's number field shows it, % of flow (empty for none).
+pub fn cutoff_text(t: &Transfer) -> String {
+    match t {
+        Transfer::SquareRoot { cutoff_percent, .. } if *cutoff_percent > 0.0 => {
+            crate::display::trimmed(*cutoff_percent)
+        }
+        _ => String::new(),
+    }
+}
+
+/// Read a transfer written in words, as the tag form took it before it had a picker
+/// (`linear`, `square root in the transmitter, cutoff 1 %`, `sqrt 0,01 % of DP`): kept so
+/// a form left open in an older version still opens. Gives the choice and the cutoff in %
+/// of flow as the number field shows it.
+pub fn choice_from_words(text: &str) -> (TransferChoice, String) {
+    let t = text.trim().to_lowercase();
+    if t.starts_with("table") || t.starts_with("characterisation") {
+        return (TransferChoice::Table, String::new());
+    }
+    if !(t.contains("root") || t.contains("sqrt")) {
+        return (TransferChoice::Linear, String::new());
+    }
+    let choice = if t.contains("transmitter") {
+        TransferChoice::RootInTransmitter
+    } else {
+        TransferChoice::RootInReceiver
+    };
+    let words: Vec<&str> = t.split_whitespace().collect();
+    let first = words
+        .iter()
+        .position(|w| w.starts_with(|c: char| c.is_ascii_digit()));
+    let cutoff = first
+        .and_then(|i| {
+            let n = parse_number("cutoff", words[i].trim_end_matches([',', ';', '%'])).ok()?;
+            let of_dp = words[i + 1..]
+                .iter()
+                .take_while(|w| !w.starts_with(|c: char| c.is_ascii_digit() || c == '('))
+                .any(|w| w.trim_matches(|c: char| !c.is_alphanumeric()) == "dp");
+            Some(crate::display::trimmed(if of_dp {
+                crate::scale::cutoff_flow_percent(n)
+            } else {
+                n
+            }))
+        })
+        .unwrap_or_default();
+    (choice, cutoff)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn flow() -> RangeForm {
+        // FT-310: 0–3000 m³/h on a DP cell, root in the receiver, 1 % of flow cutoff.
+        RangeForm {
+            bounds: Bounds::Together("0..3000".into()),
+            unit: "m3/h".into(),
+            transfer: TransferChoice::RootInReceiver,
+            cutoff: "1".into(),
+            ..Default::default()
+        }
+    }
+
+    #[test]
+    fn a_flow_range_as_typed() {
+        let s = flow().parse(None).unwrap();
+        assert_eq!((s.lrv, s.urv, s.unit.as_str()), (0.0, 3000.0, "m³/h"));
+        assert_eq!(
+            s.transfer,
+            Transfer::SquareRoot {
+                cutoff_percent: 1.0,
+                root_in: RootLocation::Receiver
+            }
+        );
+        // 0.01 % of DP is 1 % of flow: flow ∝ √ΔP (ISO 5167 relation).
+        let mut f = flow();
+        f.cutoff = "0,01".into();
+        f.cutoff_of = CutoffOf::Dp;
+        let mut typed = flow();
+        typed.cutoff = "0,01 % of DP".into();
+        for form in [f, typed] {
+            match form.parse(None).unwrap().transfer {
+                Transfer::SquareRoot { cutoff_percent, .. } => {
+                    assert!((cutoff_percent - 1.0).abs() < 1e-9, "{form:?}")
+                }
+                other => panic!("{other:?}"),
+            }
+        }
+    }
+
+    #[test]
+    fn a_reversed_range_typed_apart() {
+        let f = RangeForm {
+            bounds: Bounds::Apart {
+                lrv: "250".into(),
+                urv: "0".into(),
+            },
+            unit: "mbar".into(),
+            signal: "0..20".into(),
+            ..Default::default()
+        };
+        let s = f.parse(None).unwrap();
+        assert!(s.is_reversed());
+        assert_eq!(s.signal.low_ma, 0.0);
+    }
+
+    #[test]
+    fn a_table_is_typed_or_kept() {
+        let mut f = RangeForm {
+            bounds: Bounds::Together("0..2".into()),
+            unit: "m".into(),
+            transfer: TransferChoice::Table,
+            table: "0:0; 1:5,1; 2:12".into(),
+            table_unit: "m³".into(),
+            ..Default::default()
+        };
+        let s = f.parse(None).unwrap();
+        let Transfer::Table(table) = &s.transfer else {
+            panic!("{:?}", s.transfer)
+        };
+        f.table = String::new();
+        assert_eq!(f.parse(Some(table)).unwrap().transfer, s.transfer);
+        assert_eq!(f.parse(None).unwrap_err().field, Field::Table);
+        f.table = "0:0; 1".into();
+        let e = f.parse(None).unwrap_err();
+        assert_eq!((e.field, e.row), (Field::Table, Some(1)));
+    }
+
+    #[test]
+    fn each_bad_field_is_named() {
+        type Spoil = fn(&mut RangeForm);
+        let cases: [(Spoil, Field); 7] = [
+            (|f| f.bounds = Bounds::Together("0-10".into()), Field::Range),
+            (|f| f.bounds = Bounds::Together("5..5".into()), Field::Range),
+            (
+                |f| {
+                    f.bounds = Bounds::Apart {
+                        lrv: "low".into(),
+                        urv: "1".into(),
+                    }
+                },
+                Field::Lrv,
+            ),
+            (
+                |f| {
+                    f.bounds = Bounds::Apart {
+                        lrv: "0".into(),
+                        urv: "x".into(),
+                    }
+                },
+                Field::Urv,
+            ),
+            (|f| f.cutoff = "150".into(), Field::Cutoff),
+            (|f| f.signal = "20..4".into(), Field::Signal),
+            (|f| f.signal = "4-20".into(), Field::Signal),
+        ];
+        for (spoil, field) in cases {
+            let mut f = flow();
+            spoil(&mut f);
+            assert_eq!(f.parse(None).unwrap_err().field, field, "{f:?}");
+        }
+    }
+
+    #[test]
+    fn old_transfer_words_still_open() {
+        assert_eq!(
+            choice_from_words(" Linear "),
+            (TransferChoice::Linear, String::new())
+        );
+        assert_eq!(
+            choice_from_words(
+                "square root in the transmitter, cutoff 0.8 % of flow (0.0064 % of DP)"
+            ),
+            (TransferChoice::RootInTransmitter, "0.8".to_string())
+        );
+        // 1 % of DP is 10 % of flow (ISO 5167 relation).
+        assert_eq!(
+            choice_from_words("sqrt cutoff 1 % dp"),
+            (TransferChoice::RootInReceiver, "10".to_string())
+        );
+        assert_eq!(choice_from_words("table → m³").0, TransferChoice::Table);
+        for c in TransferChoice::ALL {
+            assert_eq!(TransferChoice::from_index(c.index()), c);
+            assert_eq!(choice_from_words(c.label()).0, c);
+        }
+    }
+}
