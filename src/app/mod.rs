@@ -459,7 +459,9 @@ pub fn collect(window: &AppWindow, state: &mut AppState) {
     let log = window.global::<LogAdapter>();
     state.ui.log_note = log.get_note_text().to_string();
     let check = window.global::<CheckAdapter>();
-    state.ui.check.reference = check.get_reference_text().to_string();
+    state.ui.check.reference_id = check.get_reference_id().to_string();
+    state.ui.check.reference_accuracy = check.get_reference_accuracy().to_string();
+    state.ui.check.reference_due = check.get_reference_due().to_string();
     // Initials are typed on Log and on Check; the one that was changed is the one kept.
     let on_check = check.get_initials_text().to_string();
     let on_log = log.get_initials_text().to_string();

@@ -123,8 +123,14 @@ pub struct CheckForm {
     pub stage: String,
     /// Readings as typed, one per test point (empty: not read yet).
     pub readings: Vec<String>,
-    /// The reference instrument, as typed.
-    pub reference: String,
+    /// The reference instrument's id, as typed (`reference` in states saved before the
+    /// three fields, when it was one line of free text).
+    #[serde(alias = "reference")]
+    pub reference_id: String,
+    /// Its accuracy, as typed.
+    pub reference_accuracy: String,
+    /// Its calibration due date, as typed.
+    pub reference_due: String,
     /// The cautions were read for this check.
     pub cautions_read: bool,
     /// Ids of the before-you-leave items ticked so far (`crate::leave`).
@@ -137,7 +143,9 @@ impl Default for CheckForm {
             tag: String::new(),
             stage: "as-found".to_string(),
             readings: Vec::new(),
-            reference: String::new(),
+            reference_id: String::new(),
+            reference_accuracy: String::new(),
+            reference_due: String::new(),
             cautions_read: false,
             leave_ticked: Vec::new(),
         }

@@ -12,6 +12,7 @@ pub mod fault;
 pub mod leave;
 pub mod log;
 pub mod power;
+pub mod reference;
 pub mod sensor_calc;
 pub mod tag_sheet;
 
