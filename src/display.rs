@@ -76,6 +76,22 @@ pub fn cutoff(flow_percent: f64) -> String {
     )
 }
 
+/// A plain-number answer to `digits` significant figures, trailing zeros dropped (unit
+/// conversions: `36.25939`, `-0.192175`, `0`).
+pub fn significant(value: f64, digits: i32) -> String {
+    if value == 0.0 || !value.is_finite() {
+        return fixed(value, 0);
+    }
+    let magnitude = value.abs().log10().floor() as i32;
+    let decimals = (digits - 1 - magnitude).clamp(0, 12) as usize;
+    let s = fixed(value, decimals);
+    if s.contains('.') {
+        s.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        s
+    }
+}
+
 /// A number with a fixed count of decimals, never showing `-0.00`.
 pub fn fixed(value: f64, decimals: usize) -> String {
     let s = format!("{value:.decimals$}");

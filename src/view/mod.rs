@@ -15,6 +15,7 @@ pub mod power;
 pub mod reference;
 pub mod sensor_calc;
 pub mod tag_sheet;
+pub mod units;
 
 use crate::display;
 use crate::scale::Scale;
