@@ -10,6 +10,7 @@ pub mod check;
 pub mod convert;
 pub mod fault;
 pub mod leave;
+pub mod level;
 pub mod log;
 pub mod power;
 pub mod reference;
