@@ -138,12 +138,16 @@ fn show_reference(window: &AppWindow, state: &AppState) {
         a.set_reference_tur("".into());
         a.set_reference_warnings(model(Vec::new()));
         a.set_reference_problem("".into());
+        a.set_has_reference_problem(false);
+        a.set_has_reference_tur(false);
         return;
     };
     let v = reference::view(
         &check_for(tag, stage(state), state.now().date_naive()),
         reference_text(&state.ui.check),
     );
+    a.set_has_reference_tur(!v.tur_text.is_empty());
+    a.set_has_reference_problem(!v.problem.is_empty());
     a.set_reference_tur(v.tur_text.into());
     a.set_reference_warnings(model(v.warnings.into_iter().map(Into::into).collect()));
     a.set_reference_problem(v.problem.into());

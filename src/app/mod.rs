@@ -17,11 +17,13 @@ pub mod about;
 pub mod check;
 pub mod convert;
 pub mod fault;
+pub mod level;
 pub mod log;
 pub mod power;
 pub mod render;
 pub mod state;
 pub mod tags;
+pub mod units;
 
 use crate::journal::TagId;
 use crate::store::{FileStore, MemoryStore, Store, StoreError, TagRecord};
@@ -176,6 +178,8 @@ impl App {
         power::connect(&window, &state);
         fault::connect(&window, &state);
         check::connect(&window, &state);
+        units::connect(&window, &state);
+        level::connect(&window, &state);
         log::connect(&window, &state);
         about::connect(&window, &state);
         refresh_all(&window, &state.borrow());
@@ -227,9 +231,11 @@ impl App {
 }
 
 /// Every screen, in navigation order.
-pub const SCREENS: [Screen; 7] = [
+pub const SCREENS: [Screen; 9] = [
     Screen::Tags,
     Screen::Convert,
+    Screen::Units,
+    Screen::Level,
     Screen::Power,
     Screen::Fault,
     Screen::Check,
@@ -242,6 +248,8 @@ pub fn screen_name(screen: Screen) -> &'static str {
     match screen {
         Screen::Tags => "tags",
         Screen::Convert => "convert",
+        Screen::Units => "units",
+        Screen::Level => "level",
         Screen::Power => "power",
         Screen::Fault => "fault",
         Screen::Check => "check",
@@ -339,6 +347,8 @@ pub fn refresh_all(window: &AppWindow, state: &AppState) {
     power::refresh(window, state);
     fault::refresh(window, state);
     check::refresh(window, state);
+    units::refresh(window, state);
+    level::refresh(window, state);
     log::refresh(window, state);
     about::refresh(window, state);
 }

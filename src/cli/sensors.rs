@@ -441,5 +441,5 @@ pub(super) fn level(args: LevelArgs, out: &mut dyn Write) -> CliResult {
         }
         return print_json(out, &obj);
     }
-    print_lines(out, r.lines())
+    print_lines(out, &r.lines())
 }

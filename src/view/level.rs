@@ -254,14 +254,18 @@ pub struct LevelResult {
     pub span_pa: f64,
     /// The level a typed DP means, m above the bottom tap or seal.
     pub level_m: Option<f64>,
-    /// The result in words, one line each (what the command line prints).
-    pub lines: Vec<String>,
+    /// The result as (what, value) rows: `("LRV", "-6653.3 mmH2O")`, the same words on
+    /// the screen and the command line.
+    pub rows: Vec<(String, String)>,
 }
 
 impl LevelResult {
-    /// The lines as the command line prints them.
-    pub fn lines(&self) -> &[String] {
-        &self.lines
+    /// The rows as the command line prints them, one line each (`LRV     -6653.3 mmH2O`).
+    pub fn lines(&self) -> Vec<String> {
+        self.rows
+            .iter()
+            .map(|(what, value)| format!("{what:<8}{value}"))
+            .collect()
     }
 }
 
@@ -299,25 +303,29 @@ pub fn result(input: &LevelInput<'_>) -> Result<LevelResult> {
         };
         Some(level::level_from_dp(&setup, dp_pa).map_err(renamed)?)
     };
-    let mut lines = vec![
-        format!("mount   {}", setup.mount.name()),
-        format!("LRV     {}", display::value(lrv, unit, span)),
-        format!("URV     {}", display::value(urv, unit, span)),
-        format!("span    {}", display::value(span, unit, span)),
-        match ranging.zero {
-            ZeroShift::None => "zero    zero-based (LRV = 0)".to_string(),
-            ZeroShift::Elevated { .. } => format!(
-                "zero    elevated zero by {} (LRV below 0)",
-                display::value(zero_shift, unit, span)
-            ),
-            ZeroShift::Suppressed { .. } => format!(
-                "zero    suppressed zero by {} (LRV above 0)",
-                display::value(zero_shift, unit, span)
-            ),
-        },
+    let row = |what: &str, value: String| (what.to_string(), value);
+    let mut rows = vec![
+        row("mount", setup.mount.name().to_string()),
+        row("LRV", display::value(lrv, unit, span)),
+        row("URV", display::value(urv, unit, span)),
+        row("span", display::value(span, unit, span)),
+        row(
+            "zero",
+            match ranging.zero {
+                ZeroShift::None => "zero-based (LRV = 0)".to_string(),
+                ZeroShift::Elevated { .. } => format!(
+                    "elevated zero by {} (LRV below 0)",
+                    display::value(zero_shift, unit, span)
+                ),
+                ZeroShift::Suppressed { .. } => format!(
+                    "suppressed zero by {} (LRV above 0)",
+                    display::value(zero_shift, unit, span)
+                ),
+            },
+        ),
     ];
     if let Some(h) = level_m {
-        lines.push(format!("level   {} m", display::fixed(h, 3)));
+        rows.push(row("level", format!("{} m", display::fixed(h, 3))));
     }
     Ok(LevelResult {
         mount: setup.mount.name().to_string(),
@@ -331,7 +339,7 @@ pub fn result(input: &LevelInput<'_>) -> Result<LevelResult> {
         urv_pa: ranging.urv_pa,
         span_pa: ranging.span_pa,
         level_m,
-        lines,
+        rows,
     })
 }
 
@@ -389,8 +397,10 @@ pub struct Sketch {
     pub tank: Frac,
     /// Closed vessel (drawn with a roof); open tanks have none.
     pub closed: bool,
-    /// The liquid (interface: the lower, heavier one), drawn at the 100 % level.
+    /// The liquid (interface: the lower, heavier one), drawn half-way up the range.
     pub liquid: Frac,
+    /// The 0 % and 100 % levels, as fractions of the height (drawn as marks on the tank).
+    pub marks: [f64; 2],
     /// The upper liquid of an interface.
     pub upper: Option<Frac>,
     /// The transmitter.
@@ -568,7 +578,7 @@ pub fn sketch(s: &LevelSetup) -> Sketch {
         w: TANK_RIGHT - TANK_LEFT,
         h: (tank_bottom - tank_top).max(0.02),
     };
-    let full = y(levels[1].max(levels[0]));
+    let full = y((levels[0] + levels[1]) / 2.0);
     let liquid = Frac {
         x: TANK_LEFT,
         y: full,
@@ -578,7 +588,7 @@ pub fn sketch(s: &LevelSetup) -> Sketch {
     let (liquid, upper) = match s.mount {
         Mount::Interface { .. } => {
             // The vessel is full above the top tap: the light liquid up to the roof, the
-            // heavy one to the interface at the 100 % level.
+            // heavy one to the interface half-way up the range.
             let upper = Frac {
                 x: TANK_LEFT,
                 y: tank.y,
@@ -693,8 +703,8 @@ pub fn sketch(s: &LevelSetup) -> Sketch {
         format!("transmitter {} m below the HP tap", metres(tx_rel))
     };
     labels.push(Label {
-        x: TX_X - TX_W / 2.0,
-        y: (ty + TX_H / 2.0 + 0.04).min(0.98),
+        x: TANK_RIGHT,
+        y: (ty + TX_H / 2.0 + 0.05).min(0.96),
         text: tx_words.replace("transmitter ", "Tx "),
     });
     let fill_words = match s.mount {
@@ -732,6 +742,7 @@ pub fn sketch(s: &LevelSetup) -> Sketch {
         tank,
         closed,
         liquid,
+        marks: [y(levels[0]), y(levels[1])],
         upper,
         transmitter,
         lines,
@@ -774,11 +785,11 @@ mod tests {
         assert!((r.urv - -526.9).abs() < 1e-6, "{}", r.urv);
         assert!((r.span - 6126.4).abs() < 1e-6, "{}", r.span);
         assert_eq!(r.zero, "elevated");
-        assert_eq!(r.lines[0], "mount   closed tank, wet leg");
+        assert_eq!(r.lines()[0], "mount   closed tank, wet leg");
         assert!(
-            r.lines[4].starts_with("zero    elevated zero by 6653"),
+            r.lines()[4].starts_with("zero    elevated zero by 6653"),
             "{:?}",
-            r.lines
+            r.lines()
         );
     }
 
@@ -797,9 +808,9 @@ mod tests {
         let r = result(&input).unwrap();
         assert_eq!(r.zero, "suppressed");
         assert!(
-            r.lines[4].contains("suppressed zero by 64.80"),
+            r.lines()[4].contains("suppressed zero by 64.80"),
             "{:?}",
-            r.lines
+            r.lines()
         );
         let v = view(&input);
         let s = v.sketch.unwrap();
@@ -835,7 +846,7 @@ mod tests {
         assert!((r.lrv - -5250.0).abs() < 1e-6);
         assert!((r.urv - -1410.0).abs() < 1e-6);
         assert_eq!(r.level_m.map(|h| (h * 1e6).round() / 1e6), Some(2.0));
-        assert_eq!(r.lines.last().unwrap(), "level   2.000 m");
+        assert_eq!(r.lines().last().unwrap(), "level   2.000 m");
         let s = view(&input).sketch.unwrap();
         assert!(s.closed);
         assert!(s.lines.iter().all(|l| l.fill == LineFill::Fill));
