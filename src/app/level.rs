@@ -170,14 +170,20 @@ fn show(window: &AppWindow, state: &AppState) {
         a.set_lines(model(
             s.lines
                 .iter()
-                .map(|l| SketchLine {
-                    commands: l.commands.clone().into(),
-                    fill: match l.fill {
+                .flat_map(|l| {
+                    let fill = match l.fill {
                         vl::LineFill::Liquid => LineFill::Liquid,
                         vl::LineFill::Fill => LineFill::Fill,
                         vl::LineFill::Gas => LineFill::Gas,
                         vl::LineFill::Vent => LineFill::Vent,
-                    },
+                    };
+                    l.points.windows(2).map(move |w| SketchLine {
+                        x1: w[0].0 as f32,
+                        y1: w[0].1 as f32,
+                        x2: w[1].0 as f32,
+                        y2: w[1].1 as f32,
+                        fill,
+                    })
                 })
                 .collect(),
         ));

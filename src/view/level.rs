@@ -65,8 +65,8 @@ impl Piping {
             Piping::Open => "Open tank",
             Piping::DryLeg => "Dry leg",
             Piping::WetLeg => "Wet leg",
-            Piping::Seals => "Seals, capillaries",
-            Piping::OpenSeal => "Open tank, one seal",
+            Piping::Seals => "Seals",
+            Piping::OpenSeal => "Open, 1 seal",
             Piping::Interface => "Interface",
         }
     }
@@ -369,12 +369,12 @@ pub enum LineFill {
     Vent,
 }
 
-/// One connecting line: a polyline in a 0..100 × 0..100 box, as SVG path commands, and
-/// what it holds.
+/// One connecting line: a polyline of horizontal and vertical runs through `points`
+/// (fractions of the sketch, x across and y down), and what it holds.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Line {
-    /// `M 70 80 L 85 80 L 85 90`.
-    pub commands: String,
+    /// The corners, in order.
+    pub points: Vec<(f64, f64)>,
     /// What it holds (its colour on the screen).
     pub fill: LineFill,
 }
@@ -606,7 +606,6 @@ pub fn sketch(s: &LevelSetup) -> Sketch {
         w: TX_W,
         h: TX_H,
     };
-    let pc = |v: f64| display::fixed(v * 100.0, 1);
     let hp_y = y(h.hp);
     let hp_fill = match s.mount {
         Mount::OpenTank { .. } | Mount::DryLeg { .. } | Mount::WetLeg { .. } => LineFill::Liquid,
@@ -615,15 +614,7 @@ pub fn sketch(s: &LevelSetup) -> Sketch {
     // HP from the bottom tap across to the transmitter's left-hand port.
     let hp_port_x = TX_X - TX_W / 4.0;
     let mut lines = vec![Line {
-        commands: format!(
-            "M {} {} L {} {} L {} {}",
-            pc(TANK_RIGHT),
-            pc(hp_y),
-            pc(hp_port_x),
-            pc(hp_y),
-            pc(hp_port_x),
-            pc(ty)
-        ),
+        points: vec![(TANK_RIGHT, hp_y), (hp_port_x, hp_y), (hp_port_x, ty)],
         fill: hp_fill,
     }];
     let lp_port_x = TX_X + TX_W / 4.0;
@@ -636,29 +627,21 @@ pub fn sketch(s: &LevelSetup) -> Sketch {
                 _ => LineFill::Fill,
             };
             lines.push(Line {
-                commands: format!(
-                    "M {} {} L {} {} L {} {} L {} {}",
-                    pc(TANK_RIGHT),
-                    pc(lp_y),
-                    pc(lp_x),
-                    pc(lp_y),
-                    pc(lp_x),
-                    pc(ty),
-                    pc(lp_port_x),
-                    pc(ty)
-                ),
+                points: vec![
+                    (TANK_RIGHT, lp_y),
+                    (lp_x, lp_y),
+                    (lp_x, ty),
+                    (lp_port_x, ty),
+                ],
                 fill,
             });
         }
         None => lines.push(Line {
             // The LP port vented: a short open stub upwards.
-            commands: format!(
-                "M {} {} L {} {}",
-                pc(lp_port_x),
-                pc(ty - TX_H / 2.0),
-                pc(lp_port_x),
-                pc((ty - TX_H / 2.0 - 0.06).max(0.0))
-            ),
+            points: vec![
+                (lp_port_x, ty - TX_H / 2.0),
+                (lp_port_x, (ty - TX_H / 2.0 - 0.06).max(0.0)),
+            ],
             fill: LineFill::Vent,
         }),
     }
@@ -863,6 +846,16 @@ mod tests {
         assert!(b.transmitter.y < a.transmitter.y, "{a:?} {b:?}");
         assert_eq!(b.lines[1].fill, LineFill::Fill);
         assert!(b.description.contains("LP leg full of SG 1.17 fill"));
+        // Every run of every line is horizontal or vertical, inside the picture.
+        for line in &b.lines {
+            for w in line.points.windows(2) {
+                assert!(w[0].0 == w[1].0 || w[0].1 == w[1].1, "{line:?}");
+            }
+            assert!(line
+                .points
+                .iter()
+                .all(|(x, y)| (0.0..=1.0).contains(x) && (0.0..=1.0).contains(y)));
+        }
         // The liquid is drawn up to the 100 % level, below the roof of the closed tank.
         assert!(b.liquid.y > b.tank.y);
     }
