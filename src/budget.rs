@@ -18,6 +18,7 @@
 //! capacitance set their own limits. A supply at or below the transmitter minimum is a
 //! valid input: the answer is "not enough", with the numbers.
 
+use crate::display;
 use crate::error::{finite, non_negative, within, FieldError, Result};
 use crate::wire::{self, Conductor};
 use serde::{Deserialize, Serialize};
@@ -318,15 +319,22 @@ impl LoopConfig {
         let hart_ok = loop_ohms >= hart_low && loop_ohms <= hart_high;
         let hart_note = if loop_ohms < hart_low {
             format!(
-                "loop resistance {loop_ohms:.0} Ω is below the {hart_low:.0} Ω HART needs: a handheld cannot develop its signal; add a resistor (250 Ω is usual)"
+                "loop resistance {} is below the {} HART needs: a handheld cannot develop its signal; add a resistor (250 Ω is usual)",
+                display::ohms_whole(loop_ohms),
+                display::ohms_whole(hart_low)
             )
         } else if loop_ohms > hart_high {
             format!(
-                "loop resistance {loop_ohms:.0} Ω is above the {hart_high:.0} Ω HART window: the signal is attenuated; reduce the loop resistance"
+                "loop resistance {} is above the {} HART window: the signal is attenuated; reduce the loop resistance",
+                display::ohms_whole(loop_ohms),
+                display::ohms_whole(hart_high)
             )
         } else {
             format!(
-                "loop resistance {loop_ohms:.0} Ω is within the HART window {hart_low:.0}–{hart_high:.0} Ω"
+                "loop resistance {} is within the HART window {}–{}",
+                display::ohms_whole(loop_ohms),
+                display::fixed(hart_low, 0),
+                display::ohms_whole(hart_high)
             )
         };
 
@@ -409,8 +417,9 @@ impl LoopConfig {
     ) -> String {
         if supply <= self.tx_min_volts {
             return format!(
-                "supply {supply:.2} V (lowest) is at or below the transmitter minimum {:.2} V: no loop can work; raise the supply",
-                self.tx_min_volts
+                "supply {} (lowest) is at or below the transmitter minimum {}: no loop can work; raise the supply",
+                display::volts(supply),
+                display::volts(self.tx_min_volts)
             );
         }
         // The verdict is given at the tighter current, and the spare load quoted with it is
@@ -425,24 +434,24 @@ impl LoopConfig {
             .iter()
             .max_by(|a, b| a.volts.total_cmp(&b.volts));
         let biggest_text = match biggest {
-            Some(p) => format!("largest drop is {} ({:.2} V)", p.name, p.volts),
+            Some(p) => format!("largest drop is {} ({})", p.name, display::volts(p.volts)),
             None => "nothing in series but the transmitter".to_string(),
         };
         if tight.ok {
             format!(
-                "enough voltage: {:.2} V spare at {:.1} mA, {:.0} Ω of load still available at {:.1} mA; {biggest_text}",
-                tight.headroom_volts,
-                tight.current_ma,
-                spare_ohms.max(0.0),
-                tight.current_ma
+                "enough voltage: {} spare at {}, {} of load still available at {}; {biggest_text}",
+                display::volts(tight.headroom_volts),
+                display::ma_setting(tight.current_ma),
+                display::ohms_whole(spare_ohms.max(0.0)),
+                display::ma_setting(tight.current_ma)
             )
         } else {
             format!(
-                "short by {:.2} V at {:.1} mA; {biggest_text}: reduce it or remove {:.0} Ω, or raise the lowest supply to at least {:.2} V",
-                -tight.headroom_volts,
-                tight.current_ma,
-                -tight.headroom_volts / (tight.current_ma / 1000.0),
-                min_supply
+                "short by {} at {}; {biggest_text}: reduce it or remove {}, or raise the lowest supply to at least {}",
+                display::volts(-tight.headroom_volts),
+                display::ma_setting(tight.current_ma),
+                display::ohms_whole(-tight.headroom_volts / (tight.current_ma / 1000.0)),
+                display::volts(min_supply)
             )
         }
     }

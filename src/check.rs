@@ -809,16 +809,6 @@ fn hysteresis(points: &[PointResult]) -> Option<(f64, f64)> {
     best
 }
 
-/// A number with an explicit sign: `+0.010`, `-0.020`, `0.000`.
-fn signed(value: f64, decimals: usize) -> String {
-    let s = display::fixed(value, decimals);
-    if s.starts_with('-') || s.chars().all(|c| c == '0' || c == '.') {
-        s
-    } else {
-        format!("+{s}")
-    }
-}
-
 /// Text safe inside a Markdown table cell.
 fn cell(text: &str) -> String {
     text.replace('|', "\\|").replace(['\n', '\r'], " ")
@@ -849,13 +839,13 @@ impl CheckResult {
 
     fn output_error_text(&self, error: f64) -> String {
         match self.device {
-            Device::Transmitter => format!("{} mA", signed(error, 3)),
+            Device::Transmitter => format!("{} mA", display::signed(error, 3)),
             Device::Receiver => {
                 let d = display::decimals_for_span(self.output_span);
                 if self.output_unit.is_empty() {
-                    signed(error, d)
+                    display::signed(error, d)
                 } else {
-                    format!("{} {}", signed(error, d), self.output_unit)
+                    format!("{} {}", display::signed(error, d), self.output_unit)
                 }
             }
         }
@@ -970,7 +960,7 @@ impl CheckResult {
                 cell(&self.output_text(p.expected)),
                 cell(&self.output_text(p.measured)),
                 cell(&self.output_error_text(p.error)),
-                signed(p.error_pct, 2),
+                display::signed(p.error_pct, 2),
                 if p.pass { "pass" } else { "**FAIL**" }
             ));
         }
@@ -1034,8 +1024,8 @@ mod tests {
 
     #[test]
     fn signed_numbers() {
-        assert_eq!(signed(0.01, 2), "+0.01");
-        assert_eq!(signed(-0.0001, 2), "0.00");
-        assert_eq!(signed(-0.5, 1), "-0.5");
+        assert_eq!(display::signed(0.01, 2), "+0.01");
+        assert_eq!(display::signed(-0.0001, 2), "0.00");
+        assert_eq!(display::signed(-0.5, 1), "-0.5");
     }
 }

@@ -58,33 +58,67 @@ pub fn value(value: f64, unit: &str, span: f64) -> String {
 
 /// A number as typed: up to six decimals, trailing zeros dropped (`1`, `0.01`, `2.5`).
 pub fn trimmed(value: f64) -> String {
-    let s = fixed(value, 6);
-    if s.contains('.') {
-        s.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
+    trim_zeros(fixed(value, 6))
+}
+
+/// A current named as a setting or a test point, one decimal: `20.0 mA`, `22.0 mA`.
+pub fn ma_setting(value: f64) -> String {
+    format!("{} mA", fixed(value, 1))
+}
+
+/// Ohms rounded to whole ohms, for loop resistances and windows: `250 Ω`, `1100 Ω`.
+pub fn ohms_whole(value: f64) -> String {
+    format!("{} Ω", fixed(value, 0))
+}
+
+/// A temperature, two decimals: `21.50 °C`.
+pub fn temperature(value_c: f64) -> String {
+    format!("{} °C", fixed(value_c, 2))
+}
+
+/// A number with an explicit sign, for errors and deviations: `+0.010`, `-0.020`, `0.000`
+/// (zero has no sign).
+pub fn signed(value: f64, decimals: usize) -> String {
+    let s = fixed(value, decimals);
+    if s.starts_with('-') || s.chars().all(|c| c == '0' || c == '.') {
         s
+    } else {
+        format!("+{s}")
     }
 }
 
-/// A low-flow cutoff, in % of flow and the % of DP it equals (flow ∝ √ΔP):
-/// `1 % of flow (0.01 % of DP)`.
-pub fn cutoff(flow_percent: f64) -> String {
-    format!(
-        "{} % of flow ({} % of DP)",
-        trimmed(flow_percent),
-        trimmed(crate::scale::cutoff_dp_percent(flow_percent))
-    )
-}
-
-/// A plain-number answer to `digits` significant figures, trailing zeros dropped (unit
-/// conversions: `36.25939`, `-0.192175`, `0`).
+/// A number to `digits` significant digits, trailing zeros dropped: unit conversions
+/// (`significant(1.2345678, 4)` → `1.235`, `significant(101325.0, 7)` → `101325`).
 pub fn significant(value: f64, digits: i32) -> String {
     if value == 0.0 || !value.is_finite() {
-        return fixed(value, 0);
+        return trimmed(value);
     }
     let magnitude = value.abs().log10().floor() as i32;
     let decimals = (digits - 1 - magnitude).clamp(0, 12) as usize;
-    let s = fixed(value, decimals);
+    trim_zeros(fixed(value, decimals))
+}
+
+/// A number quoted in a message (an error or a finding), as typed: up to six decimals,
+/// trailing zeros dropped, and a negative one with the Unicode minus sign so it cannot be
+/// read as a dash: `−200`, `12.5`.
+pub fn quoted(value: f64) -> String {
+    unicode_minus(trimmed(value))
+}
+
+/// A number quoted in a message with a fixed count of decimals and the Unicode minus sign:
+/// `quoted_fixed(18.52008, 3)` → `18.520`, `quoted_fixed(-0.5, 2)` → `−0.50`.
+pub fn quoted_fixed(value: f64, decimals: usize) -> String {
+    unicode_minus(fixed(value, decimals))
+}
+
+fn unicode_minus(s: String) -> String {
+    match s.strip_prefix('-') {
+        Some(rest) => format!("\u{2212}{rest}"),
+        None => s,
+    }
+}
+
+fn trim_zeros(s: String) -> String {
     if s.contains('.') {
         s.trim_end_matches('0').trim_end_matches('.').to_string()
     } else {
@@ -105,6 +139,7 @@ pub fn fixed(value: f64, decimals: usize) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use proptest::prelude::*;
 
     #[test]
     fn rounding_rules() {
@@ -116,5 +151,74 @@ mod tests {
         assert_eq!(value(2.25, "m", 4.5), "2.2500 m");
         assert_eq!(ohms(250.0), "250 Ω");
         assert_eq!(ohms(12.44), "12.4 Ω");
+        assert_eq!(ma_setting(22.0), "22.0 mA");
+        assert_eq!(ohms_whole(1100.4), "1100 Ω");
+        assert_eq!(temperature(21.5), "21.50 °C");
+    }
+
+    #[test]
+    fn signs_and_significant_digits() {
+        assert_eq!(signed(0.01, 3), "+0.010");
+        assert_eq!(signed(-0.02, 3), "-0.020");
+        assert_eq!(signed(-0.0004, 3), "0.000");
+        // 1 atm = 101.325 kPa exactly (NIST SP 811).
+        assert_eq!(significant(101.325, 6), "101.325");
+        assert_eq!(significant(1.2345678, 4), "1.235");
+        assert_eq!(significant(0.0, 6), "0");
+    }
+
+    #[test]
+    fn message_numbers_use_the_minus_sign() {
+        assert_eq!(quoted(-200.0), "\u{2212}200");
+        assert_eq!(quoted(12.5), "12.5");
+        assert_eq!(quoted_fixed(18.52008, 3), "18.520");
+        assert_eq!(quoted_fixed(-0.5, 2), "\u{2212}0.50");
+    }
+
+    /// Every named format, with the decimals it rounds to for a value near zero.
+    fn near_zero_formats() -> Vec<(&'static str, usize, fn(f64) -> String)> {
+        vec![
+            ("ma", 3, ma),
+            ("percent", 2, percent),
+            ("volts", 2, volts),
+            ("ohms", 1, ohms),
+            ("metres", 2, metres),
+            ("trimmed", 6, trimmed),
+            ("ma_setting", 1, ma_setting),
+            ("ohms_whole", 0, ohms_whole),
+            ("temperature", 2, temperature),
+            ("quoted", 6, quoted),
+            ("value (span 10)", 3, |v| value(v, "bar", 10.0)),
+            ("value (span 3000)", 1, |v| value(v, "m³/h", 3000.0)),
+            ("fixed 4", 4, |v| fixed(v, 4)),
+            ("signed 3", 3, |v| signed(v, 3)),
+            ("quoted_fixed 2", 2, |v| quoted_fixed(v, 2)),
+        ]
+    }
+
+    fn has_minus(s: &str) -> bool {
+        s.contains('-') || s.contains('\u{2212}')
+    }
+
+    #[test]
+    fn negative_zero_itself_prints_without_a_sign() {
+        for (name, _, f) in near_zero_formats() {
+            assert!(!has_minus(&f(-0.0)), "{name}: {}", f(-0.0));
+        }
+        assert_eq!(significant(-0.0, 6), "0");
+        assert_eq!(trimmed(-1e-9), "0");
+    }
+
+    proptest! {
+        /// Any negative value small enough to round to zero at a format's decimals prints
+        /// as zero, never `-0.00`.
+        #[test]
+        fn a_value_that_rounds_to_zero_prints_without_a_minus(fraction in 0.0f64..0.999) {
+            for (name, decimals, f) in near_zero_formats() {
+                let v = -fraction * 0.5 * 10f64.powi(-(decimals as i32));
+                let shown = f(v);
+                prop_assert!(!has_minus(&shown), "{}({}) = {}", name, v, shown);
+            }
+        }
     }
 }

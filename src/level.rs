@@ -25,8 +25,8 @@
 //! - Swapped HP/LP connections (or a geometry that makes DP fall as level rises) give
 //!   negative values and a negative span: they are results, not errors.
 
+use crate::display;
 use crate::error::{finite, positive, FieldError, Result};
-use crate::rtd::show;
 use crate::units::{self, STANDARD_GRAVITY, WATER_DENSITY_KG_M3};
 use serde::{Deserialize, Serialize};
 
@@ -175,11 +175,11 @@ impl ZeroShift {
             ZeroShift::None => "zero-based (LRV = 0)".to_string(),
             ZeroShift::Elevated { by_pa } => format!(
                 "elevated zero by {} {unit} (LRV below 0)",
-                show_2(units::difference_from_pa(*by_pa, unit, "unit")?)
+                display::quoted_fixed(units::difference_from_pa(*by_pa, unit, "unit")?, 2)
             ),
             ZeroShift::Suppressed { by_pa } => format!(
                 "suppressed zero by {} {unit} (LRV above 0)",
-                show_2(units::difference_from_pa(*by_pa, unit, "unit")?)
+                display::quoted_fixed(units::difference_from_pa(*by_pa, unit, "unit")?, 2)
             ),
         })
     }
@@ -239,10 +239,10 @@ pub fn dp_at_level(setup: &LevelSetup, level_m: f64) -> Result<f64> {
             "level_m",
             format!(
                 "{} m is outside the levels this {} installation can see, {}…{} m",
-                show(h),
+                display::quoted(h),
                 setup.mount.name(),
-                show(low),
-                show(high)
+                display::quoted(low),
+                display::quoted(high)
             ),
         ));
     }
@@ -266,11 +266,11 @@ pub fn level_from_dp(setup: &LevelSetup, dp_pa: f64) -> Result<f64> {
             "dp_pa",
             format!(
                 "{} Pa would mean a level of {} m, outside what this {} installation can see ({}…{} m)",
-                show_2(dp),
-                show_2(level),
+                display::quoted_fixed(dp, 2),
+                display::quoted_fixed(level, 2),
                 setup.mount.name(),
-                show(low),
-                show(high)
+                display::quoted(low),
+                display::quoted(high)
             ),
         ));
     }
@@ -359,8 +359,8 @@ fn validate(setup: &LevelSetup) -> Result<()> {
             "max_m",
             format!(
                 "{} m must be above the minimum level ({} m)",
-                show(max),
-                show(min)
+                display::quoted(max),
+                display::quoted(min)
             ),
         ));
     }
@@ -381,8 +381,8 @@ fn validate(setup: &LevelSetup) -> Result<()> {
                     "leg_m",
                     format!(
                         "a wet leg of {} m from a transmitter at {} m ends at or below the HP tap",
-                        show(leg_m),
-                        show(tx_m)
+                        display::quoted(leg_m),
+                        display::quoted(tx_m)
                     ),
                 ));
             }
@@ -402,8 +402,8 @@ fn validate(setup: &LevelSetup) -> Result<()> {
                     "lp_seal_m",
                     format!(
                         "{} m must be above the HP seal ({} m)",
-                        show(lp_seal_m),
-                        show(hp_seal_m)
+                        display::quoted(lp_seal_m),
+                        display::quoted(hp_seal_m)
                     ),
                 ));
             }
@@ -434,8 +434,8 @@ fn validate(setup: &LevelSetup) -> Result<()> {
                     "lp_tap_m",
                     format!(
                         "{} m must be above the HP tap ({} m)",
-                        show(lp_tap_m),
-                        show(hp_tap_m)
+                        display::quoted(lp_tap_m),
+                        display::quoted(hp_tap_m)
                     ),
                 ));
             }
@@ -444,7 +444,7 @@ fn validate(setup: &LevelSetup) -> Result<()> {
                     "upper_sg",
                     format!(
                         "{} equals the lower liquid's SG; the DP would not change with the interface",
-                        show(upper_sg)
+                        display::quoted(upper_sg)
                     ),
                 ));
             }
@@ -456,8 +456,8 @@ fn validate(setup: &LevelSetup) -> Result<()> {
             "min_m",
             format!(
                 "{} m is below the bottom tap or seal ({} m); a DP transmitter cannot see level there",
-                show(min),
-                show(low)
+                display::quoted(min),
+                display::quoted(low)
             ),
         ));
     }
@@ -466,8 +466,8 @@ fn validate(setup: &LevelSetup) -> Result<()> {
             "max_m",
             format!(
                 "{} m is above the top tap, leg or seal ({} m above the bottom one); the DP stops changing with level there",
-                show(max),
-                show(high)
+                display::quoted(max),
+                display::quoted(high)
             ),
         ));
     }
@@ -481,7 +481,7 @@ fn check_sg(field: &str, sg: f64) -> Result<f64> {
             field,
             format!(
                 "{} is not a liquid's specific gravity; expected above 0 and up to 25",
-                show(v)
+                display::quoted(v)
             ),
         ));
     }
@@ -491,10 +491,6 @@ fn check_sg(field: &str, sg: f64) -> Result<f64> {
 /// ρ·g·h for a liquid of specific gravity `sg` (validated by the caller).
 fn column_pa(sg: f64, height_m: f64) -> f64 {
     sg * WATER_DENSITY_KG_M3 * STANDARD_GRAVITY * height_m
-}
-
-fn show_2(v: f64) -> String {
-    format!("{v:.2}").replacen('-', "\u{2212}", 1)
 }
 
 #[cfg(test)]

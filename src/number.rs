@@ -193,6 +193,54 @@ fn parse_plain(field: &str, number: &str, original: &str) -> Result<f64> {
     crate::error::finite(field, value)
 }
 
+/// Read the local atmospheric pressure as typed (`0,95 bar`, `95kPa`, `14.2 psia`) into
+/// pascals, for the field `field`.
+///
+/// The unit is required (a bare number could be bar or kPa) and must not be a gauge unit
+/// (the atmosphere is 0 in gauge units by definition). Allowed:
+/// [`units::ATMOSPHERE_MIN_PA`]–[`units::ATMOSPHERE_MAX_PA`] (30–110 kPa).
+pub fn parse_atmosphere(field: &str, text: &str) -> Result<f64> {
+    let (value, unit) = parse_quantity(field, text)?;
+    let Some(unit) = unit else {
+        return Err(FieldError::new(
+            field,
+            format!(
+                "'{}' has no unit; give the local atmospheric pressure with its unit, such as 0,95 bar or 95 kPa (30 to 110 kPa)",
+                text.trim()
+            ),
+        ));
+    };
+    if unit.quantity != units::Quantity::Pressure {
+        return Err(FieldError::new(
+            field,
+            format!(
+                "{} is not a pressure unit; give the atmospheric pressure such as 0,95 bar or 95 kPa",
+                unit.symbol
+            ),
+        ));
+    }
+    if unit.reference == units::PressureRef::Gauge {
+        return Err(FieldError::new(
+            field,
+            format!(
+                "{} is a gauge unit, in which the atmosphere is 0 by definition; give it in an absolute or plain unit such as 95 kPa or 0,95 bar",
+                unit.symbol
+            ),
+        ));
+    }
+    let pa = unit.to_si(value);
+    if !(units::ATMOSPHERE_MIN_PA..=units::ATMOSPHERE_MAX_PA).contains(&pa) {
+        return Err(FieldError::new(
+            field,
+            format!(
+                "{} kPa is outside 30 to 110 kPa, the atmospheric pressures at which plants stand",
+                crate::display::fixed(pa / 1000.0, 3)
+            ),
+        ));
+    }
+    Ok(pa)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -13,6 +13,7 @@
 use std::fmt;
 use std::str::FromStr;
 
+use crate::display;
 use crate::error::{finite, positive, FieldError, Result};
 use crate::wire::{self, Conductor};
 use serde::{Deserialize, Serialize};
@@ -128,7 +129,7 @@ impl Rtd {
                 "r0_ohms",
                 format!(
                     "{} Ω is not a platinum RTD's R0; expected up to 100000 Ω",
-                    show(r0)
+                    display::quoted(r0)
                 ),
             ));
         }
@@ -147,7 +148,7 @@ impl Rtd {
                 return kind.name().to_string();
             }
         }
-        format!("Pt(R0 = {} Ω)", show(self.r0_ohms))
+        format!("Pt(R0 = {} Ω)", display::quoted(self.r0_ohms))
     }
 
     /// Resistance of the element at `temp_c` (the value to source into a transmitter to
@@ -187,10 +188,10 @@ impl Rtd {
                 "ohms",
                 format!(
                     "{} Ω is outside {}'s range {}…{} Ω (−200…850 °C)",
-                    show(r),
+                    display::quoted(r),
                     self.name(),
-                    show3(low),
-                    show3(high)
+                    display::quoted_fixed(low, 3),
+                    display::quoted_fixed(high, 3)
                 ),
             ));
         }
@@ -211,7 +212,10 @@ impl Rtd {
         }
         Err(FieldError::new(
             "ohms",
-            format!("{} Ω: the temperature iteration did not converge", show(r)),
+            format!(
+                "{} Ω: the temperature iteration did not converge",
+                display::quoted(r)
+            ),
         ))
     }
 
@@ -261,7 +265,10 @@ impl Rtd {
         if lead < 0.0 {
             return Err(FieldError::new(
                 "lead_ohms",
-                format!("{} Ω: a cable cannot have negative resistance", show(lead)),
+                format!(
+                    "{} Ω: a cable cannot have negative resistance",
+                    display::quoted(lead)
+                ),
             ));
         }
         let slope = self.slope_ohms_per_c(temp_c)?;
@@ -394,10 +401,10 @@ impl RtdClass {
                 "true_temp_c",
                 format!(
                     "{} °C is outside class {}'s range {}…{} °C for {} elements (IEC 60751)",
-                    show(t),
+                    display::quoted(t),
                     self.name(),
-                    show(low),
-                    show(high),
+                    display::quoted(low),
+                    display::quoted(high),
                     build_name
                 ),
             ));
@@ -531,23 +538,13 @@ fn check_temp(field: &str, temp_c: f64) -> Result<f64> {
     if !(RTD_MIN_TEMP_C..=RTD_MAX_TEMP_C).contains(&t) {
         return Err(FieldError::new(
             field,
-            format!("{} °C is outside the IEC 60751 range −200…850 °C", show(t)),
+            format!(
+                "{} °C is outside the IEC 60751 range −200…850 °C",
+                display::quoted(t)
+            ),
         ));
     }
     Ok(t)
-}
-
-/// A number for a message: up to 6 decimals, trailing zeros dropped, Unicode minus.
-pub(crate) fn show(v: f64) -> String {
-    let s = format!("{v:.6}");
-    let s = s.trim_end_matches('0').trim_end_matches('.');
-    let s = if s == "-0" { "0" } else { s };
-    s.replacen('-', "\u{2212}", 1)
-}
-
-/// A number for a message with exactly three decimals and a Unicode minus.
-pub(crate) fn show3(v: f64) -> String {
-    format!("{v:.3}").replacen('-', "\u{2212}", 1)
 }
 
 #[cfg(test)]
@@ -568,12 +565,5 @@ mod tests {
             let numeric = (cvd_ratio(t + h) - cvd_ratio(t - h)) / (2.0 * h);
             assert!((numeric - cvd_ratio_slope(t)).abs() < 1e-9, "{t}");
         }
-    }
-
-    #[test]
-    fn message_numbers_use_the_minus_sign() {
-        assert_eq!(show(-200.0), "\u{2212}200");
-        assert_eq!(show(12.5), "12.5");
-        assert_eq!(show3(18.52008), "18.520");
     }
 }

@@ -22,8 +22,8 @@ mod its90;
 use std::fmt;
 use std::str::FromStr;
 
+use crate::display;
 use crate::error::{finite, FieldError, Result};
-use crate::rtd::{show, show3};
 use its90::TypeData;
 use serde::{Deserialize, Serialize};
 
@@ -161,7 +161,7 @@ impl TcType {
                 "mv",
                 format!(
                     "{} mV: the type {} temperature iteration did not converge",
-                    show(e),
+                    display::quoted(e),
                     self.letter()
                 ),
             )
@@ -186,10 +186,10 @@ impl TcType {
                     "mv",
                     format!(
                         "{} mV is outside the NIST inverse polynomial range for type {}, {}…{} mV",
-                        show(e),
+                        display::quoted(e),
                         self.letter(),
-                        show3(low),
-                        show3(high)
+                        display::quoted_fixed(low, 3),
+                        display::quoted_fixed(high, 3)
                     ),
                 ))
             }
@@ -218,11 +218,11 @@ impl TcType {
                 "temp_c",
                 format!(
                     "{} °C is outside class {} for type {}, {}…{} °C (IEC 60584-1)",
-                    show(t),
+                    display::quoted(t),
                     class.number(),
                     self.letter(),
-                    show(low),
-                    show(high)
+                    display::quoted(low),
+                    display::quoted(high)
                 ),
             ));
         }
@@ -260,10 +260,10 @@ impl TcType {
                 field,
                 format!(
                     "{} °C is outside type {}'s range {}…{} °C",
-                    show(t),
+                    display::quoted(t),
                     self.letter(),
-                    show(low),
-                    show(high)
+                    display::quoted(low),
+                    display::quoted(high)
                 ),
             ));
         }
@@ -283,10 +283,10 @@ impl TcType {
                 field,
                 format!(
                     "{} mV is outside type {}'s range {}…{} mV{}",
-                    show(e),
+                    display::quoted(e),
                     self.letter(),
-                    show3(low),
-                    show3(high),
+                    display::quoted_fixed(low, 3),
+                    display::quoted_fixed(high, 3),
                     why
                 ),
             ));
@@ -357,9 +357,9 @@ pub fn temp_c_from_measured(tc: TcType, measured_mv: f64, cj_temp_c: f64) -> Res
             "mv",
             format!(
                 "{} mV measured with the cold junction at {} °C is {} mV referred to 0 °C; {}",
-                show(e),
-                show(cj_temp_c),
-                show(e + e_cj),
+                display::quoted(e),
+                display::quoted(cj_temp_c),
+                display::quoted(e + e_cj),
                 err.reason
             ),
         )

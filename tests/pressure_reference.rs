@@ -7,10 +7,8 @@
 
 mod util;
 
-use loopside::number::parse_in;
-use loopside::units::{
-    convert, convert_difference, convert_units_at, lookup, parse_atmosphere, PressureRef,
-};
+use loopside::number::{parse_atmosphere, parse_in};
+use loopside::units::{convert, convert_difference, convert_units_at, lookup, PressureRef};
 use util::{close, loopside, loopside_json, loopside_refuses, TempDir};
 
 /// The psi in pascals, NIST SP 811 B.8 (6.894 757 E+03, exact 4.448 221 615 260 5 N/in²).

@@ -139,7 +139,7 @@ pub fn tag_detail(tag: &crate::tag::Tag) -> String {
         Transfer::SquareRoot { cutoff_percent, .. } => {
             format!(
                 "square root, cutoff {}",
-                crate::display::cutoff(*cutoff_percent)
+                crate::view::cutoff(*cutoff_percent)
             )
         }
         Transfer::Table(t) => format!("table → {}", t.output_unit()),

@@ -8,7 +8,6 @@ use crate::display;
 use crate::error::{FieldError, Result};
 use crate::number::{parse_in, parse_number};
 use crate::store::StoreError;
-use crate::view::plain;
 use crate::view::power::{view, PowerView, Slice};
 use crate::wire::Conductor;
 use slint::ComponentHandle;
@@ -161,19 +160,22 @@ pub fn form_from(tag: &str, c: &LoopConfig) -> PowerForm {
     PowerForm {
         tag: tag.to_string(),
         supply: display::fixed(c.supply_volts, 1),
-        tolerance: plain(c.supply_tolerance_percent),
-        tx_min: plain(c.tx_min_volts),
+        tolerance: display::trimmed(c.supply_tolerance_percent),
+        tx_min: display::trimmed(c.tx_min_volts),
         // Empty when the device's configured fault current was not given: the field then
         // shows the default as a placeholder and the budget says it is a default.
-        fault: c.fault_ma.map(plain).unwrap_or_default(),
-        cable_m: c.cable.map(|k| plain(k.one_way_m)).unwrap_or_default(),
+        fault: c.fault_ma.map(display::trimmed).unwrap_or_default(),
+        cable_m: c
+            .cable
+            .map(|k| display::trimmed(k.one_way_m))
+            .unwrap_or_default(),
         cable_size: c.cable.map(|k| k.conductor.label()).unwrap_or_default(),
         elements: c
             .elements
             .iter()
             .map(|e| match e.kind {
-                ElementKind::Resistance { ohms } => (e.name.clone(), plain(ohms), false),
-                ElementKind::Drop { volts } => (e.name.clone(), plain(volts), true),
+                ElementKind::Resistance { ohms } => (e.name.clone(), display::trimmed(ohms), false),
+                ElementKind::Drop { volts } => (e.name.clone(), display::trimmed(volts), true),
             })
             .collect(),
         hart: false,

@@ -226,11 +226,11 @@ pub fn form_of(tag: &Tag) -> super::TagForm {
             number: tag.number.clone().into(),
             service: tag.service.clone().into(),
             area: tag.area.clone().into(),
-            lrv: crate::view::plain(tag.scale.lrv).into(),
-            urv: crate::view::plain(tag.scale.urv).into(),
+            lrv: crate::display::trimmed(tag.scale.lrv).into(),
+            urv: crate::display::trimmed(tag.scale.urv).into(),
             unit: tag.scale.unit.clone().into(),
             transfer: transfer.into(),
-            tolerance: crate::view::plain(tag.tolerance_percent).into(),
+            tolerance: crate::display::trimmed(tag.tolerance_percent).into(),
             ..Default::default()
         },
         &loop_part,
@@ -323,7 +323,7 @@ pub fn transfer_text(t: &Transfer) -> String {
                 RootLocation::Transmitter => "transmitter",
                 RootLocation::Receiver => "receiver",
             },
-            crate::display::cutoff(*cutoff_percent)
+            crate::view::cutoff(*cutoff_percent)
         ),
         Transfer::Table(table) => format!("table → {}", table.output_unit()),
     }

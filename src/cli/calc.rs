@@ -274,7 +274,7 @@ pub(super) fn convert(args: ConvertArgs, out: &mut dyn Write) -> CliResult {
             };
             lines.push(format!(
                 "cutoff   {} — {state}",
-                display::cutoff(cutoff_percent)
+                crate::view::cutoff(cutoff_percent)
             ));
         }
     }
@@ -635,10 +635,10 @@ pub(super) fn wire(args: WireArgs, out: &mut dyn Write) -> CliResult {
         out,
         &[
             format!(
-                "{}: {:.3} mm², {:.3} mm diameter, {} Ω/km per conductor at {} °C",
+                "{}: {} mm², {} mm diameter, {} Ω/km per conductor at {} °C",
                 conductor.label(),
-                conductor.area_mm2(),
-                conductor.diameter_mm(),
+                display::fixed(conductor.area_mm2(), 3),
+                display::fixed(conductor.diameter_mm(), 3),
                 display::fixed(per_km, 3),
                 display::fixed(temp_c, 1)
             ),
@@ -803,12 +803,12 @@ pub(super) fn resistor(args: ResistorArgs, out: &mut dyn Write) -> CliResult {
     )];
     for p in &r.points {
         lines.push(format!(
-            "{:>10}  {:>8}  {:.3} W  reading error up to {} ({:.3} % of span)",
+            "{:>10}  {:>8}  {} W  reading error up to {} ({} % of span)",
             display::ma(p.current_ma),
             display::fixed(p.volts, 3) + " V",
-            p.watts,
+            display::fixed(p.watts, 3),
             display::ma(p.error_ma),
-            p.error_percent_of_span
+            display::fixed(p.error_percent_of_span, 3)
         ));
     }
     print_lines(out, &lines)

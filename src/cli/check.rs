@@ -32,7 +32,7 @@ pub struct TagArgs {
     #[arg(long, value_name = "NUMBER")]
     tag: Option<String>,
     #[command(flatten)]
-    data: super::store::DataArgs,
+    data: super::data::DataArgs,
     /// Save the result to the tag's log (needs --tag of a tag in the register).
     #[arg(long, requires = "tag")]
     save: bool,
@@ -61,7 +61,7 @@ impl TagArgs {
             let store = self.data.open()?;
             let mut tag = store
                 .require_tag(number)
-                .map_err(super::store::store_error)?
+                .map_err(super::data::store_error)?
                 .tag
                 .clone();
             if let Some(t) = &self.tolerance {
@@ -215,12 +215,12 @@ fn save_entry(
     let mut store = which.data.open()?;
     let id = store
         .require_tag(number)
-        .map_err(super::store::store_error)?
+        .map_err(super::data::store_error)?
         .id
         .clone();
     let mut entry = Entry::new(&id, chrono::Local::now().fixed_offset(), "", kind, text)?;
     entry.payload = Some(payload);
-    let saved = store.append(entry).map_err(super::store::store_error)?;
+    let saved = store.append(entry).map_err(super::data::store_error)?;
     Ok(saved.to_string())
 }
 

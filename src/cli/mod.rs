@@ -7,10 +7,13 @@
 //! one line naming the field, with exit code 2; other failures (a file that cannot be
 //! written) exit with 1.
 
+mod bundle;
 mod calc;
 mod check;
+mod data;
+mod note;
 mod sensors;
-mod store;
+mod tag;
 
 use crate::error::FieldError;
 use clap::{Parser, Subcommand};
@@ -48,15 +51,15 @@ pub enum Command {
     /// Volts, power and reading error of a sense resistor.
     Resistor(calc::ResistorArgs),
     /// Keep the tag register: add, edit, list, show, rename, archive tags.
-    Tag(store::TagArgs),
+    Tag(tag::TagArgs),
     /// Write, list and search the field log; close follow-ups.
-    Note(store::NoteArgs),
+    Note(note::NoteArgs),
     /// Write a handoff report (Markdown, CSV or a JSON bundle).
-    Export(store::ExportArgs),
+    Export(bundle::ExportArgs),
     /// Merge a JSON bundle from another device into this store.
-    Import(store::ImportArgs),
+    Import(bundle::ImportArgs),
     /// Fill an empty store with the demo plant (Brindlemoor Water Reclamation Works).
-    Demo(store::DemoArgs),
+    Demo(bundle::DemoArgs),
     /// Platinum RTD (IEC 60751): resistance ↔ temperature, class tolerance, lead error.
     Rtd(sensors::RtdArgs),
     /// Thermocouple (NIST ITS-90): EMF ↔ temperature with cold-junction compensation.
@@ -102,11 +105,11 @@ pub fn run_command(command: Command, out: &mut dyn Write) -> CliResult {
         Command::Units(args) => calc::units(args, out),
         Command::Status(args) => calc::status(args, out),
         Command::Resistor(args) => calc::resistor(args, out),
-        Command::Tag(args) => store::tag(args, out),
-        Command::Note(args) => store::note(args, out),
-        Command::Export(args) => store::export(args, out),
-        Command::Import(args) => store::import(args, out),
-        Command::Demo(args) => store::demo(args, out),
+        Command::Tag(args) => tag::tag(args, out),
+        Command::Note(args) => note::note(args, out),
+        Command::Export(args) => bundle::export(args, out),
+        Command::Import(args) => bundle::import(args, out),
+        Command::Demo(args) => bundle::demo(args, out),
         Command::Rtd(args) => sensors::rtd(args, out),
         Command::Tc(args) => sensors::tc(args, out),
         Command::Level(args) => sensors::level(args, out),

@@ -421,7 +421,9 @@ fn found_units(
         predicted,
         residual_pct,
         text: format!(
-            "Units mixed up: {expected:.4} {unit} is {predicted:.4} {shown_unit}; the numbers shown are in {shown_unit}, not {unit}. Make the ranges agree in one unit."
+            "Units mixed up: {} {unit} is {} {shown_unit}; the numbers shown are in {shown_unit}, not {unit}. Make the ranges agree in one unit.",
+            display::fixed(expected, 4),
+            display::fixed(predicted, 4)
         ),
     });
 }
@@ -657,9 +659,10 @@ pub fn explain_transmitter(
                         predicted,
                         residual_pct: r,
                         text: format!(
-                            "Units mixed up: the transmitter's range numbers are in {} instead of {unit} ({} is {px:.4} {}), so it sends {} instead of {}.",
+                            "Units mixed up: the transmitter's range numbers are in {} instead of {unit} ({} is {} {}), so it sends {} instead of {}.",
                             x.symbol,
                             pv(p),
+                            display::fixed(px, 4),
                             x.symbol,
                             display::ma(current),
                             display::ma(expected)

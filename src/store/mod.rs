@@ -11,6 +11,7 @@
 //! definition. A rename changes the tag number, not its [`TagId`], so the log follows.
 //! Nothing is ever deleted; archived tags are hidden from the working list only.
 
+pub mod bundle;
 mod file;
 pub mod record;
 mod snapshot;
@@ -20,8 +21,8 @@ pub use snapshot::{SNAPSHOT_FILE, SNAPSHOT_TAIL_BYTES};
 
 use crate::error::FieldError;
 use crate::journal::{self, Entry, EntryId, Query, TagId};
-use crate::report::Bundle;
 use crate::tag::{clean_number, Tag};
+use bundle::Bundle;
 use chrono::Utc;
 use record::Record;
 use serde::{Deserialize, Serialize};

@@ -210,7 +210,7 @@ fn notes(scale: &Scale, reading: &Reading) -> Vec<String> {
         if let Transfer::SquareRoot { cutoff_percent, .. } = scale.transfer {
             out.push(format!(
                 "Below the low-flow cutoff of {}: the receiver shows zero flow",
-                display::cutoff(cutoff_percent)
+                crate::view::cutoff(cutoff_percent)
             ));
         }
     }

@@ -25,16 +25,26 @@ use crate::scale::Scale;
 /// [`crate::caution`], so the screens, the command line and the saved sessions say the same.
 pub use crate::caution::CAUTIONS;
 
-/// A number as a person would type it, without trailing zeros: `250`, `10.5`, `-20`.
-pub fn plain(v: f64) -> String {
-    display::trimmed(v)
+/// A low-flow cutoff, in % of flow and the % of DP it equals (flow ∝ √ΔP):
+/// `1 % of flow (0.01 % of DP)`.
+pub fn cutoff(flow_percent: f64) -> String {
+    format!(
+        "{} % of flow ({} % of DP)",
+        display::trimmed(flow_percent),
+        display::trimmed(crate::scale::cutoff_dp_percent(flow_percent))
+    )
 }
 
 /// A range as the register lists it: `0 – 4.5 m`, `250 – 0 mbar`.
 pub fn range_text(scale: &Scale) -> String {
-    format!("{} – {} {}", plain(scale.lrv), plain(scale.urv), scale.unit)
-        .trim_end()
-        .to_string()
+    format!(
+        "{} – {} {}",
+        display::trimmed(scale.lrv),
+        display::trimmed(scale.urv),
+        scale.unit
+    )
+    .trim_end()
+    .to_string()
 }
 
 /// How a status or verdict stands, for its colour (always shown together with words).
@@ -74,10 +84,10 @@ mod tests {
 
     #[test]
     fn plain_numbers() {
-        assert_eq!(plain(250.0), "250");
-        assert_eq!(plain(10.5), "10.5");
-        assert_eq!(plain(-20.0), "-20");
-        assert_eq!(plain(-0.0), "0");
+        assert_eq!(display::trimmed(250.0), "250");
+        assert_eq!(display::trimmed(10.5), "10.5");
+        assert_eq!(display::trimmed(-20.0), "-20");
+        assert_eq!(display::trimmed(-0.0), "0");
         let s = Scale::linear(250.0, 0.0, "mbar").unwrap();
         assert_eq!(range_text(&s), "250 – 0 mbar");
     }

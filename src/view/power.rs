@@ -8,7 +8,7 @@
 use crate::budget::{Budget, LoopConfig, OperatingPoint, PartRole};
 use crate::display;
 use crate::error::Result;
-use crate::view::{plain, Tone};
+use crate::view::Tone;
 
 /// One slice of a budget bar, as fractions of the bar's width.
 #[derive(Debug, Clone, PartialEq)]
@@ -270,7 +270,7 @@ pub fn notes(b: &Budget, give_sag: &str, give_fault: &str) -> Vec<String> {
         out.push(format!(
             "Worked at the lowest supply, {}: the nominal less {} % sag.",
             display::volts(b.lowest_supply_volts),
-            plain(b.supply_sag_percent)
+            display::trimmed(b.supply_sag_percent)
         ));
     } else {
         out.push(format!(

@@ -126,7 +126,7 @@ fn fill(input: &CalcInput, from_temp: bool, v: &mut CalcView) -> Result<()> {
                 tc.letter(),
                 display::fixed(lo, 0),
                 display::fixed(hi, 0),
-                crate::view::plain(cj)
+                crate::display::trimmed(cj)
             );
             if input.text.trim().is_empty() {
                 return Ok(());

@@ -3,13 +3,13 @@
 //! Shown beside the register on a wide screen, and printed by `loopside tag show`.
 
 use crate::budget::ElementKind;
+use crate::display;
 use crate::journal::{self, Entry};
 use crate::scale::Transfer;
 use crate::sensor::Sensor;
 use crate::store::{Store, TagRecord};
 use crate::tag::Tag;
 use crate::view::log::{row, row_kind, Row, RowKind};
-use crate::view::plain;
 
 /// How many of the tag's newest entries the sheet lists.
 pub const RECENT: usize = 5;
@@ -52,7 +52,7 @@ pub fn transfer_words(t: &Transfer) -> String {
         Transfer::SquareRoot { cutoff_percent, .. } => {
             format!(
                 "square root, cutoff {}",
-                crate::display::cutoff(*cutoff_percent)
+                crate::view::cutoff(*cutoff_percent)
             )
         }
         Transfer::Table(table) => format!(
@@ -74,13 +74,16 @@ pub fn sensor_words(sensor: &Sensor) -> String {
             "{element} RTD, {}-wire{}",
             wiring.count(),
             if *lead_ohms > 0.0 {
-                format!(", leads {} Ω", plain(*lead_ohms))
+                format!(", leads {} Ω", display::trimmed(*lead_ohms))
             } else {
                 String::new()
             }
         ),
         Sensor::Thermocouple { tc, cj_c } => {
-            format!("{tc} thermocouple, cold junction {} °C", plain(*cj_c))
+            format!(
+                "{tc} thermocouple, cold junction {} °C",
+                display::trimmed(*cj_c)
+            )
         }
         Sensor::DpLevel { .. } => "DP level (the setup is in the tag's JSON)".to_string(),
     }
@@ -103,14 +106,14 @@ pub fn facts(tag: &Tag) -> Vec<Fact> {
             "Signal",
             format!(
                 "{} – {} mA, HART {}",
-                plain(s.signal.low_ma),
-                plain(s.signal.high_ma),
+                display::trimmed(s.signal.low_ma),
+                display::trimmed(s.signal.high_ma),
                 if tag.hart { "yes" } else { "no" }
             ),
         ),
         fact(
             "Tolerance",
-            format!("± {} % of span", plain(tag.tolerance_percent)),
+            format!("± {} % of span", display::trimmed(tag.tolerance_percent)),
         ),
     ];
     if let Some(sensor) = &tag.sensor {
@@ -120,22 +123,27 @@ pub fn facts(tag: &Tag) -> Vec<Fact> {
         Some(l) => {
             let mut parts = vec![format!(
                 "{} V supply{}, transmitter min {} V",
-                plain(l.supply_volts),
+                display::trimmed(l.supply_volts),
                 if l.supply_tolerance_percent > 0.0 {
-                    format!(" (may sag {} %)", plain(l.supply_tolerance_percent))
+                    format!(
+                        " (may sag {} %)",
+                        display::trimmed(l.supply_tolerance_percent)
+                    )
                 } else {
                     String::new()
                 },
-                plain(l.tx_min_volts)
+                display::trimmed(l.tx_min_volts)
             )];
             parts.extend(l.elements.iter().map(|e| match e.kind {
-                ElementKind::Resistance { ohms } => format!("{} {} Ω", e.name, plain(ohms)),
-                ElementKind::Drop { volts } => format!("{} {} V", e.name, plain(volts)),
+                ElementKind::Resistance { ohms } => {
+                    format!("{} {} Ω", e.name, display::trimmed(ohms))
+                }
+                ElementKind::Drop { volts } => format!("{} {} V", e.name, display::trimmed(volts)),
             }));
             if let Some(c) = &l.cable {
                 parts.push(format!(
                     "cable {} m {}",
-                    plain(c.one_way_m),
+                    display::trimmed(c.one_way_m),
                     c.conductor.label()
                 ));
             }

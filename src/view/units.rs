@@ -83,7 +83,7 @@ pub fn atmosphere(text: &str) -> Result<(f64, bool)> {
     if text.trim().is_empty() {
         Ok((STANDARD_ATMOSPHERE_PA, false))
     } else {
-        Ok((units::parse_atmosphere("atm", text)?, true))
+        Ok((crate::number::parse_atmosphere("atm", text)?, true))
     }
 }
 
