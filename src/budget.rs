@@ -17,8 +17,11 @@
 //! would starve an upscale failure. Cable lengths are by voltage only; HART and cable
 //! capacitance set their own limits. A supply at or below the transmitter minimum is a
 //! valid input: the answer is "not enough", with the numbers.
+//!
+//! The budget returns numbers and codes: what limits the loop is a [`BudgetLimit`] (with
+//! the element taking most of the supply), the HART verdict a [`HartVerdict`]; the words
+//! are written once in `crate::view::wording::power`.
 
-use crate::display;
 use crate::error::{finite, non_negative, within, FieldError, Result};
 use crate::wire::{self, Conductor};
 use serde::{Deserialize, Serialize};
@@ -317,30 +320,27 @@ impl LoopConfig {
 
         let (hart_low, hart_high) = self.hart_window_ohms;
         let hart_ok = loop_ohms >= hart_low && loop_ohms <= hart_high;
-        let hart_note = if loop_ohms < hart_low {
-            format!(
-                "loop resistance {} is below the {} HART needs: a handheld cannot develop its signal; add a resistor (250 Ω is usual)",
-                display::ohms_whole(loop_ohms),
-                display::ohms_whole(hart_low)
-            )
+        let hart = if loop_ohms < hart_low {
+            HartVerdict::BelowWindow {
+                loop_ohms,
+                min_ohms: hart_low,
+            }
         } else if loop_ohms > hart_high {
-            format!(
-                "loop resistance {} is above the {} HART window: the signal is attenuated; reduce the loop resistance",
-                display::ohms_whole(loop_ohms),
-                display::ohms_whole(hart_high)
-            )
+            HartVerdict::AboveWindow {
+                loop_ohms,
+                max_ohms: hart_high,
+            }
         } else {
-            format!(
-                "loop resistance {} is within the HART window {}–{}",
-                display::ohms_whole(loop_ohms),
-                display::fixed(hart_low, 0),
-                display::ohms_whole(hart_high)
-            )
+            HartVerdict::Within {
+                loop_ohms,
+                min_ohms: hart_low,
+                max_ohms: hart_high,
+            }
         };
 
         let ok_full_scale = at_full_scale.ok;
         let ok_fault = at_fault.ok;
-        let limit = self.limit_text(
+        let limit = self.limit(
             lowest_supply,
             &at_full_scale,
             &at_fault,
@@ -371,7 +371,7 @@ impl LoopConfig {
             ok_fault,
             limit,
             hart_ok,
-            hart_note,
+            hart,
         })
     }
 
@@ -407,20 +407,19 @@ impl LoopConfig {
         }
     }
 
-    fn limit_text(
+    fn limit(
         &self,
         supply: f64,
         full: &OperatingPoint,
         fault: &OperatingPoint,
         min_supply: f64,
         (spare_full_ohms, spare_fault_ohms): (f64, f64),
-    ) -> String {
+    ) -> BudgetLimit {
         if supply <= self.tx_min_volts {
-            return format!(
-                "supply {} (lowest) is at or below the transmitter minimum {}: no loop can work; raise the supply",
-                display::volts(supply),
-                display::volts(self.tx_min_volts)
-            );
+            return BudgetLimit::SupplyAtOrBelowMinimum {
+                supply_volts: supply,
+                tx_min_volts: self.tx_min_volts,
+            };
         }
         // The verdict is given at the tighter current, and the spare load quoted with it is
         // the spare at that same current.
@@ -429,32 +428,96 @@ impl LoopConfig {
         } else {
             (full, spare_full_ohms)
         };
-        let biggest = tight
+        let largest = tight
             .parts
             .iter()
-            .max_by(|a, b| a.volts.total_cmp(&b.volts));
-        let biggest_text = match biggest {
-            Some(p) => format!("largest drop is {} ({})", p.name, display::volts(p.volts)),
-            None => "nothing in series but the transmitter".to_string(),
-        };
+            .max_by(|a, b| a.volts.total_cmp(&b.volts))
+            .cloned();
         if tight.ok {
-            format!(
-                "enough voltage: {} spare at {}, {} of load still available at {}; {biggest_text}",
-                display::volts(tight.headroom_volts),
-                display::ma_setting(tight.current_ma),
-                display::ohms_whole(spare_ohms.max(0.0)),
-                display::ma_setting(tight.current_ma)
-            )
+            BudgetLimit::Enough {
+                at_ma: tight.current_ma,
+                headroom_volts: tight.headroom_volts,
+                spare_ohms: spare_ohms.max(0.0),
+                largest,
+            }
         } else {
-            format!(
-                "short by {} at {}; {biggest_text}: reduce it or remove {}, or raise the lowest supply to at least {}",
-                display::volts(-tight.headroom_volts),
-                display::ma_setting(tight.current_ma),
-                display::ohms_whole(-tight.headroom_volts / (tight.current_ma / 1000.0)),
-                display::volts(min_supply)
-            )
+            BudgetLimit::Short {
+                at_ma: tight.current_ma,
+                short_volts: -tight.headroom_volts,
+                remove_ohms: -tight.headroom_volts / (tight.current_ma / 1000.0),
+                min_supply_volts: min_supply,
+                largest,
+            }
         }
     }
+}
+
+/// What limits the loop: the verdict's reason, with the numbers to act on and the element
+/// that takes most of the supply. Worded by `crate::view::wording::power::limit`.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "code", rename_all = "kebab-case")]
+pub enum BudgetLimit {
+    /// The lowest supply is at or below the transmitter minimum: no loop can work.
+    SupplyAtOrBelowMinimum {
+        /// The lowest supply, V.
+        supply_volts: f64,
+        /// The transmitter minimum, V.
+        tx_min_volts: f64,
+    },
+    /// Enough voltage at the tighter of 20 mA and the fault current.
+    Enough {
+        /// The tighter current, mA: the verdict is given there.
+        at_ma: f64,
+        /// Volts to spare at the transmitter at that current.
+        headroom_volts: f64,
+        /// Load that could still be added and reach that current, Ω (never negative).
+        spare_ohms: f64,
+        /// The part of the loop that takes most of the supply at that current.
+        largest: Option<BudgetPart>,
+    },
+    /// Not enough voltage at the tighter of 20 mA and the fault current.
+    Short {
+        /// The tighter current, mA.
+        at_ma: f64,
+        /// Volts missing at the transmitter at that current.
+        short_volts: f64,
+        /// Loop resistance to take out so the transmitter keeps its minimum, Ω.
+        remove_ohms: f64,
+        /// Lowest supply that would do at the fault current, V.
+        min_supply_volts: f64,
+        /// The part of the loop that takes most of the supply at that current.
+        largest: Option<BudgetPart>,
+    },
+}
+
+/// The loop resistance against the HART window. Worded by
+/// `crate::view::wording::power::hart`.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "code", rename_all = "kebab-case")]
+pub enum HartVerdict {
+    /// Below the window's minimum: a handheld cannot develop its signal.
+    BelowWindow {
+        /// Loop resistance, Ω.
+        loop_ohms: f64,
+        /// The window's minimum, Ω.
+        min_ohms: f64,
+    },
+    /// Above the window's maximum: the signal is attenuated.
+    AboveWindow {
+        /// Loop resistance, Ω.
+        loop_ohms: f64,
+        /// The window's maximum, Ω.
+        max_ohms: f64,
+    },
+    /// Within the window.
+    Within {
+        /// Loop resistance, Ω.
+        loop_ohms: f64,
+        /// The window's minimum, Ω.
+        min_ohms: f64,
+        /// The window's maximum, Ω.
+        max_ohms: f64,
+    },
 }
 
 /// What one part of the loop is, for drawing the budget bar.
@@ -545,12 +608,12 @@ pub struct Budget {
     pub ok_full_scale: bool,
     /// Enough voltage at the fault current.
     pub ok_fault: bool,
-    /// What limits the loop, in words, with the numbers to act on.
-    pub limit: String,
+    /// What limits the loop, with the numbers to act on and the largest element.
+    pub limit: BudgetLimit,
     /// Loop resistance within the HART window.
     pub hart_ok: bool,
-    /// The HART verdict in words.
-    pub hart_note: String,
+    /// The loop resistance against the HART window.
+    pub hart: HartVerdict,
 }
 
 #[cfg(test)]
@@ -562,7 +625,10 @@ mod tests {
         let b = LoopConfig::new(10.0, 10.5).budget().unwrap();
         assert!(!b.ok);
         assert_eq!(b.max_load_ohms, 0.0);
-        assert!(b.limit.contains("raise the supply"));
+        assert!(matches!(
+            b.limit,
+            BudgetLimit::SupplyAtOrBelowMinimum { .. }
+        ));
     }
 
     #[test]

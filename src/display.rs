@@ -20,6 +20,12 @@ pub fn volts(value: f64) -> String {
     format!("{} V", fixed(value, 2))
 }
 
+/// Volts that may be short, two decimals, a shortfall with the Unicode minus sign:
+/// `1.25 V`, `−0.40 V` (never `−0.00 V`).
+pub fn volts_spare(value: f64) -> String {
+    format!("{} V", quoted_fixed(value, 2))
+}
+
 /// Ohms, no decimals above 100 Ω and one below: `250 Ω`, `12.4 Ω`.
 pub fn ohms(value: f64) -> String {
     if value.abs() >= 100.0 {
@@ -154,6 +160,8 @@ mod tests {
         assert_eq!(ma_setting(22.0), "22.0 mA");
         assert_eq!(ohms_whole(1100.4), "1100 Ω");
         assert_eq!(temperature(21.5), "21.50 °C");
+        assert_eq!(volts_spare(-0.4), "\u{2212}0.40 V");
+        assert_eq!(volts_spare(-0.001), "0.00 V");
     }
 
     #[test]
@@ -175,12 +183,16 @@ mod tests {
         assert_eq!(quoted_fixed(-0.5, 2), "\u{2212}0.50");
     }
 
+    /// A named format: its name, the decimals it rounds to near zero, and the function.
+    type Format = (&'static str, usize, fn(f64) -> String);
+
     /// Every named format, with the decimals it rounds to for a value near zero.
-    fn near_zero_formats() -> Vec<(&'static str, usize, fn(f64) -> String)> {
+    fn near_zero_formats() -> Vec<Format> {
         vec![
             ("ma", 3, ma),
             ("percent", 2, percent),
             ("volts", 2, volts),
+            ("volts_spare", 2, volts_spare),
             ("ohms", 1, ohms),
             ("metres", 2, metres),
             ("trimmed", 6, trimmed),

@@ -9,6 +9,7 @@ use loopside::check::{
     ReferenceInstrument, Stage, DEFAULT_POINTS_PERCENT, LOG_KIND,
 };
 use loopside::scale::{CharTable, RootLocation, Scale, SignalSpan, TablePoint, Transfer};
+use loopside::view::wording::check as words;
 use util::close;
 
 fn day(y: i32, m: u32, d: u32) -> NaiveDate {
@@ -274,7 +275,7 @@ fn test_uncertainty_ratio_below_four_to_one_warns() {
         r.warnings.as_slice(),
         [CheckWarning::LowTur { .. }]
     ));
-    assert!(r.warnings[0].message().contains("2.5:1"));
+    assert!(words::warning(&r.warnings[0]).contains("2.5:1"));
     // Exactly 4:1 is enough.
     let r = with_reference(0.5, reference(Accuracy::PercentOfSpan(0.125), due), date);
     close(r.tur.unwrap(), 4.0, 1e-9, "0.5 / 0.125");
@@ -298,7 +299,7 @@ fn reference_past_due_on_the_check_date_warns() {
     // Due on the day of the check: still in date.
     let r = with_reference(0.5, reference(acc, day(2026, 12, 1)), day(2026, 12, 1));
     assert!(r.warnings.is_empty());
-    assert!(r.to_markdown().contains("BWR-CAL-07"));
+    assert!(words::markdown(&r).contains("BWR-CAL-07"));
 }
 
 #[test]
@@ -387,7 +388,7 @@ fn result_is_a_log_payload_and_a_markdown_table() {
     );
     close(back.points[6].measured, 12.036, 1e-12, "measured read back");
 
-    let md = r.to_markdown();
+    let md = words::markdown(&r);
     assert!(
         md.contains("### LT-101 — transmitter check, as left (2026-12-01)"),
         "{md}"

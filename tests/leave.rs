@@ -13,6 +13,7 @@ use loopside::journal::{Entry, Kind, Query};
 use loopside::leave::{self, Item, LeaveList, LEAVE_VERSION, PAYLOAD_KEY};
 use loopside::store::{MemoryStore, Store};
 use loopside::tag::Tag;
+use loopside::view::wording::check as words;
 
 /// LT-101, inlet wet well level, 0–4.5 m on a 24 V loop (the invented Brindlemoor plant).
 fn lt101() -> Tag {
@@ -78,7 +79,7 @@ fn the_record_names_every_item_and_whether_it_was_done() {
 fn what_was_not_done_is_said_plainly_in_the_log_text() {
     let mut check = as_left_check();
     check.left(&[Item::Links, Item::Operations]);
-    let text = check.log_text();
+    let text = words::log_text(&check);
     assert!(
         text.starts_with("transmitter check, as found: PASS"),
         "{text}"
@@ -91,12 +92,12 @@ fn what_was_not_done_is_said_plainly_in_the_log_text() {
         "{text}"
     );
     // The check's own report section says the same.
-    assert!(check
-        .to_markdown()
-        .contains("NOT done (not confirmed): loop back in its normal mode"));
+    assert!(
+        words::markdown(&check).contains("NOT done (not confirmed): loop back in its normal mode")
+    );
 
     check.left(&Item::ALL);
-    assert!(check.log_text().ends_with(
+    assert!(words::log_text(&check).ends_with(
         "Before you leave: all done (loop back in its normal mode; links closed; \
          forces and bypasses removed; operations told)."
     ));
@@ -104,7 +105,7 @@ fn what_was_not_done_is_said_plainly_in_the_log_text() {
     let mut session = open_wiring_session();
     session.conclude("Lifted wire at JB-01 terminal 4, re-terminated");
     session.left(&[]);
-    let text = session.log_text();
+    let text = loopside::view::wording::fault::log_text(&session);
     let lines: Vec<&str> = text.lines().collect();
     assert!(lines[0].starts_with("Reading stuck at or below zero: "));
     assert_eq!(
@@ -129,7 +130,7 @@ fn the_handoff_report_shows_what_was_not_done() {
     let id = store.tag("LT-101").unwrap().id.clone();
     let mut check = as_left_check();
     check.left(&[Item::Loop, Item::Links, Item::Operations]);
-    let mut entry = Entry::new(&id, now, "EF", Kind::LoopCheck, &check.log_text()).unwrap();
+    let mut entry = Entry::new(&id, now, "EF", Kind::LoopCheck, &words::log_text(&check)).unwrap();
     entry.payload = Some(serde_json::to_value(&check).unwrap());
     store.append(entry).unwrap();
     let bundle = loopside::report::select(&store, &Query::default(), now);
@@ -151,10 +152,8 @@ fn records_saved_before_the_list_existed_still_read() {
     assert!(old_check.get(PAYLOAD_KEY).is_none());
     let read: CheckResult = serde_json::from_value(old_check).unwrap();
     assert_eq!(read.before_leaving, None);
-    assert!(read
-        .to_markdown()
-        .contains("Before you leave: not recorded"));
-    assert!(!read.log_text().contains("Before you leave"));
+    assert!(words::markdown(&read).contains("Before you leave: not recorded"));
+    assert!(!words::log_text(&read).contains("Before you leave"));
 
     let mut old_session = serde_json::to_value(open_wiring_session()).unwrap();
     old_session.as_object_mut().unwrap().remove(PAYLOAD_KEY);

@@ -97,9 +97,7 @@ fn code_only(src: &str) -> String {
             }
             if c.get(j) == Some(&'"') {
                 let hashes = j - start;
-                for k in i..=j {
-                    out.push(c[k]);
-                }
+                out.extend(&c[i..=j]);
                 i = j + 1;
                 while i < c.len() {
                     if c[i] == '"' && (0..hashes).all(|h| c.get(i + 1 + h) == Some(&'#')) {
@@ -405,6 +403,78 @@ fn the_reader_sees_the_crate_modules_this_test_is_about() {
     for m in ["store", "report", "view", "cli", "app"] {
         assert!(modules.contains(m), "no imports read from src/{m}");
     }
+}
+
+/// Format specifiers with a precision (`{:.2}`, `{v:.3}`, `{:>8.1}`, `{x:.prec$}`) on code
+/// lines (comments skipped), as (line, specifier).
+fn precision_specifiers(src: &str) -> Vec<(usize, String)> {
+    let mut found = Vec::new();
+    for (n, line) in src.lines().enumerate() {
+        if line.trim_start().starts_with("//") {
+            continue;
+        }
+        let mut rest = line;
+        while let Some(open) = rest.find('{') {
+            let after = &rest[open + 1..];
+            let Some(close) = after.find(['}', '{', '"']) else {
+                break;
+            };
+            let inner = &after[..close];
+            if after[close..].starts_with('}') {
+                if let Some((_, spec)) = inner.split_once(':') {
+                    let precise = spec.split_once('.').is_some_and(|(_, p)| {
+                        !p.is_empty()
+                            && (p.chars().all(|c| c.is_ascii_digit())
+                                || p == "*"
+                                || (p.ends_with('$')
+                                    && p[..p.len() - 1]
+                                        .chars()
+                                        .all(|c| c.is_alphanumeric() || c == '_')))
+                    });
+                    if precise {
+                        found.push((n + 1, format!("{{{inner}}}")));
+                    }
+                }
+            }
+            rest = &after[close..];
+        }
+    }
+    found
+}
+
+#[test]
+fn numbers_are_rounded_for_people_only_in_display() {
+    // RULES: display rounding only in src/display.rs (which never prints -0.00).
+    let mut bad = Vec::new();
+    for (path, text) in sources() {
+        let file = format!("src/{}", path.to_string_lossy().replace('\\', "/"));
+        if file == "src/display.rs" {
+            continue;
+        }
+        for (line, spec) in precision_specifiers(&text) {
+            bad.push(format!(
+                "{file}:{line}: `{spec}` rounds outside display; use a crate::display format"
+            ));
+        }
+    }
+    assert!(
+        bad.is_empty(),
+        "rounding outside src/display.rs:\n  {}",
+        bad.join("\n  ")
+    );
+}
+
+#[test]
+fn the_rounding_reader_sees_precision_but_not_plain_or_padded_fields() {
+    let text = "let a = format!(\"{v:.2} V\");\n// {:.3} in a comment\nlet b = format!(\"{:>8.1}|{:>8}|{x}|{:.prec$}\", 1.0, 2, 3.0);\n";
+    assert_eq!(
+        precision_specifiers(text),
+        vec![
+            (1, "{v:.2}".to_string()),
+            (3, "{:>8.1}".to_string()),
+            (3, "{:.prec$}".to_string())
+        ]
+    );
 }
 
 // ---- The checker on small invented sources, so each rule is seen to fail. ----

@@ -212,7 +212,7 @@ pub fn save(state: &mut AppState) -> Result<(EntryId, Stage, LeaveList), StoreEr
         now,
         &state.ui.initials.trim().to_uppercase(),
         Kind::LoopCheck,
-        &res.log_text(),
+        &crate::view::wording::check::log_text(&res),
     )?;
     entry.payload = Some(payload);
     let id = state.store.append(entry)?;

@@ -249,7 +249,7 @@ pub fn save(
         state.now(),
         &who,
         Kind::FaultFinding,
-        &fv::log_text(&session),
+        &crate::view::wording::fault::log_text(&session),
     )?;
     entry.payload = Some(
         serde_json::to_value(&session)

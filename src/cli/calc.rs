@@ -507,9 +507,9 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
             "ok": b.ok,
             "ok_full_scale": b.ok_full_scale,
             "ok_fault": b.ok_fault,
-            "limit": b.limit,
+            "limit": crate::view::wording::power::limit(&b.limit),
             "hart_ok": b.hart_ok,
-            "hart_note": b.hart_note,
+            "hart_note": crate::view::wording::power::hart(&b.hart),
         });
         return print_json(out, &obj);
     }
@@ -522,7 +522,7 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
     for p in [&b.at_low, &b.at_full_scale, &b.at_fault] {
         lines.push(format!(
             "at {:>6}: transmitter gets {:>8}, headroom {:>8}  {}",
-            display::fixed(p.current_ma, 1) + " mA",
+            display::ma_setting(p.current_ma),
             display::volts(p.terminal_volts),
             display::volts(p.headroom_volts),
             if p.ok { "ok" } else { "NOT ENOUGH" }
@@ -569,12 +569,12 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
     lines.push(format!(
         "verdict: {} — {}",
         if b.ok { "OK" } else { "NOT ENOUGH VOLTAGE" },
-        b.limit
+        crate::view::wording::power::limit(&b.limit)
     ));
     lines.push(format!(
         "HART: {} — {}",
         if b.hart_ok { "ok" } else { "outside window" },
-        b.hart_note
+        crate::view::wording::power::hart(&b.hart)
     ));
     print_lines(out, &lines)
 }

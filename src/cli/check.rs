@@ -290,7 +290,7 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
         Some(save_entry(
             &args.which,
             Kind::LoopCheck,
-            &result.log_text(),
+            &crate::view::wording::check::log_text(&result),
             value.clone(),
         )?)
     } else {
@@ -303,13 +303,13 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
         return print_json(out, &value);
     }
     if args.markdown {
-        return write!(out, "{}", result.to_markdown()).map_err(super::io_failure);
+        return write!(out, "{}", crate::view::wording::check::markdown(&result))
+            .map_err(super::io_failure);
     }
     let mut lines: Vec<String> = CAUTIONS.iter().map(|c| format!("! {c}")).collect();
     lines.push(String::new());
     lines.extend(
-        result
-            .to_markdown()
+        crate::view::wording::check::markdown(&result)
             .lines()
             .filter(|l| !l.starts_with("|---"))
             .map(str::to_string),
@@ -414,7 +414,7 @@ pub(super) fn diagnose(
         Some(save_entry(
             &args.which,
             Kind::FaultFinding,
-            &session.log_text(),
+            &crate::view::wording::fault::log_text(&session),
             value.clone(),
         )?)
     } else {

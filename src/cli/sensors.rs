@@ -306,7 +306,7 @@ pub(super) fn tc(args: TcArgs, out: &mut dyn Write) -> CliResult {
     }
     let mut lines = vec![
         format!("thermocouple {} (NIST ITS-90)", tc),
-        format!("temperature  {} °C", display::fixed(temp_c, 2)),
+        format!("temperature  {}", display::temperature(temp_c)),
         format!(
             "EMF          {} mV with the cold junction at {} °C",
             display::fixed(mv, 3),

@@ -230,25 +230,6 @@ impl Session {
         self.before_leaving = Some(LeaveList::from_done(done));
     }
 
-    /// The text of the log entry the session is saved as: the procedure's title and its
-    /// conclusion (or that it is not finished), the technician's own words, and, when
-    /// recorded, what was and was not put right before leaving (the same words from the
-    /// app and the command line).
-    pub fn log_text(&self) -> String {
-        let mut text = match &self.conclusion {
-            Some(c) => format!("{}: {}", self.title, c.text),
-            None => format!("{}: not finished", self.title),
-        };
-        if !self.technician_conclusion.is_empty() {
-            text.push_str(&format!("\nTechnician: {}", self.technician_conclusion));
-        }
-        if let Some(l) = &self.before_leaving {
-            text.push('\n');
-            text.push_str(&l.summary());
-        }
-        text
-    }
-
     /// Give the answer to the current step and move on. Values for a measure step may come
     /// in several calls; the step runs once all of its measurements are known. Measure
     /// steps with nothing left to ask run at once (pass an empty map).

@@ -400,12 +400,6 @@ fn severity(t: Tone) -> u8 {
     }
 }
 
-/// The text of the log entry a session is saved as: [`Session::log_text`], the one
-/// wording the command line uses too.
-pub fn log_text(session: &Session) -> String {
-    session.log_text()
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -527,7 +521,7 @@ mod tests {
 
         s.conclude("  Loose wire at JB-01 terminal 4, re-terminated  ");
         assert_eq!(
-            log_text(&s),
+            crate::view::wording::fault::log_text(&s),
             format!(
                 "Reading stuck at or below zero: {}\nTechnician: Loose wire at JB-01 terminal 4, re-terminated",
                 c.detail
@@ -639,7 +633,10 @@ mod tests {
         let tag = lt101();
         let p = procedure::find("stuck-low", &[]).unwrap();
         let s = Session::start(&p, &tag);
-        assert_eq!(log_text(&s), "Reading stuck at or below zero: not finished");
+        assert_eq!(
+            crate::view::wording::fault::log_text(&s),
+            "Reading stuck at or below zero: not finished"
+        );
     }
 
     #[test]

@@ -17,6 +17,7 @@ pub mod reference;
 pub mod sensor_calc;
 pub mod tag_sheet;
 pub mod units;
+pub mod wording;
 
 use crate::display;
 use crate::scale::Scale;

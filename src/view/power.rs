@@ -144,13 +144,7 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
             fault: display::volts(p_fault.volts),
         });
     }
-    let spare_line = |p: &OperatingPoint| {
-        if p.headroom_volts >= 0.0 {
-            display::volts(p.headroom_volts)
-        } else {
-            format!("−{}", display::volts(-p.headroom_volts))
-        }
-    };
+    let spare_line = |p: &OperatingPoint| display::volts_spare(p.headroom_volts);
     legend.push(LegendLine {
         kind: if b.ok {
             SliceKind::Spare
@@ -226,7 +220,7 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
             } else {
                 "HART: loop resistance outside the window".to_string()
             },
-            capitalised(&b.hart_note),
+            capitalised(&crate::view::wording::power::hart(&b.hart)),
             if b.hart_ok { Tone::Good } else { Tone::Bad },
         )
     });
@@ -249,7 +243,7 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
         supply_label: format!("Supply {}", display::volts(b.lowest_supply_volts)),
         legend,
         verdict_title,
-        verdict_detail: capitalised(&b.limit),
+        verdict_detail: capitalised(&crate::view::wording::power::limit(&b.limit)),
         verdict_tone: tone_of(b.ok),
         figures,
         notes,
@@ -281,7 +275,7 @@ pub fn notes(b: &Budget, give_sag: &str, give_fault: &str) -> Vec<String> {
     if b.fault_ma_is_default {
         out.push(format!(
             "{} is a default upscale fault current, not this device's: give the value the device is configured to drive {give_fault}.",
-            display::fixed(b.at_fault.current_ma, 1) + " mA"
+            display::ma_setting(b.at_fault.current_ma)
         ));
     }
     if b.max_cable_m.is_some() {

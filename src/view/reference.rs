@@ -5,7 +5,7 @@
 //! `0.004 mA` or `0.5 mbar` means the same thing on either, with the same field names in
 //! the messages. [`view`] says, before any reading is taken, what the check will say
 //! about the reference: its test uncertainty ratio and the warnings the saved record
-//! carries, in the words of [`crate::check::CheckWarning::message`] (the ones the command
+//! carries, in the words of [`crate::view::wording::check::warning`] (the ones the command
 //! line prints).
 
 use crate::check::{Accuracy, CheckWarning, LoopCheck, ReferenceInstrument, MIN_TUR};
@@ -182,7 +182,9 @@ pub fn view(check: &LoopCheck, text: ReferenceText<'_>) -> ReferenceView {
 
 /// The warnings in words, as the command line prints them after `> Warning:`.
 pub fn warnings(list: &[CheckWarning]) -> Vec<String> {
-    list.iter().map(CheckWarning::message).collect()
+    list.iter()
+        .map(crate::view::wording::check::warning)
+        .collect()
 }
 
 #[cfg(test)]

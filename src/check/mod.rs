@@ -23,10 +23,14 @@
 //! of output span. The reference instrument is judged by its calibration due date and by
 //! the test uncertainty ratio, TUR = tolerance / reference accuracy, which should be at
 //! least 4:1 (common practice).
+//!
+//! This module computes: results are numbers, verdicts and [`CheckWarning`] codes. The
+//! words (the one-line verdict, the log entry's text, the report's Markdown section, the
+//! warnings) are written once in [`crate::view::wording::check`].
 
 use crate::display;
 use crate::error::{finite, within, FieldError, Result};
-use crate::leave::{self, Item, LeaveList};
+use crate::leave::{Item, LeaveList};
 use crate::scale::{RootLocation, Scale, Transfer};
 use crate::tag::{Tag, DEFAULT_TOLERANCE_PERCENT};
 use chrono::NaiveDate;
@@ -197,27 +201,6 @@ pub enum CheckWarning {
         /// The minimum asked for (4).
         minimum: f64,
     },
-}
-
-impl CheckWarning {
-    /// The warning in plain words.
-    pub fn message(&self) -> String {
-        match self {
-            CheckWarning::ReferencePastDue {
-                id,
-                due,
-                check_date,
-                days_over,
-            } => format!(
-                "reference {id} was due for calibration on {due}; on {check_date} it was {days_over} day(s) past due, so this check rests on an uncalibrated instrument"
-            ),
-            CheckWarning::LowTur { tur, minimum } => format!(
-                "test uncertainty ratio {}:1 is below {}:1 (common practice): the reference is not accurate enough to judge this tolerance with confidence",
-                display::fixed(*tur, 1),
-                display::fixed(*minimum, 0)
-            ),
-        }
-    }
 }
 
 /// One planned test point.
@@ -809,198 +792,11 @@ fn hysteresis(points: &[PointResult]) -> Option<(f64, f64)> {
     best
 }
 
-/// Text safe inside a Markdown table cell.
-fn cell(text: &str) -> String {
-    text.replace('|', "\\|").replace(['\n', '\r'], " ")
-}
-
 impl CheckResult {
-    /// Input value written for people, in the input unit.
-    fn input_text(&self, value: f64) -> String {
-        match self.device {
-            Device::Receiver => display::ma(value),
-            Device::Transmitter => {
-                let span = match &self.input_range {
-                    Some(r) => r.urv - r.lrv,
-                    None => self.scale.span(),
-                };
-                display::value(value, &self.input_unit, span)
-            }
-        }
-    }
-
-    /// Output value written for people, in the output unit.
-    fn output_text(&self, value: f64) -> String {
-        match self.device {
-            Device::Transmitter => display::ma(value),
-            Device::Receiver => display::value(value, &self.output_unit, self.output_span),
-        }
-    }
-
-    fn output_error_text(&self, error: f64) -> String {
-        match self.device {
-            Device::Transmitter => format!("{} mA", display::signed(error, 3)),
-            Device::Receiver => {
-                let d = display::decimals_for_span(self.output_span);
-                if self.output_unit.is_empty() {
-                    display::signed(error, d)
-                } else {
-                    format!("{} {}", display::signed(error, d), self.output_unit)
-                }
-            }
-        }
-    }
-
-    /// The one-line verdict: `PASS` or `FAIL` with the largest error and hysteresis.
-    pub fn summary(&self) -> String {
-        let worst = self.points.get(self.max_error_index);
-        let mut s = format!(
-            "{}: max error {} of span",
-            if self.pass { "PASS" } else { "FAIL" },
-            display::percent(self.max_error_pct)
-        );
-        if let Some(p) = worst {
-            s.push_str(&format!(
-                " (point {}, {} {})",
-                self.max_error_index + 1,
-                display::fixed(p.percent, 0),
-                "%"
-            ));
-        }
-        match (self.hysteresis_pct, self.hysteresis_at_percent) {
-            (Some(h), Some(at)) => s.push_str(&format!(
-                "; hysteresis {} of span (at {} %)",
-                display::percent(h),
-                display::fixed(at, 0)
-            )),
-            _ => s.push_str("; hysteresis not measured (no input met from both directions)"),
-        }
-        s.push_str(&format!(
-            "; tolerance ±{}",
-            display::percent(self.tolerance_pct)
-        ));
-        s
-    }
-
     /// Record what was put right before leaving the loop: `done` were ticked (or named on
     /// the command line), the rest are recorded as not done.
     pub fn left(&mut self, done: &[Item]) {
         self.before_leaving = Some(LeaveList::from_done(done));
-    }
-
-    /// The text of the log entry: the kind of check, its verdict, and, when recorded, what
-    /// was and was not put right before leaving (the same words from the app and the
-    /// command line).
-    pub fn log_text(&self) -> String {
-        let head = format!(
-            "{} check, {}: {}",
-            self.device.as_str(),
-            self.stage.label(),
-            self.summary()
-        );
-        match &self.before_leaving {
-            Some(l) => format!("{head}\n{}", l.summary()),
-            None => head,
-        }
-    }
-
-    /// The check as a Markdown section for the handoff report.
-    pub fn to_markdown(&self) -> String {
-        let mut md = String::new();
-        let tag = if self.tag.is_empty() {
-            "Loop".to_string()
-        } else {
-            cell(&self.tag)
-        };
-        md.push_str(&format!(
-            "### {tag} — {} check, {} ({})\n\n",
-            self.device.as_str(),
-            self.stage.label(),
-            self.date
-        ));
-        md.push_str(&format!(
-            "Range {} to {} {}",
-            display::fixed(
-                self.scale.lrv,
-                display::decimals_for_span(self.scale.span())
-            ),
-            display::fixed(
-                self.scale.urv,
-                display::decimals_for_span(self.scale.span())
-            ),
-            cell(&self.scale.unit)
-        ));
-        match &self.scale.transfer {
-            Transfer::Linear => {}
-            Transfer::SquareRoot { root_in, .. } => md.push_str(&format!(
-                ", square root in the {}",
-                match root_in {
-                    RootLocation::Transmitter => "transmitter",
-                    RootLocation::Receiver => "receiver",
-                }
-            )),
-            Transfer::Table(t) => {
-                md.push_str(&format!(", table to {}", cell(t.output_unit())));
-            }
-        }
-        md.push_str(&format!(
-            " · tolerance ±{} of span\n\n",
-            display::percent(self.tolerance_pct)
-        ));
-        md.push_str(
-            "| # | direction | applied | expected | measured | error | error (% of span) | result |\n",
-        );
-        md.push_str("|---|---|---|---|---|---|---|---|\n");
-        for (i, p) in self.points.iter().enumerate() {
-            md.push_str(&format!(
-                "| {} | {} | {} | {} | {} | {} | {} % | {} |\n",
-                i + 1,
-                p.direction.as_str(),
-                cell(&self.input_text(p.applied)),
-                cell(&self.output_text(p.expected)),
-                cell(&self.output_text(p.measured)),
-                cell(&self.output_error_text(p.error)),
-                display::signed(p.error_pct, 2),
-                if p.pass { "pass" } else { "**FAIL**" }
-            ));
-        }
-        md.push('\n');
-        md.push_str(&format!("**{}**\n\n", cell(&self.summary())));
-        md.push_str(if self.adjusted {
-            "Adjustment made during this visit.\n"
-        } else {
-            "No adjustment made.\n"
-        });
-        match &self.reference {
-            Some(r) => {
-                let accuracy = match r.accuracy {
-                    Accuracy::PercentOfSpan(v) => format!("±{} % of span", display::fixed(v, 3)),
-                    Accuracy::Ma(v) => format!("±{} mA", display::fixed(v, 4)),
-                    Accuracy::Units(v) => format!("±{v} {}", cell(&self.input_unit)),
-                };
-                md.push_str(&format!(
-                    "Reference {} ({accuracy}, calibration due {})",
-                    cell(&r.id),
-                    r.calibration_due
-                ));
-                if let Some(tur) = self.tur {
-                    md.push_str(&format!(", TUR {}:1", display::fixed(tur, 1)));
-                }
-                md.push_str(".\n");
-            }
-            None => md.push_str("Reference instrument not recorded.\n"),
-        }
-        if !self.note.is_empty() {
-            md.push_str(&format!("Note: {}\n", cell(&self.note)));
-        }
-        md.push_str(&format!(
-            "{}\n",
-            cell(&leave::summary_of(self.before_leaving.as_ref()))
-        ));
-        for w in &self.warnings {
-            md.push_str(&format!("\n> Warning: {}\n", cell(&w.message())));
-        }
-        md
     }
 }
 
@@ -1020,12 +816,5 @@ mod tests {
             vec![Rising, Rising, Rising, Falling, Falling, Falling]
         );
         assert_eq!(directions_of(&[100.0, 50.0]), vec![Falling, Falling]);
-    }
-
-    #[test]
-    fn signed_numbers() {
-        assert_eq!(display::signed(0.01, 2), "+0.01");
-        assert_eq!(display::signed(-0.0001, 2), "0.00");
-        assert_eq!(display::signed(-0.5, 1), "-0.5");
     }
 }

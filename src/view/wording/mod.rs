@@ -1,0 +1,11 @@
+//! The words above the core, written once: the core returns numbers, codes and the
+//! limiting element; these turn them into the sentences the command line prints, the app
+//! shows, the log keeps and the report prints.
+//!
+//! - [`check`] — a loop check's verdict, log text, report section and warnings;
+//! - [`fault`] — the log text of a fault-finding session;
+//! - [`power`] — what limits a loop's voltage budget, and its HART verdict.
+
+pub mod check;
+pub mod fault;
+pub mod power;
