@@ -297,7 +297,7 @@ fn a_half_typed_tag_a_note_and_the_reference_survive_a_restart() {
             .set_note_text("Gland on JB-04 weeping".into());
         app.window
             .global::<CheckAdapter>()
-            .set_reference_text("Loop calibrator CAL-07, due 2027-03".into());
+            .set_reference_id("CAL-07".into());
         // As on close, or when Android pauses the app.
         app.save_now().unwrap();
     }
@@ -316,8 +316,8 @@ fn a_half_typed_tag_a_note_and_the_reference_survive_a_restart() {
             "Gland on JB-04 weeping"
         );
         assert_eq!(
-            app.window.global::<CheckAdapter>().get_reference_text(),
-            "Loop calibrator CAL-07, due 2027-03"
+            app.window.global::<CheckAdapter>().get_reference_id(),
+            "CAL-07"
         );
         // Once saved, the form is not brought back again.
         tags.invoke_save(form);

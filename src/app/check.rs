@@ -12,6 +12,7 @@ use crate::error::FieldError;
 use crate::leave::{self, LeaveList};
 use crate::store::StoreError;
 use crate::view::check::{check_for, result, view};
+use crate::view::reference::{self, ReferenceText};
 use slint::{ComponentHandle, Model, ModelRc, VecModel};
 use std::rc::Rc;
 
@@ -79,7 +80,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let a = w.global::<CheckAdapter>();
         {
             let mut s = st.borrow_mut();
-            s.ui.check.reference = a.get_reference_text().to_string();
+            collect_reference(&a, &mut s);
             s.ui.initials = a.get_initials_text().to_string();
         }
         let saved = save(&mut st.borrow_mut());
@@ -104,8 +105,53 @@ pub fn connect(window: &AppWindow, state: &Shared) {
             Err(e) => a.set_error_text(e.to_string().into()),
         }
     });
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_reference_edited(move || {
+        let Some(w) = weak.upgrade() else { return };
+        collect_reference(&w.global::<CheckAdapter>(), &mut st.borrow_mut());
+        show_reference(&w, &st.borrow());
+    });
     sync(&mut state.borrow_mut());
     update(window, &state.borrow(), &rows);
+}
+
+/// Copy the reference fields as typed into the state.
+fn collect_reference(a: &CheckAdapter<'_>, state: &mut AppState) {
+    state.ui.check.reference_id = a.get_reference_id().to_string();
+    state.ui.check.reference_accuracy = a.get_reference_accuracy().to_string();
+    state.ui.check.reference_due = a.get_reference_due().to_string();
+}
+
+/// The reference fields as the form holds them.
+fn reference_text(form: &super::state::CheckForm) -> ReferenceText<'_> {
+    ReferenceText {
+        id: &form.reference_id,
+        accuracy: &form.reference_accuracy,
+        due: &form.reference_due,
+    }
+}
+
+/// Copy the reference's TUR, warnings and any field that cannot be read in.
+fn show_reference(window: &AppWindow, state: &AppState) {
+    let a = window.global::<CheckAdapter>();
+    let Some(tag) = state.open_tag() else {
+        a.set_reference_tur("".into());
+        a.set_reference_warnings(model(Vec::new()));
+        a.set_reference_problem("".into());
+        a.set_has_reference_problem(false);
+        a.set_has_reference_tur(false);
+        return;
+    };
+    let v = reference::view(
+        &check_for(tag, stage(state), state.now().date_naive()),
+        reference_text(&state.ui.check),
+    );
+    a.set_has_reference_tur(!v.tur_text.is_empty());
+    a.set_has_reference_problem(!v.problem.is_empty());
+    a.set_reference_tur(v.tur_text.into());
+    a.set_reference_warnings(model(v.warnings.into_iter().map(Into::into).collect()));
+    a.set_reference_problem(v.problem.into());
 }
 
 fn stage_of(picked: super::CheckStage) -> Stage {
@@ -146,9 +192,8 @@ pub fn save(state: &mut AppState) -> Result<(CheckSaved, LeaveList), StoreError>
     let now = state.now();
     let form = &state.ui.check;
     let mut check = check_for(&record.tag, stage, now.date_naive());
-    let reference = form.reference.trim();
-    if !reference.is_empty() {
-        check = check.note(&format!("Reference: {reference}"));
+    if let Some(r) = reference::parse(reference_text(form), &check.input_unit())? {
+        check = check.reference(r);
     }
     let mut res = result(&check, &form.readings)?;
     res.left(&leave::items_of(&form.leave_ticked));
@@ -171,12 +216,15 @@ pub fn save(state: &mut AppState) -> Result<(CheckSaved, LeaveList), StoreError>
         },
     )?;
     let tag = record.tag.number.clone();
-    let reference = state.ui.check.reference.clone();
+    // The same reference is usually used for the as-left readings: keep it.
+    let old = std::mem::take(&mut state.ui.check);
     state.ui.check = super::state::CheckForm {
         tag,
         stage: Stage::AsLeft,
         readings: Vec::new(),
-        reference,
+        reference_id: old.reference_id,
+        reference_accuracy: old.reference_accuracy,
+        reference_due: old.reference_due,
         cautions_read: true,
         leave_ticked: Vec::new(),
     };
@@ -206,7 +254,10 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
         Stage::AsLeft => super::CheckStage::AsLeft,
         Stage::AsFound => super::CheckStage::AsFound,
     });
-    a.set_reference_text(form.reference.clone().into());
+    a.set_reference_id(form.reference_id.clone().into());
+    a.set_reference_accuracy(form.reference_accuracy.clone().into());
+    a.set_reference_due(form.reference_due.clone().into());
+    show_reference(window, state);
     a.set_initials_text(state.ui.initials.clone().into());
     show_leave(window, state);
     match state.open_tag() {

@@ -17,11 +17,13 @@ pub mod about;
 pub mod check;
 pub mod convert;
 pub mod fault;
+pub mod level;
 pub mod log;
 pub mod power;
 pub mod render;
 pub mod state;
 pub mod tags;
+pub mod units;
 
 use crate::journal::TagId;
 use crate::store::{FileStore, MemoryStore, Store, StoreError, TagRecord};
@@ -176,6 +178,8 @@ impl App {
         power::connect(&window, &state);
         fault::connect(&window, &state);
         check::connect(&window, &state);
+        units::connect(&window, &state);
+        level::connect(&window, &state);
         log::connect(&window, &state);
         about::connect(&window, &state);
         refresh_all(&window, &state.borrow());
@@ -227,9 +231,11 @@ impl App {
 }
 
 /// Every screen, in navigation order.
-pub const SCREENS: [Screen; 7] = [
+pub const SCREENS: [Screen; 9] = [
     Screen::Tags,
     Screen::Convert,
+    Screen::Units,
+    Screen::Level,
     Screen::Power,
     Screen::Fault,
     Screen::Check,
@@ -242,6 +248,8 @@ pub fn screen_name(screen: Screen) -> &'static str {
     match screen {
         Screen::Tags => "tags",
         Screen::Convert => "convert",
+        Screen::Units => "units",
+        Screen::Level => "level",
         Screen::Power => "power",
         Screen::Fault => "fault",
         Screen::Check => "check",
@@ -412,6 +420,8 @@ pub fn refresh_all(window: &AppWindow, state: &AppState) {
     power::refresh(window, state);
     fault::refresh(window, state);
     check::refresh(window, state);
+    units::refresh(window, state);
+    level::refresh(window, state);
     log::refresh(window, state);
     about::refresh(window, state);
 }
@@ -532,7 +542,9 @@ pub fn collect(window: &AppWindow, state: &mut AppState) {
     let log = window.global::<LogAdapter>();
     state.ui.log_note = log.get_note_text().to_string();
     let check = window.global::<CheckAdapter>();
-    state.ui.check.reference = check.get_reference_text().to_string();
+    state.ui.check.reference_id = check.get_reference_id().to_string();
+    state.ui.check.reference_accuracy = check.get_reference_accuracy().to_string();
+    state.ui.check.reference_due = check.get_reference_due().to_string();
     // Initials are typed on Log and on Check; the one that was changed is the one kept.
     let on_check = check.get_initials_text().to_string();
     let on_log = log.get_initials_text().to_string();

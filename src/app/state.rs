@@ -66,6 +66,93 @@ impl Default for ConvertState {
     }
 }
 
+/// The Units screen as the technician left it.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct UnitsForm {
+    /// The quantity picked (`pressure`, `temperature` …).
+    pub quantity: String,
+    /// The value as typed.
+    pub value: String,
+    /// The unit converted from.
+    pub from: String,
+    /// The unit converted to.
+    pub to: String,
+    /// The local atmosphere as typed (empty: the standard atmosphere).
+    pub atm: String,
+}
+
+impl Default for UnitsForm {
+    fn default() -> Self {
+        UnitsForm {
+            quantity: "pressure".to_string(),
+            value: "1".to_string(),
+            from: "bar".to_string(),
+            to: "psi".to_string(),
+            atm: String::new(),
+        }
+    }
+}
+
+/// The Level screen's fields as typed (names as on the command line's `level`).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct LevelForm {
+    /// The piping picked (`open`, `wet-leg` …).
+    pub piping: String,
+    /// Specific gravity of the liquid.
+    pub sg: String,
+    /// Level at the LRV, m.
+    pub min_m: String,
+    /// Level at the URV, m.
+    pub max_m: String,
+    /// Transmitter elevation, m.
+    pub tx_m: String,
+    /// Wet leg height, m.
+    pub leg_m: String,
+    /// Fill specific gravity.
+    pub fill_sg: String,
+    /// HP seal elevation, m.
+    pub hp_seal_m: String,
+    /// LP seal elevation, m.
+    pub lp_seal_m: String,
+    /// Upper liquid's specific gravity.
+    pub upper_sg: String,
+    /// Bottom tap elevation, m.
+    pub hp_tap_m: String,
+    /// Top tap elevation, m.
+    pub lp_tap_m: String,
+    /// Ports the other way round.
+    pub reversed: bool,
+    /// Pressure unit of the results.
+    pub unit: String,
+    /// A measured DP, for the level it means.
+    pub dp: String,
+}
+
+impl Default for LevelForm {
+    fn default() -> Self {
+        // LT-101's sump: 0–4.5 m of water, transmitter 0.6 m below the tap (demo values).
+        LevelForm {
+            piping: "open".to_string(),
+            sg: "1,0".to_string(),
+            min_m: "0".to_string(),
+            max_m: "4,5".to_string(),
+            tx_m: "-0,6".to_string(),
+            leg_m: String::new(),
+            fill_sg: String::new(),
+            hp_seal_m: String::new(),
+            lp_seal_m: String::new(),
+            upper_sg: String::new(),
+            hp_tap_m: String::new(),
+            lp_tap_m: String::new(),
+            reversed: false,
+            unit: "mbar".to_string(),
+            dp: String::new(),
+        }
+    }
+}
+
 /// The Power screen's fields as typed, so a half-typed budget survives.
 #[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
 #[serde(default)]
@@ -129,8 +216,14 @@ pub struct CheckForm {
     pub stage: Stage,
     /// Readings as typed, one per test point (empty: not read yet).
     pub readings: Vec<String>,
-    /// The reference instrument, as typed.
-    pub reference: String,
+    /// The reference instrument's id, as typed (`reference` in states saved before the
+    /// three fields, when it was one line of free text).
+    #[serde(alias = "reference")]
+    pub reference_id: String,
+    /// Its accuracy, as typed.
+    pub reference_accuracy: String,
+    /// Its calibration due date, as typed.
+    pub reference_due: String,
     /// The cautions were read for this check.
     pub cautions_read: bool,
     /// Ids of the before-you-leave items ticked so far (`crate::leave`).
@@ -143,7 +236,9 @@ impl Default for CheckForm {
             tag: String::new(),
             stage: Stage::AsFound,
             readings: Vec::new(),
-            reference: String::new(),
+            reference_id: String::new(),
+            reference_accuracy: String::new(),
+            reference_due: String::new(),
             cautions_read: false,
             leave_ticked: Vec::new(),
         }
@@ -184,6 +279,10 @@ pub struct UiState {
     pub initials: String,
     /// Check screen.
     pub check: CheckForm,
+    /// Units screen.
+    pub units: UnitsForm,
+    /// Level screen.
+    pub level: LevelForm,
     /// Folder handoff reports are written to (empty: the default).
     pub export_dir: String,
     /// The bundle file last typed for import.
@@ -212,6 +311,8 @@ impl Default for UiState {
             return_to: None,
             initials: String::new(),
             check: CheckForm::default(),
+            units: UnitsForm::default(),
+            level: LevelForm::default(),
             export_dir: String::new(),
             import_path: String::new(),
             demo_cleared: false,

@@ -182,7 +182,8 @@ pub(super) fn convert(args: ConvertArgs, out: &mut dyn Write) -> CliResult {
                 )
             })?;
             let target = units::lookup(to).ok_or_else(|| units::unknown_unit("to", to))?;
-            let (atm_pa, given) = atmosphere(args.atm.as_deref())?;
+            let (atm_pa, given) =
+                crate::view::units::atmosphere(args.atm.as_deref().unwrap_or(""))?;
             let v = units::convert_units_at(reading.value, from, target, atm_pa)?;
             let span_to =
                 units::convert_difference(crate::view::convert::value_span(&scale), from, target)?;
@@ -256,7 +257,7 @@ pub(super) fn convert(args: ConvertArgs, out: &mut dyn Write) -> CliResult {
         }
     }
     if let Some((atm_pa, given)) = atm {
-        lines.push(atmosphere_line(atm_pa, given));
+        lines.push(crate::view::units::atmosphere_line(atm_pa, given, "--atm"));
     }
     lines.push(format!(
         "status   {} — {}",
@@ -610,38 +611,21 @@ pub struct UnitsArgs {
     json: bool,
 }
 
-/// The atmosphere a conversion uses: the typed one, or the standard atmosphere.
-fn atmosphere(atm: Option<&str>) -> Result<(f64, bool), FieldError> {
-    match atm {
-        Some(text) => Ok((crate::number::parse_atmosphere("atm", text)?, true)),
-        None => Ok((units::STANDARD_ATMOSPHERE_PA, false)),
-    }
-}
-
-/// The line that says which atmosphere a gauge ↔ absolute conversion used.
-fn atmosphere_line(atm_pa: f64, given: bool) -> String {
-    if given {
-        format!(
-            "atmosphere {} kPa, as given",
-            display::significant(atm_pa / 1000.0, 6)
-        )
-    } else {
-        "atmosphere 101.325 kPa, the standard atmosphere (give --atm for the local one)".to_string()
-    }
-}
-
 pub(super) fn units(args: UnitsArgs, out: &mut dyn Write) -> CliResult {
-    let value = parse_number("value", &args.value)?;
-    let from = units::lookup(&args.from).ok_or_else(|| units::unknown_unit("from", &args.from))?;
-    let to = units::lookup(&args.to).ok_or_else(|| units::unknown_unit("to", &args.to))?;
-    let (atm_pa, given) = atmosphere(args.atm.as_deref())?;
-    let result = units::convert_units_at(value, from, to, atm_pa)?;
-    let crosses = units::crosses_reference(from, to);
+    let v = crate::view::units::view(crate::view::units::UnitsInput {
+        value: &args.value,
+        from: &args.from,
+        to: &args.to,
+        atm: args.atm.as_deref().unwrap_or(""),
+        atm_name: "--atm",
+    })?;
     if args.json {
-        let mut obj = json!({ "value": result, "unit": to.symbol, "atm_kpa": null });
-        if crosses {
+        let from = crate::view::units::unit_of("from", &args.from)?;
+        let to = crate::view::units::unit_of("to", &args.to)?;
+        let mut obj = json!({ "value": v.value, "unit": v.unit, "atm_kpa": null });
+        if let Some(atm_pa) = v.atm_pa {
             obj["atm_kpa"] = json!(atm_pa / 1000.0);
-            obj["atm_given"] = json!(given);
+            obj["atm_given"] = json!(v.atm_given);
         }
         for (key, unit) in [("from_note", from), ("to_note", to)] {
             if !unit.note.is_empty() {
@@ -650,16 +634,7 @@ pub(super) fn units(args: UnitsArgs, out: &mut dyn Write) -> CliResult {
         }
         return print_json(out, &obj);
     }
-    let mut lines = vec![format!("{} {}", display::significant(result, 7), to.symbol)];
-    for unit in [from, to] {
-        if !unit.note.is_empty() {
-            lines.push(format!("{}: {}", unit.symbol, unit.note));
-        }
-    }
-    if crosses {
-        lines.push(atmosphere_line(atm_pa, given));
-    }
-    print_lines(out, &lines)
+    print_lines(out, &v.lines())
 }
 
 /// `loopside status`

@@ -9,20 +9,19 @@ use super::calc::{LoopArgs, RangeArgs};
 use super::{print_json, print_lines, CliError, CliResult};
 use crate::action::check::{self as action, SensorInputs};
 use crate::caution::CAUTIONS;
-use crate::check::{Accuracy, Device, InputRange, LoopCheck, ReferenceInstrument, Stage};
+use crate::check::{Device, InputRange, LoopCheck, Stage};
 use crate::diagnose::measure::Measurement;
 use crate::diagnose::procedure::{self, Procedure, StepKind};
 use crate::diagnose::session::{Answer, AnswerSheet, Progress, Session};
 use crate::diagnose::Settings;
 use crate::error::FieldError;
 use crate::leave::{self, Item, LeaveList};
-use crate::number::{parse_in, parse_list, parse_quantity, parse_range};
+use crate::number::{parse_in, parse_list, parse_range};
 use crate::rtd::{RtdKind, Wiring};
 use crate::sensor::Sensor;
 use crate::store::Store;
 use crate::tag::Tag;
 use crate::thermocouple::TcType;
-use chrono::NaiveDate;
 use clap::Args;
 use std::io::{BufRead, Write};
 
@@ -214,14 +213,7 @@ fn save_target(which: &TagArgs) -> Result<(&str, crate::store::FileStore), CliEr
     Ok((number, which.data.open()?))
 }
 
-fn parse_date(field: &str, text: &str) -> Result<NaiveDate, FieldError> {
-    NaiveDate::parse_from_str(text.trim(), "%Y-%m-%d").map_err(|_| {
-        FieldError::new(
-            field,
-            format!("'{}' is not a date; write it as YYYY-MM-DD", text.trim()),
-        )
-    })
-}
+use crate::view::reference::parse_date;
 
 pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
     let tag = args.which.tag()?;
@@ -247,16 +239,14 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
             unit: unit.trim().to_string(),
         });
     }
-    if let (Some(id), Some(acc), Some(due)) = (
-        &args.reference_id,
-        &args.reference_accuracy,
-        &args.reference_due,
-    ) {
-        check = check.reference(ReferenceInstrument {
-            id: id.trim().to_string(),
-            accuracy: parse_accuracy(acc, &tag, args.input_unit.as_deref())?,
-            calibration_due: parse_date("reference-due", due)?,
-        });
+    let reference = crate::view::reference::ReferenceText {
+        id: args.reference_id.as_deref().unwrap_or(""),
+        accuracy: args.reference_accuracy.as_deref().unwrap_or(""),
+        due: args.reference_due.as_deref().unwrap_or(""),
+    };
+    let range_unit = args.input_unit.as_deref().unwrap_or(&tag.scale.unit);
+    if let Some(r) = crate::view::reference::parse(reference, range_unit)? {
+        check = check.reference(r);
     }
     let mut applied = parse_list("applied", &args.applied)?;
     let sensor = sensor_for_check(&args, &tag)?;
@@ -326,34 +316,6 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
         lines.push(saved.to_string());
     }
     print_lines(out, &lines)
-}
-
-/// Read a reference accuracy: a plain number or `%` is % of span; mA is mA; another unit
-/// of the tag's quantity is converted into the range (or input) unit.
-fn parse_accuracy(text: &str, tag: &Tag, input_unit: Option<&str>) -> Result<Accuracy, FieldError> {
-    let field = "reference-accuracy";
-    let (value, unit) = parse_quantity(field, text)?;
-    let value = value.abs();
-    Ok(match unit {
-        None => Accuracy::PercentOfSpan(value),
-        Some(u) if u.symbol == "%" => Accuracy::PercentOfSpan(value),
-        Some(u) if u.symbol == "mA" => Accuracy::Ma(value),
-        Some(u) if u.symbol == "A" => Accuracy::Ma(value * 1000.0),
-        Some(u) => {
-            let target = input_unit.unwrap_or(&tag.scale.unit);
-            let to = crate::units::lookup(target).ok_or_else(|| {
-                FieldError::new(
-                    field,
-                    format!(
-                        "give it in % of span or mA; the range unit '{target}' cannot be converted"
-                    ),
-                )
-            })?;
-            // An accuracy is a difference: only the factor applies (no atmosphere, no offset).
-            let v = crate::units::convert_difference(value, u, to).map_err(|e| e.renamed(field))?;
-            Accuracy::Units(v.abs())
-        }
-    })
 }
 
 /// `loopside diagnose`

@@ -8,11 +8,9 @@ use super::{print_json, print_lines, CliError, CliResult};
 use crate::cli::calc::ConductorArgs;
 use crate::display;
 use crate::error::FieldError;
-use crate::level::{self, LevelSetup, Mount, ZeroShift};
 use crate::number::{parse_in, parse_number};
 use crate::rtd::{ElementBuild, Rtd, RtdClass, RtdKind, Wiring};
 use crate::thermocouple::{self, TcClass, TcType};
-use crate::units;
 use clap::Args;
 use serde_json::json;
 use std::io::Write;
@@ -396,134 +394,52 @@ pub struct LevelArgs {
     json: bool,
 }
 
-fn required(value: &Option<String>, flag: &str, mount: &str) -> Result<f64, FieldError> {
-    match value {
-        Some(text) => parse_number(flag, text),
-        None => Err(FieldError::new(
-            flag,
-            format!("is needed for --mount {mount}"),
-        )),
-    }
-}
-
-fn optional(value: &Option<String>, flag: &str, default: f64) -> Result<f64, FieldError> {
-    match value {
-        Some(text) => parse_number(flag, text),
-        None => Ok(default),
-    }
+/// An optional flag's text, empty when not given.
+fn text(v: &Option<String>) -> &str {
+    v.as_deref().unwrap_or("")
 }
 
 impl LevelArgs {
-    fn setup(&self) -> Result<LevelSetup, FieldError> {
-        let sg = parse_number("sg", &self.sg)?;
-        let min_m = parse_in("min-m", &self.min_m, "m")?;
-        let max_m = parse_in("max-m", &self.max_m, "m")?;
-        let mount_name = self.mount.as_deref().unwrap_or("open");
-        let tx_m = optional(&self.tx_m, "tx-m", 0.0)?;
-        let mount = match mount_name {
-            "dry-leg" => Mount::DryLeg { tx_m },
-            "wet-leg" => Mount::WetLeg {
-                tx_m,
-                leg_m: required(&self.leg_m, "leg-m", mount_name)?,
-                fill_sg: required(&self.fill_sg, "fill-sg", mount_name)?,
-            },
-            "seals" => Mount::Seals {
-                hp_seal_m: optional(&self.hp_seal_m, "hp-seal-m", 0.0)?,
-                lp_seal_m: required(&self.lp_seal_m, "lp-seal-m", mount_name)?,
-                tx_m,
-                fill_sg: required(&self.fill_sg, "fill-sg", mount_name)?,
-            },
-            "open-seal" => Mount::OpenTankSeal {
-                hp_seal_m: optional(&self.hp_seal_m, "hp-seal-m", 0.0)?,
-                tx_m,
-                fill_sg: required(&self.fill_sg, "fill-sg", mount_name)?,
-            },
-            "interface" => Mount::Interface {
-                upper_sg: required(&self.upper_sg, "upper-sg", mount_name)?,
-                hp_tap_m: optional(&self.hp_tap_m, "hp-tap-m", 0.0)?,
-                lp_tap_m: required(&self.lp_tap_m, "lp-tap-m", mount_name)?,
-                tx_m,
-                fill_sg: required(&self.fill_sg, "fill-sg", mount_name)?,
-            },
-            _ => Mount::OpenTank { tx_m },
-        };
-        Ok(LevelSetup {
-            sg,
-            min_m,
-            max_m,
-            mount,
-            ports_swapped: self.reversed,
-        })
+    fn input(&self) -> crate::view::level::LevelInput<'_> {
+        crate::view::level::LevelInput {
+            piping: crate::view::level::Piping::from_name(self.mount.as_deref().unwrap_or("open")),
+            sg: &self.sg,
+            min_m: &self.min_m,
+            max_m: &self.max_m,
+            tx_m: text(&self.tx_m),
+            leg_m: text(&self.leg_m),
+            fill_sg: text(&self.fill_sg),
+            hp_seal_m: text(&self.hp_seal_m),
+            lp_seal_m: text(&self.lp_seal_m),
+            upper_sg: text(&self.upper_sg),
+            hp_tap_m: text(&self.hp_tap_m),
+            lp_tap_m: text(&self.lp_tap_m),
+            reversed: self.reversed,
+            unit: text(&self.unit),
+            dp: text(&self.dp),
+        }
     }
 }
 
 pub(super) fn level(args: LevelArgs, out: &mut dyn Write) -> CliResult {
-    let unit_text = args.unit.as_deref().unwrap_or("kPa");
-    // A plain or gauge pressure unit (a DP or a head is not absolute); checked here so that
-    // the message names --unit before any other field.
-    units::difference_from_pa(0.0, unit_text, "unit")?;
-    let unit = units::lookup(unit_text).map_or(unit_text, |u| u.symbol);
-    let setup = args.setup()?;
-    let ranging = level::range(&setup).map_err(as_flag)?;
-    let (lrv, urv, span) = ranging.in_unit(unit).map_err(as_flag)?;
-    let (zero, shift) = match ranging.zero {
-        ZeroShift::None => ("none", 0.0),
-        ZeroShift::Elevated { by_pa } => {
-            ("elevated", units::difference_from_pa(by_pa, unit, "unit")?)
-        }
-        ZeroShift::Suppressed { by_pa } => (
-            "suppressed",
-            units::difference_from_pa(by_pa, unit, "unit")?,
-        ),
-    };
-    let level_m = match &args.dp {
-        Some(text) => {
-            // A DP typed with its own unit is a difference: only the factor applies.
-            let dp_pa = match crate::number::parse_quantity("dp", text)? {
-                (dp, None) => units::difference_to_pa(dp, unit, "dp")?,
-                (dp, Some(typed)) => units::difference_to_pa(dp, typed.symbol, "dp")?,
-            };
-            Some(level::level_from_dp(&setup, dp_pa).map_err(as_flag)?)
-        }
-        None => None,
-    };
+    let r = crate::view::level::result(&args.input())?;
     if args.json {
         let mut obj = json!({
-            "mount": setup.mount.name(),
-            "lrv": lrv,
-            "urv": urv,
-            "span": span,
-            "unit": unit,
-            "zero": zero,
-            "zero_shift": shift,
-            "lrv_pa": ranging.lrv_pa,
-            "urv_pa": ranging.urv_pa,
-            "span_pa": ranging.span_pa,
+            "mount": r.mount,
+            "lrv": r.lrv,
+            "urv": r.urv,
+            "span": r.span,
+            "unit": r.unit,
+            "zero": r.zero,
+            "zero_shift": r.zero_shift,
+            "lrv_pa": r.lrv_pa,
+            "urv_pa": r.urv_pa,
+            "span_pa": r.span_pa,
         });
-        if let Some(h) = level_m {
+        if let Some(h) = r.level_m {
             obj["level_m"] = json!(h);
         }
         return print_json(out, &obj);
     }
-    let mut lines = vec![
-        format!("mount   {}", setup.mount.name()),
-        format!("LRV     {}", display::value(lrv, unit, span)),
-        format!("URV     {}", display::value(urv, unit, span)),
-        format!("span    {}", display::value(span, unit, span)),
-        match ranging.zero {
-            ZeroShift::None => "zero    zero-based (LRV = 0)".to_string(),
-            ZeroShift::Elevated { .. } => format!(
-                "zero    elevated zero by {} (LRV below 0)",
-                display::value(shift, unit, span)
-            ),
-            ZeroShift::Suppressed { .. } => format!(
-                "zero    suppressed zero by {} (LRV above 0)",
-                display::value(shift, unit, span)
-            ),
-        },
-    ];
-    if let Some(h) = level_m {
-        lines.push(format!("level   {} m", display::fixed(h, 3)));
-    }
-    print_lines(out, &lines)
+    print_lines(out, &r.lines())
 }

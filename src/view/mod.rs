@@ -10,10 +10,13 @@ pub mod check;
 pub mod convert;
 pub mod fault;
 pub mod leave;
+pub mod level;
 pub mod log;
 pub mod power;
+pub mod reference;
 pub mod sensor_calc;
 pub mod tag_sheet;
+pub mod units;
 pub mod wording;
 
 use crate::display;
