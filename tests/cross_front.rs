@@ -204,7 +204,10 @@ fn a_shift_at_brindlemoor_is_recorded_alike_from_the_desk_and_the_phone() {
         .map(|(ma, off): (&f64, f64)| format!("{:.2}", ma + off))
         .collect();
     state.ui.check.readings = readings.clone();
-    state.ui.check.reference = "loop calibrator LC-07".into();
+    // The loop calibrator BWR-CAL-07 (±0.004 mA, due mid-2027) reads the mA on both fronts.
+    state.ui.check.reference_id = "BWR-CAL-07".into();
+    state.ui.check.reference_accuracy = "0,004 mA".into();
+    state.ui.check.reference_due = "2027-06-30".into();
     state.ui.check.leave_ticked = Item::ALL.iter().map(|i| i.id().to_string()).collect();
     state.ui.initials = "gh".into();
     let tt412 = state.store.tag("TT-412").unwrap().tag.clone();
@@ -236,8 +239,12 @@ fn a_shift_at_brindlemoor_is_recorded_alike_from_the_desk_and_the_phone() {
         &ohms,
         "--measured",
         &readings.join(";"),
-        "--note",
-        "Reference: loop calibrator LC-07",
+        "--reference-id",
+        "BWR-CAL-07",
+        "--reference-accuracy",
+        "0,004 mA",
+        "--reference-due",
+        "2027-06-30",
         "--done",
         "all",
         "--save",
@@ -246,6 +253,11 @@ fn a_shift_at_brindlemoor_is_recorded_alike_from_the_desk_and_the_phone() {
     ]);
     let (d, a) = (desk.last(), last(&state));
     assert_eq!(a.payload.as_ref().unwrap()["sensor"]["kind"], "rtd");
+    assert_eq!(
+        a.payload.as_ref().unwrap()["reference"]["id"],
+        "BWR-CAL-07",
+        "the reference instrument is a structured part of the record on both fronts"
+    );
     same_record(&d, &a);
 
     // A fault-finding session on LT-101: 0 mA, 24 V at the supply, 0.1 V at the
