@@ -8,6 +8,7 @@
 use loopside::form::conductor::{parse_conductor, parse_temp_c};
 use loopside::form::loop_form::{ElementText, LoopForm};
 use loopside::form::range::{Bounds, CutoffOf, RangeForm, TransferChoice};
+use loopside::form::sensor::SensorForm;
 use loopside::form::{Field, FormError};
 use loopside::FieldError;
 use std::collections::BTreeSet;
@@ -166,6 +167,52 @@ fn the_conductor_form_names_its_fields() {
         }
     }
     let expected: BTreeSet<&str> = [Field::Conductor.name(), Field::ConductorTemp.name()].into();
+    assert_eq!(seen, expected);
+}
+
+#[test]
+fn the_sensor_form_names_its_fields() {
+    // A Pt100 with every other field bad in turn, then a type K likewise.
+    let mut seen = BTreeSet::new();
+    let pt100 = || SensorForm {
+        kind: "Pt100".into(),
+        ..SensorForm::default()
+    };
+    let type_k = || SensorForm {
+        kind: "type K".into(),
+        ..SensorForm::default()
+    };
+    for bad in BAD {
+        for form in [
+            SensorForm {
+                kind: bad.to_string(),
+                ..SensorForm::default()
+            },
+            SensorForm {
+                wiring: bad.to_string(),
+                ..pt100()
+            },
+            SensorForm {
+                lead_ohms: bad.to_string(),
+                ..pt100()
+            },
+            SensorForm {
+                cold_junction: bad.to_string(),
+                ..type_k()
+            },
+        ] {
+            if let Err(e) = form.parse() {
+                named(e, &mut seen);
+            }
+        }
+    }
+    let expected: BTreeSet<&str> = [
+        Field::Sensor.name(),
+        Field::Wiring.name(),
+        Field::LeadOhms.name(),
+        Field::ColdJunction.name(),
+    ]
+    .into();
     assert_eq!(seen, expected);
 }
 

@@ -6,13 +6,12 @@ use super::note::{entry_json, entry_line};
 use super::{print_json, print_lines, CliError, CliResult};
 use crate::action::tag as action;
 use crate::error::FieldError;
+use crate::form::{Field, FormError};
 use crate::journal::{closed_follow_ups, is_open, Entry};
 use crate::number::parse_in;
-use crate::rtd::{RtdKind, Wiring};
 use crate::sensor::Sensor;
 use crate::store::{FileStore, Store, TagRecord};
 use crate::tag::Tag;
-use crate::thermocouple::TcType;
 use clap::{Args, Subcommand};
 use serde_json::json;
 use std::io::Write;
@@ -96,54 +95,34 @@ pub struct DescribeArgs {
 impl DescribeArgs {
     /// The sensor the flags describe: `Ok(None)` when none was given.
     fn sensor(&self) -> Result<Option<Sensor>, FieldError> {
-        if let Some(kind) = &self.rtd {
-            let element = kind.parse::<RtdKind>().map_err(|e| e.renamed("rtd"))?;
-            let wiring = match &self.wires {
-                Some(w) => {
-                    let n = crate::number::parse_number("wires", w)?;
-                    if n.fract() != 0.0 || !(2.0..=4.0).contains(&n) {
-                        return Err(FieldError::new(
-                            "wires",
-                            format!("{} is not an RTD connection; use 2, 3 or 4", w.trim()),
-                        ));
-                    }
-                    Wiring::from_count(n as u32).map_err(|e| e.renamed("wires"))?
-                }
-                None => Wiring::ThreeWire,
+        use crate::form::sensor::{parse_kind, SensorForm, SensorKind};
+        // The flag says which family is meant; the form reads the rest.
+        let (kind, family_ok) = match (&self.rtd, &self.tc) {
+            (Some(k), _) => (k, matches!(parse_kind(k), Ok(SensorKind::Rtd(_)))),
+            (None, Some(k)) => (k, matches!(parse_kind(k), Ok(SensorKind::Thermocouple(_)))),
+            (None, None) => return Ok(None),
+        };
+        if !family_ok {
+            let want = if self.rtd.is_some() {
+                "pt100, pt500 or pt1000"
+            } else {
+                "B, E, J, K, N, R, S or T"
             };
-            let lead_ohms = match &self.lead_ohms {
-                Some(r) => parse_in("lead-ohms", r, "Ω")?,
-                None => 0.0,
-            };
-            if !(lead_ohms >= 0.0 && lead_ohms.is_finite()) {
-                return Err(FieldError::new(
-                    "lead-ohms",
-                    format!("must be 0 Ω or more, got {lead_ohms}"),
-                ));
-            }
-            return Ok(Some(Sensor::Rtd {
-                element,
-                wiring,
-                lead_ohms,
-            }));
+            return Err(FormError::new(
+                Field::Sensor,
+                format!("'{}' is not one of {want}", kind.trim()),
+            )
+            .on_command_line());
         }
-        if let Some(kind) = &self.tc {
-            let tc = kind.parse::<TcType>().map_err(|e| e.renamed("tc"))?;
-            let cj_c = match &self.cj_c {
-                Some(t) => parse_in("cj-c", t, "°C")?,
-                None => 20.0,
-            };
-            if !(-50.0..=100.0).contains(&cj_c) {
-                return Err(FieldError::new(
-                    "cj-c",
-                    format!(
-                        "{cj_c} °C is not a transmitter's terminal temperature; give −50 to 100 °C"
-                    ),
-                ));
-            }
-            return Ok(Some(Sensor::Thermocouple { tc, cj_c }));
+        let text = |t: &Option<String>| t.clone().unwrap_or_default();
+        SensorForm {
+            kind: kind.clone(),
+            wiring: text(&self.wires),
+            lead_ohms: text(&self.lead_ohms),
+            cold_junction: text(&self.cj_c),
         }
-        Ok(None)
+        .parse()
+        .map_err(FormError::on_command_line)
     }
 
     fn apply(&self, tag: &mut Tag) -> Result<(), FieldError> {

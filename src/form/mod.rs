@@ -5,6 +5,7 @@
 //! - [`range`] — LRV, URV, unit, signal span and transfer;
 //! - [`loop_form`] — supply, sag, transmitter minimum, fault current, series elements, cable;
 //! - [`conductor`] — conductor size and temperature;
+//! - [`sensor`] — the temperature sensor (RTD and its wiring, or thermocouple and cold junction);
 //! - [`field`] — the one table of field names every form error uses.
 //!
 //! Each parser returns a [`FormError`] naming a [`Field`]; the screens show its name, the
@@ -14,5 +15,6 @@ pub mod conductor;
 pub mod field;
 pub mod loop_form;
 pub mod range;
+pub mod sensor;
 
 pub use field::{Field, FormError};

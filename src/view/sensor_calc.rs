@@ -5,9 +5,10 @@
 
 use crate::display;
 use crate::error::{FieldError, Result};
+use crate::form::sensor::{parse_kind, SensorKind};
 use crate::number::{parse_in, parse_number};
-use crate::rtd::{Rtd, RtdKind};
-use crate::thermocouple::{self, TcType};
+use crate::rtd::Rtd;
+use crate::thermocouple;
 
 /// The calculator as typed.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -41,31 +42,6 @@ pub struct CalcView {
     pub error_text: String,
 }
 
-enum Kind {
-    Rtd(RtdKind),
-    Tc(TcType),
-}
-
-fn sensor_of(text: &str) -> Result<Kind> {
-    let t = text.trim();
-    let bare = t
-        .trim_start_matches("type")
-        .trim_start_matches("Type")
-        .trim();
-    if let Ok(k) = t.parse::<RtdKind>() {
-        return Ok(Kind::Rtd(k));
-    }
-    if let Ok(tc) = bare.parse::<TcType>() {
-        return Ok(Kind::Tc(tc));
-    }
-    Err(FieldError::new(
-        "sensor",
-        format!(
-            "'{t}' is not a sensor; type Pt100, Pt500 or Pt1000, or a thermocouple type (B, E, J, K, N, R, S, T)"
-        ),
-    ))
-}
-
 /// Work out the other field.
 pub fn view(input: &CalcInput) -> CalcView {
     let mut v = CalcView {
@@ -91,9 +67,10 @@ pub fn view(input: &CalcInput) -> CalcView {
 }
 
 fn fill(input: &CalcInput, from_temp: bool, v: &mut CalcView) -> Result<()> {
-    let kind = sensor_of(&input.sensor)?;
+    // The one sensor-kind reader (the command line's --rtd/--tc use it too).
+    let kind = parse_kind(&input.sensor).map_err(|e| FieldError::new(e.field.name(), e.reason))?;
     match kind {
-        Kind::Rtd(k) => {
+        SensorKind::Rtd(k) => {
             let rtd = Rtd::standard(k);
             v.note = format!(
                 "{}, IEC 60751 (Callendar–Van Dusen), −200 to 850 °C",
@@ -112,7 +89,7 @@ fn fill(input: &CalcInput, from_temp: bool, v: &mut CalcView) -> Result<()> {
                 v.temp_c = display::fixed(t, 2);
             }
         }
-        Kind::Tc(tc) => {
+        SensorKind::Thermocouple(tc) => {
             v.thermocouple = true;
             v.signal_unit = "mV".to_string();
             let cj = if input.cold_junction.trim().is_empty() {
