@@ -410,3 +410,29 @@ fn the_log_and_its_hand_over_start_when_the_technician_says() {
     assert!(log.get_since_error().starts_with("since"));
     assert_eq!(whens(&log).len(), everything.len());
 }
+
+#[test]
+fn the_conductor_on_power_is_picked_from_a_list() {
+    // LT-101's loop (demo plant) is entered with its cable; on Power the technician picks
+    // the conductor size rather than typing it, and an uncommon size stays on the list.
+    let app = app();
+    app.show_screen(Screen::Power);
+    let picker = with_role(&app, "Conductor", AccessibleRole::Combobox);
+    let power = app.window.global::<loopside::app::PowerAdapter>();
+    let sizes: Vec<String> = slint::Model::iter(&power.get_cable_sizes())
+        .map(|s| s.to_string())
+        .collect();
+    assert_eq!(sizes[0], "no cable");
+    assert!(sizes.contains(&"AWG 18".to_string()), "{sizes:?}");
+    let shown = picker.accessible_value().unwrap_or_default().to_string();
+    let index = usize::try_from(power.get_cable_size_index()).unwrap();
+    assert_eq!(shown, sizes[index], "the picker shows the loop's own size");
+    // Picking AWG 18 is what the loop then uses.
+    let awg18 = sizes.iter().position(|s| s == "AWG 18").unwrap();
+    power.invoke_cable_size_picked(i32::try_from(awg18).unwrap());
+    assert_eq!(app.state.borrow().ui.power.cable_size, "AWG 18");
+    assert_eq!(power.get_cable_size_index(), i32::try_from(awg18).unwrap());
+    // "no cable" leaves the size empty.
+    power.invoke_cable_size_picked(0);
+    assert_eq!(app.state.borrow().ui.power.cable_size, "");
+}

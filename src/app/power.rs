@@ -6,6 +6,7 @@ use super::{model, navigate, AppState, AppWindow, PowerAdapter, Screen, Shared};
 use crate::budget::{ElementKind, LoopConfig, DEFAULT_FAULT_MA};
 use crate::display;
 use crate::error::{FieldError, Result};
+use crate::form::conductor;
 use crate::form::loop_form::{ElementText, LoopForm};
 use crate::form::{Field, FormError};
 use crate::store::StoreError;
@@ -29,11 +30,22 @@ pub fn connect(window: &AppWindow, state: &Shared) {
                 "tx-min" => f.tx_min = text,
                 "fault" => f.fault = text,
                 "cable-m" => f.cable_m = text,
-                "cable-size" => f.cable_size = text,
                 _ => {}
             }
         }
         update(&w, &st.borrow());
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_cable_size_picked(move |i| {
+        let Some(w) = weak.upgrade() else { return };
+        {
+            let mut s = st.borrow_mut();
+            let f = &mut s.ui.power;
+            let sizes = conductor::choices(&f.cable_size);
+            f.cable_size = conductor::picked(&sizes, usize::try_from(i).unwrap_or(0));
+        }
+        refresh(&w, &st.borrow());
     });
     let weak = window.as_weak();
     let st = state.clone();
@@ -237,7 +249,9 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     adapter
         .set_fault_placeholder(format!("{} (default)", display::fixed(DEFAULT_FAULT_MA, 1)).into());
     adapter.set_cable_m_text(f.cable_m.clone().into());
-    adapter.set_cable_size_text(f.cable_size.clone().into());
+    let sizes = conductor::choices(&f.cable_size);
+    adapter.set_cable_sizes(model(sizes.options.into_iter().map(Into::into).collect()));
+    adapter.set_cable_size_index(i32::try_from(sizes.current).unwrap_or(0));
     adapter.set_elements(element_rows(&f.elements));
     adapter.set_hart(f.hart);
     update(window, state);

@@ -19,6 +19,51 @@ pub const COMMON_SIZES: [Conductor; 9] = [
     Conductor::Awg(16),
 ];
 
+/// The words of the picker's first option: no cable entered (the budget then has no
+/// cable resistance of its own).
+pub const NO_CABLE: &str = "no cable";
+
+/// What a conductor picker offers: [`NO_CABLE`], then [`COMMON_SIZES`], then the size the
+/// loop already has when it is none of those (an imported 0.22 mm² stays on the list
+/// instead of being replaced), and which one is picked.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct ConductorChoices {
+    /// The options, in words.
+    pub options: Vec<String>,
+    /// The one picked.
+    pub current: usize,
+}
+
+/// The picker for a conductor size as the form holds it (`""` is [`NO_CABLE`]).
+pub fn choices(current: &str) -> ConductorChoices {
+    let mut options: Vec<String> = std::iter::once(NO_CABLE.to_string())
+        .chain(COMMON_SIZES.iter().map(|c| c.label()))
+        .collect();
+    let current = if current.trim().is_empty() {
+        0
+    } else {
+        let label = parse_conductor(current)
+            .map(|c| c.label())
+            .unwrap_or_else(|_| current.trim().to_string());
+        match options.iter().position(|o| *o == label) {
+            Some(i) => i,
+            None => {
+                options.push(label);
+                options.len() - 1
+            }
+        }
+    };
+    ConductorChoices { options, current }
+}
+
+/// The form's text for option `index` of [`choices`] (`""` for [`NO_CABLE`]).
+pub fn picked(choices: &ConductorChoices, index: usize) -> String {
+    match choices.options.get(index) {
+        Some(o) if index > 0 => o.clone(),
+        _ => String::new(),
+    }
+}
+
 /// Read a conductor size as typed: `1.0 mm²`, `1,5 mm2`, `1.5` (mm²), `18 AWG`, `AWG 18`,
 /// `2/0 awg`.
 pub fn parse_conductor(text: &str) -> Result<Conductor, FormError> {
@@ -63,6 +108,20 @@ pub fn parse_temp_c(text: &str) -> Result<f64, FormError> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn the_picker_keeps_an_uncommon_size_and_offers_no_cable() {
+        let c = choices("1.0 mm²");
+        assert_eq!(c.options[c.current], "1 mm²");
+        assert_eq!(c.options[0], NO_CABLE);
+        assert_eq!(picked(&c, 0), "");
+        assert_eq!(parse_conductor(&picked(&c, 7)).unwrap(), Conductor::Awg(20));
+        // A 0.22 mm² pair from an imported tag stays on the list, picked.
+        let odd = choices("0,22 mm2");
+        assert_eq!(odd.options.len(), COMMON_SIZES.len() + 2);
+        assert_eq!(odd.options[odd.current], "0.22 mm²");
+        assert_eq!(choices("").current, 0);
+    }
 
     #[test]
     fn sizes_as_technicians_write_them() {
