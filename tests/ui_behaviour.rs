@@ -279,7 +279,15 @@ fn a_new_tag_is_entered_with_its_whole_loop() {
     field(&app, "Element 2 name").set_accessible_value("Barrier");
     field(&app, "Barrier").set_accessible_value("8");
     field(&app, "Cable, one way").set_accessible_value("220");
-    field(&app, "Conductor").set_accessible_value("18 AWG");
+    // The conductor is picked from the list of common sizes, not typed.
+    let tags = app.window.global::<loopside::app::TagsAdapter>();
+    let sizes: Vec<String> = slint::Model::iter(&tags.get_form().cable_sizes)
+        .map(|s| s.to_string())
+        .collect();
+    with_role(&app, "Conductor", AccessibleRole::Combobox);
+    let awg18 = sizes.iter().position(|s| s == "AWG 18").unwrap();
+    tags.invoke_pick_conductor(i32::try_from(awg18).unwrap());
+    assert_eq!(tags.get_form().cable_size, "AWG 18");
     with_role(&app, "HART on this loop", AccessibleRole::Checkbox)
         .invoke_accessible_default_action();
     button(&app, "Save").invoke_accessible_default_action();
@@ -300,6 +308,10 @@ fn a_new_tag_is_entered_with_its_whole_loop() {
     let names: Vec<_> = c.elements.iter().map(|e| e.name.as_str()).collect();
     assert_eq!(names, ["Card input", "Barrier"]);
     assert_eq!(c.cable.unwrap().one_way_m, 220.0);
+    assert_eq!(
+        c.cable.unwrap().conductor,
+        loopside::wire::Conductor::Awg(18)
+    );
     drop(state);
     // Power works on the loop as entered, HART verdict included.
     app.show_screen(Screen::Power);

@@ -8,6 +8,7 @@ use super::{
 use crate::budget::LoopConfig;
 use crate::display;
 use crate::error::{FieldError, Result};
+use crate::form::conductor;
 use crate::form::range::{
     choice_from_words, cutoff_text, Bounds, CutoffOf, RangeForm, TransferChoice,
 };
@@ -97,6 +98,16 @@ pub fn connect(window: &AppWindow, state: &Shared) {
                 e.remove(i);
             }
         })
+    });
+    let weak = window.as_weak();
+    adapter.on_pick_conductor(move |i| {
+        let Some(w) = weak.upgrade() else { return };
+        let a = w.global::<TagsAdapter>();
+        let mut form = a.get_form();
+        let sizes = conductor::choices(form.cable_size.as_str());
+        let size = conductor::picked(&sizes, usize::try_from(i).unwrap_or(0));
+        set_conductor(&mut form, &size);
+        a.set_form(form);
     });
     let weak = window.as_weak();
     adapter.on_pick_transfer(move |i| {
@@ -320,6 +331,14 @@ pub fn restore_draft(window: &AppWindow, state: &AppState) {
     }
 }
 
+/// The form's conductor and its picker (the common sizes, and this size when it is another).
+fn set_conductor(f: &mut super::TagForm, size: &str) {
+    let sizes = conductor::choices(size);
+    f.cable_size = size.into();
+    f.cable_size_index = i32::try_from(sizes.current).unwrap_or(0);
+    f.cable_sizes = super::model(sizes.options.into_iter().map(Into::into).collect());
+}
+
 /// The form's loop fields set from a Power form (the two share the loop's wording).
 fn with_loop(mut f: super::TagForm, p: &PowerForm) -> super::TagForm {
     f.supply = p.supply.clone().into();
@@ -327,7 +346,7 @@ fn with_loop(mut f: super::TagForm, p: &PowerForm) -> super::TagForm {
     f.tx_min = p.tx_min.clone().into();
     f.fault = p.fault.clone().into();
     f.cable_m = p.cable_m.clone().into();
-    f.cable_size = p.cable_size.clone().into();
+    set_conductor(&mut f, &p.cable_size);
     f.elements = super::power::element_rows(&p.elements);
     f.hart = p.hart;
     f
