@@ -158,6 +158,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         match result {
             Ok(()) => {
                 a.set_editing(false);
+                clear_error(&a);
                 st.borrow_mut().ui.tag_draft = None;
                 refresh_all(&w, &st.borrow());
             }
@@ -845,6 +846,45 @@ mod tests {
         // And the draft as now written reads back the same.
         let again = form_of_draft(&draft_of(&f, true));
         assert_eq!((again.transfer, again.cutoff), (f.transfer, f.cutoff));
+    }
+
+    #[test]
+    fn a_table_shows_as_rows_and_reads_back_the_same() {
+        // LT-140: level 0–2 m read as volume through a horizontal tank's table (r = 1 m,
+        // L = 5 m; circular-segment volumes worked by hand: 1 m → 7.854 m³, 2 m → 15.708 m³).
+        let mut f = form("LT-140", "0");
+        f.urv = "2".into();
+        f.transfer = TransferChoice::Table.index();
+        f.table_rows = table_rows(&[
+            ("0".into(), "0".into()),
+            ("1".into(), "7,854".into()),
+            ("2".into(), "15,708".into()),
+        ]);
+        f.table_unit = "m³".into();
+        let tag = tag_from_form(&f, None).unwrap();
+        let back = form_of(&tag);
+        assert!(back.table_shown && !back.cutoff_shown);
+        assert_eq!(
+            table_rows_of(&back.table_rows),
+            [("0", "0"), ("1", "7.854"), ("2", "15.708")]
+                .map(|(i, o)| (i.to_string(), o.to_string()))
+        );
+        assert_eq!(tag_from_form(&back, Some(&tag)).unwrap(), tag);
+        // The draft keeps the rows; a draft from before the table editor has none.
+        let again = form_of_draft(&draft_of(&f, true));
+        assert_eq!(
+            table_rows_of(&again.table_rows),
+            table_rows_of(&f.table_rows)
+        );
+        assert_eq!(again.table_unit, "m³");
+        let old: TagDraft =
+            serde_json::from_str(r#"{"is_new": true, "number": "LT-140", "transfer": "linear"}"#)
+                .unwrap();
+        assert!(old.table_rows.is_empty());
+        // A bad row names its row (from 0) for the editor to outline.
+        f.table_rows = table_rows(&[("0".into(), "0".into()), ("1".into(), "lots".into())]);
+        assert_eq!(table_error_row(&f), 1);
+        assert_eq!(tag_from_form(&f, None).unwrap_err().field, "table");
     }
 
     #[test]
