@@ -536,7 +536,6 @@ pub fn range_form_of(f: &super::TagForm, base: Option<&Tag>) -> RangeForm {
         signal: base
             .map(|b| format!("{}..{}", b.scale.signal.low_ma, b.scale.signal.high_ma))
             .unwrap_or_default(),
-        ..Default::default()
     }
 }
 
