@@ -203,6 +203,10 @@ pub struct TagDraft {
     pub tolerance: String,
     /// The loop, in the same fields as on Power.
     pub loop_form: PowerForm,
+    /// The characterisation table's rows as typed, (input, output); older drafts have none.
+    pub table_rows: Vec<(String, String)>,
+    /// The characterisation table's output unit as typed.
+    pub table_unit: String,
 }
 
 /// The Check screen as the technician left it: an unfinished check survives a restart.

@@ -10,7 +10,7 @@ use crate::display;
 use crate::error::{FieldError, Result};
 use crate::form::conductor;
 use crate::form::range::{
-    choice_from_words, cutoff_text, Bounds, CutoffOf, RangeForm, TransferChoice,
+    choice_from_words, cutoff_text, parse_table, Bounds, CutoffOf, RangeForm, TransferChoice,
 };
 use crate::form::{Field, FormError};
 use crate::journal::{Entry, TagId};
@@ -18,7 +18,7 @@ use crate::number::parse_number;
 use crate::scale::Transfer;
 use crate::store::StoreError;
 use crate::tag::{clean_number, Tag};
-use slint::ComponentHandle;
+use slint::{ComponentHandle, Model};
 use std::collections::HashMap;
 
 /// Wire the adapter's callbacks.
@@ -53,6 +53,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         a.set_is_new(true);
         a.set_editing(true);
         clear_error(&a);
+        show_curve(&a);
     });
     let weak = window.as_weak();
     let st = state.clone();
@@ -64,6 +65,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
             a.set_is_new(false);
             a.set_editing(true);
             clear_error(&a);
+            show_curve(&a);
         }
     });
     let weak = window.as_weak();
@@ -116,7 +118,38 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let mut form = a.get_form();
         form.transfer = TransferChoice::from_index(i).index();
         form.cutoff_shown = cutoff_shown(form.transfer);
+        form.table_shown = table_shown(form.transfer);
+        // A table picked with no rows yet: two empty rows to type into (a table has at
+        // least two points).
+        if form.table_shown && form.table_rows.row_count() == 0 {
+            form.table_rows = table_rows(&[Default::default(), Default::default()]);
+        }
         a.set_form(form);
+        show_curve(&a);
+    });
+    let weak = window.as_weak();
+    adapter.on_table_input_edited(move |i, text| {
+        edit_table_row(&weak, i, |row| row.input = text.clone())
+    });
+    let weak = window.as_weak();
+    adapter.on_table_output_edited(move |i, text| {
+        edit_table_row(&weak, i, |row| row.output = text.clone())
+    });
+    let weak = window.as_weak();
+    adapter.on_add_table_row(move || edit_table(&weak, |rows| rows.push(Default::default())));
+    let weak = window.as_weak();
+    adapter.on_remove_table_row(move |i| {
+        edit_table(&weak, |rows| {
+            if let Some(i) = usize::try_from(i).ok().filter(|&i| i < rows.len()) {
+                rows.remove(i);
+            }
+        })
+    });
+    let weak = window.as_weak();
+    adapter.on_table_changed(move || {
+        if let Some(w) = weak.upgrade() {
+            show_curve(&w.global::<TagsAdapter>());
+        }
     });
     let weak = window.as_weak();
     let st = state.clone();
@@ -136,6 +169,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         match result {
             Ok(()) => {
                 a.set_editing(false);
+                clear_error(&a);
                 st.borrow_mut().ui.tag_draft = None;
                 refresh_all(&w, &st.borrow());
             }
@@ -148,6 +182,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
                 let row = read_loop(&form).err().map_or(-1, |e| super::error_row(&e));
                 a.set_error_field(super::form_field(&field));
                 a.set_error_row(row);
+                a.set_table_error_row(table_error_row(&form));
                 a.set_error_text(text.into());
             }
         }
@@ -158,7 +193,118 @@ pub fn connect(window: &AppWindow, state: &Shared) {
 fn clear_error(a: &TagsAdapter) {
     a.set_error_field(super::FormField::None);
     a.set_error_row(-1);
+    a.set_table_error_row(-1);
     a.set_error_text("".into());
+}
+
+/// The table editor is shown when the table is the transfer picked.
+fn table_shown(transfer: i32) -> bool {
+    TransferChoice::from_index(transfer) == TransferChoice::Table
+}
+
+/// The table's rows as the form shows them.
+pub fn table_rows(rows: &[(String, String)]) -> slint::ModelRc<super::TableRow> {
+    model(
+        rows.iter()
+            .map(|(input, output)| super::TableRow {
+                input: input.clone().into(),
+                output: output.clone().into(),
+            })
+            .collect(),
+    )
+}
+
+/// The table's rows as typed, (input, output).
+pub fn table_rows_of(rows: &slint::ModelRc<super::TableRow>) -> Vec<(String, String)> {
+    rows.iter()
+        .map(|r| (r.input.to_string(), r.output.to_string()))
+        .collect()
+}
+
+/// The table's rows as the range form's `IN:OUT` text (`0:0; 1:5,1`), empty when the form
+/// has no rows. Rows are joined with `;` so a decimal comma stays inside its number.
+fn table_text(rows: &[(String, String)]) -> String {
+    rows.iter()
+        .map(|(input, output)| format!("{}:{}", input.trim(), output.trim()))
+        .collect::<Vec<_>>()
+        .join("; ")
+}
+
+/// The table row a save error names (-1 when the table is not picked or reads well).
+fn table_error_row(form: &super::TagForm) -> i32 {
+    if !table_shown(form.transfer) {
+        return -1;
+    }
+    let rows = table_rows_of(&form.table_rows);
+    if rows.is_empty() {
+        return -1;
+    }
+    parse_table(&table_text(&rows), &form.table_unit)
+        .err()
+        .map_or(-1, |e| super::error_row(&e))
+}
+
+/// Work the table's curve out again from the form's rows as typed.
+fn show_curve(a: &TagsAdapter) {
+    let form = a.get_form();
+    let c = crate::view::table::curve(
+        &table_rows_of(&form.table_rows),
+        &form.unit,
+        &form.table_unit,
+    );
+    let dots = |points: &[crate::view::table::PlotPoint]| {
+        model(
+            points
+                .iter()
+                .map(|p| super::CurveDot {
+                    x: p.x as f32,
+                    y: p.y as f32,
+                })
+                .collect(),
+        )
+    };
+    a.set_table_curve(super::CurveData {
+        points: dots(&c.points),
+        trace: dots(&c.trace),
+        input_low: c.input_low.into(),
+        input_high: c.input_high.into(),
+        output_low: c.output_low.into(),
+        output_high: c.output_high.into(),
+        description: c.description.into(),
+    });
+}
+
+/// Change one table row in place (the row's fields keep their focus while typing), then
+/// draw the curve again.
+fn edit_table_row(
+    weak: &slint::Weak<AppWindow>,
+    i: i32,
+    change: impl FnOnce(&mut super::TableRow),
+) {
+    let Some(w) = weak.upgrade() else { return };
+    let a = w.global::<TagsAdapter>();
+    let rows = a.get_form().table_rows;
+    let Some(i) = usize::try_from(i).ok() else {
+        return;
+    };
+    if let Some(mut row) = rows.row_data(i) {
+        change(&mut row);
+        rows.set_row_data(i, row);
+    }
+    show_curve(&a);
+}
+
+/// Change the form's table rows (add, remove): read the form back, change the rows, set it
+/// again, draw the curve again.
+fn edit_table(weak: &slint::Weak<AppWindow>, change: impl FnOnce(&mut Vec<(String, String)>)) {
+    let Some(w) = weak.upgrade() else { return };
+    let a = w.global::<TagsAdapter>();
+    let mut form = a.get_form();
+    let mut rows = table_rows_of(&form.table_rows);
+    change(&mut rows);
+    form.table_rows = table_rows(&rows);
+    a.set_form(form);
+    show_curve(&a);
 }
 
 /// The cutoff field is shown for a square root only.
@@ -270,11 +416,29 @@ pub fn form_of(tag: &Tag) -> super::TagForm {
             transfer,
             cutoff: cutoff_text(&tag.scale.transfer).into(),
             cutoff_shown: cutoff_shown(transfer),
+            table_rows: table_rows(&table_rows_of_tag(tag)),
+            table_unit: match &tag.scale.transfer {
+                Transfer::Table(t) => t.output_unit().into(),
+                _ => "".into(),
+            },
+            table_shown: table_shown(transfer),
             tolerance: crate::display::trimmed(tag.tolerance_percent).into(),
             ..Default::default()
         },
         &loop_part,
     )
+}
+
+/// A tag's characterisation table as rows the form shows (none for another transfer).
+fn table_rows_of_tag(tag: &Tag) -> Vec<(String, String)> {
+    match &tag.scale.transfer {
+        Transfer::Table(t) => t
+            .points()
+            .iter()
+            .map(|p| (display::trimmed(p.input), display::trimmed(p.output)))
+            .collect(),
+        _ => Vec::new(),
+    }
 }
 
 /// The form as typed, to be saved with the screen state.
@@ -291,6 +455,8 @@ pub fn draft_of(f: &super::TagForm, is_new: bool) -> TagDraft {
         cutoff: f.cutoff.to_string(),
         tolerance: f.tolerance.to_string(),
         loop_form: loop_form_of(f),
+        table_rows: table_rows_of(&f.table_rows),
+        table_unit: f.table_unit.to_string(),
     }
 }
 
@@ -314,6 +480,9 @@ pub fn form_of_draft(d: &TagDraft) -> super::TagForm {
             transfer: choice.index(),
             cutoff: cutoff.into(),
             cutoff_shown: cutoff_shown(choice.index()),
+            table_rows: table_rows(&d.table_rows),
+            table_unit: d.table_unit.clone().into(),
+            table_shown: table_shown(choice.index()),
             tolerance: d.tolerance.clone().into(),
             ..Default::default()
         },
@@ -328,6 +497,7 @@ pub fn restore_draft(window: &AppWindow, state: &AppState) {
         a.set_form(form_of_draft(d));
         a.set_is_new(d.is_new);
         a.set_editing(true);
+        show_curve(&a);
     }
 }
 
@@ -380,10 +550,11 @@ pub fn range_form_of(f: &super::TagForm, base: Option<&Tag>) -> RangeForm {
         transfer: TransferChoice::from_index(f.transfer),
         cutoff: f.cutoff.to_string(),
         cutoff_of: CutoffOf::Flow,
+        table: table_text(&table_rows_of(&f.table_rows)),
+        table_unit: f.table_unit.to_string(),
         signal: base
             .map(|b| format!("{}..{}", b.scale.signal.low_ma, b.scale.signal.high_ma))
             .unwrap_or_default(),
-        ..Default::default()
     }
 }
 
@@ -693,6 +864,45 @@ mod tests {
         // And the draft as now written reads back the same.
         let again = form_of_draft(&draft_of(&f, true));
         assert_eq!((again.transfer, again.cutoff), (f.transfer, f.cutoff));
+    }
+
+    #[test]
+    fn a_table_shows_as_rows_and_reads_back_the_same() {
+        // LT-140: level 0–2 m read as volume through a horizontal tank's table (r = 1 m,
+        // L = 5 m; circular-segment volumes worked by hand: 1 m → 7.854 m³, 2 m → 15.708 m³).
+        let mut f = form("LT-140", "0");
+        f.urv = "2".into();
+        f.transfer = TransferChoice::Table.index();
+        f.table_rows = table_rows(&[
+            ("0".into(), "0".into()),
+            ("1".into(), "7,854".into()),
+            ("2".into(), "15,708".into()),
+        ]);
+        f.table_unit = "m³".into();
+        let tag = tag_from_form(&f, None).unwrap();
+        let back = form_of(&tag);
+        assert!(back.table_shown && !back.cutoff_shown);
+        assert_eq!(
+            table_rows_of(&back.table_rows),
+            [("0", "0"), ("1", "7.854"), ("2", "15.708")]
+                .map(|(i, o)| (i.to_string(), o.to_string()))
+        );
+        assert_eq!(tag_from_form(&back, Some(&tag)).unwrap(), tag);
+        // The draft keeps the rows; a draft from before the table editor has none.
+        let again = form_of_draft(&draft_of(&f, true));
+        assert_eq!(
+            table_rows_of(&again.table_rows),
+            table_rows_of(&f.table_rows)
+        );
+        assert_eq!(again.table_unit, "m³");
+        let old: TagDraft =
+            serde_json::from_str(r#"{"is_new": true, "number": "LT-140", "transfer": "linear"}"#)
+                .unwrap();
+        assert!(old.table_rows.is_empty());
+        // A bad row names its row (from 0) for the editor to outline.
+        f.table_rows = table_rows(&[("0".into(), "0".into()), ("1".into(), "lots".into())]);
+        assert_eq!(table_error_row(&f), 1);
+        assert_eq!(tag_from_form(&f, None).unwrap_err().field, "table");
     }
 
     #[test]

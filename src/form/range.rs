@@ -215,14 +215,43 @@ pub fn parse_table(text: &str, output_unit: &str) -> Result<CharTable, FormError
         let Some((a, b)) = row.split_once(':') else {
             return Err(row_error(format!("'{}' is not an IN:OUT pair", row.trim())));
         };
-        let number =
-            |t: &str| parse_number(Field::Table.name(), t).map_err(|e| row_error(e.reason));
+        let number = |t: &str, which: &str| {
+            parse_number(Field::Table.name(), t)
+                .map_err(|e| row_error(format!("{which} {}", e.reason)))
+        };
         points.push(TablePoint {
-            input: number(a)?,
-            output: number(b)?,
+            input: number(a, "input")?,
+            output: number(b, "output")?,
         });
     }
-    CharTable::new(points, output_unit).map_err(FormError::at(Field::Table))
+    CharTable::new(points.clone(), output_unit).map_err(|e| {
+        let row = breaking_row(&points);
+        FormError {
+            field: Field::Table,
+            row,
+            reason: match row {
+                Some(r) => format!("row {}: {}", r + 1, e.reason),
+                None => e.reason,
+            },
+        }
+    })
+}
+
+/// The row (as typed, from 0) that breaks a table's order: the later of two rows sharing
+/// an input, or the first whose output does not keep rising (or falling) with input.
+fn breaking_row(points: &[TablePoint]) -> Option<usize> {
+    let mut order: Vec<usize> = (0..points.len()).collect();
+    order.sort_by(|&a, &b| points[a].input.total_cmp(&points[b].input));
+    let rising = order.len() > 1 && points[order[1]].output > points[order[0]].output;
+    order.windows(2).find_map(|pair| {
+        let (a, b) = (points[pair[0]], points[pair[1]]);
+        let steady = if rising {
+            b.output > a.output
+        } else {
+            b.output < a.output
+        };
+        (a.input == b.input || !steady).then(|| pair[0].max(pair[1]))
+    })
 }
 
 /// The cutoff as the form's number field shows it, % of flow (empty for none).
@@ -351,6 +380,25 @@ mod tests {
         f.table = "0:0; 1".into();
         let e = f.parse(None).unwrap_err();
         assert_eq!((e.field, e.row), (Field::Table, Some(1)));
+        // A bad number names its row and whether it is the input or the output.
+        f.table = "0:0; 1:5,1; 2:lots".into();
+        let e = f.parse(None).unwrap_err();
+        assert_eq!((e.field, e.row), (Field::Table, Some(2)));
+        assert!(e.reason.starts_with("row 3: output "), "{}", e.reason);
+        // A volume that falls back at 1.5 m (typed as the fourth row) is that row's fault,
+        // though the table sorts it third.
+        f.table = "0:0; 1:5,1; 2:12; 1,5:4".into();
+        let e = f.parse(None).unwrap_err();
+        assert_eq!((e.field, e.row), (Field::Table, Some(3)));
+        // Two rows for the same level: the later one is named.
+        f.table = "0:0; 1:5; 1:6; 2:12".into();
+        let e = f.parse(None).unwrap_err();
+        assert_eq!(e.row, Some(2));
+        assert!(
+            e.reason.starts_with("row 3: two points share"),
+            "{}",
+            e.reason
+        );
     }
 
     #[test]

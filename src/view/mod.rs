@@ -15,6 +15,7 @@ pub mod log;
 pub mod power;
 pub mod reference;
 pub mod sensor_calc;
+pub mod table;
 pub mod tag_sheet;
 pub mod units;
 pub mod wording;
