@@ -2,9 +2,7 @@
 //! [`crate::tag::Tag::validate`]. Every change is saved to the store before it is shown.
 
 use super::state::{PowerForm, TagDraft};
-use super::{
-    model, navigate, refresh_all, screen_from_name, AppState, AppWindow, Shared, TagsAdapter,
-};
+use super::{model, navigate, refresh_all, AppState, AppWindow, Shared, TagsAdapter};
 use crate::budget::LoopConfig;
 use crate::display;
 use crate::error::{FieldError, Result};
@@ -39,11 +37,9 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     });
     let weak = window.as_weak();
     let st = state.clone();
-    adapter.on_go_to(move |name| {
+    adapter.on_go_to(move |screen| {
         let Some(w) = weak.upgrade() else { return };
-        if let Some(screen) = screen_from_name(name.as_str()) {
-            navigate(&w, &st, screen, true);
-        }
+        navigate(&w, &st, screen, true);
     });
     let weak = window.as_weak();
     adapter.on_new_tag(move || {
