@@ -11,40 +11,13 @@ use slint::ComponentHandle;
 /// The app on the testing backend, in a tall desktop-size window so every screen fits
 /// without scrolling (the backend finds only elements it counts as visible).
 fn app() -> App {
-    util::ui_backend();
-    let app = App::new(AppState::demo()).unwrap();
-    app.window
-        .window()
-        .set_size(slint::LogicalSize::new(1280.0, 3000.0));
-    app
+    util::ui::app_sized(AppState::demo(), 1280.0, 3000.0)
 }
 
 /// The one element with this label and role (a field's or button's visible text carries
 /// the same label, with the role `text`).
 fn with_role(app: &App, label: &str, role: AccessibleRole) -> ElementHandle {
-    let mut found: Vec<_> = ElementHandle::find_by_accessible_label(&app.window, label)
-        .filter(|e| e.accessible_role() == Some(role))
-        .collect();
-    if found.len() != 1 {
-        let all: Vec<String> = slint::ComponentHandle::as_weak(&app.window)
-            .upgrade()
-            .map(|w| {
-                use i_slint_backend_testing::ElementRoot;
-                w.root_element()
-            })
-            .unwrap()
-            .query_descendants()
-            .find_all()
-            .into_iter()
-            .filter(|e| e.accessible_role() == Some(role))
-            .filter_map(|e| e.accessible_label().map(|l| l.to_string()))
-            .collect();
-        panic!(
-            "expected one {role:?} labelled {label:?}, found {}; there are {all:?}",
-            found.len()
-        );
-    }
-    found.remove(0)
+    util::ui::one(app, label, role)
 }
 
 /// The input field with this label.

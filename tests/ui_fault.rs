@@ -5,7 +5,9 @@
 
 mod util;
 
-use i_slint_backend_testing::{AccessibleRole, ElementHandle};
+use util::ui::{all, one, tap, type_into};
+
+use i_slint_backend_testing::AccessibleRole;
 use loopside::app::state::Saved;
 use loopside::app::{App, AppState, FaultAdapter, LogAdapter, Screen};
 use loopside::journal::Kind;
@@ -14,35 +16,9 @@ use slint::{ComponentHandle, Model};
 /// The app on `state`, showing Find fault in a tall window (so the whole procedure is in
 /// view for the element search).
 fn app_with(state: AppState) -> App {
-    util::ui_backend();
-    let app = App::new(state).unwrap();
-    app.window
-        .window()
-        .set_size(slint::LogicalSize::new(420.0, 6000.0));
+    let app = util::ui::app_sized(state, 420.0, 6000.0);
     app.show_screen(Screen::Fault);
     app
-}
-
-/// Every element with this label and role.
-fn all(app: &App, label: &str, role: AccessibleRole) -> Vec<ElementHandle> {
-    ElementHandle::find_by_accessible_label(&app.window, label)
-        .filter(|e| e.accessible_role() == Some(role))
-        .collect()
-}
-
-/// The one element with this label and role.
-fn one(app: &App, label: &str, role: AccessibleRole) -> ElementHandle {
-    let mut found = all(app, label, role);
-    assert_eq!(found.len(), 1, "expected one {role:?} labelled {label:?}");
-    found.remove(0)
-}
-
-fn tap(app: &App, label: &str) {
-    one(app, label, AccessibleRole::Button).invoke_accessible_default_action();
-}
-
-fn type_into(app: &App, label: &str, text: &str) {
-    one(app, label, AccessibleRole::TextInput).set_accessible_value(text);
 }
 
 fn shows(app: &App, text: &str) -> bool {

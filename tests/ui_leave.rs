@@ -6,6 +6,8 @@
 
 mod util;
 
+use util::ui::{all, one, tap};
+
 use i_slint_backend_testing::{AccessibleRole, ElementHandle};
 use loopside::app::{
     load_or_demo, save, App, AppState, CheckAdapter, FaultAdapter, LeaveStatus, Screen, DEMO_DIR,
@@ -17,30 +19,7 @@ use slint::{ComponentHandle, Model};
 
 /// The app on `state` in a tall desktop window, so every element is in view for the search.
 fn app_over(state: AppState) -> App {
-    util::ui_backend();
-    let app = App::new(state).unwrap();
-    app.window
-        .window()
-        .set_size(slint::LogicalSize::new(1280.0, 6000.0));
-    app
-}
-
-/// Every element with this label and role.
-fn all(app: &App, label: &str, role: AccessibleRole) -> Vec<ElementHandle> {
-    ElementHandle::find_by_accessible_label(&app.window, label)
-        .filter(|e| e.accessible_role() == Some(role))
-        .collect()
-}
-
-/// The one element with this label and role.
-fn one(app: &App, label: &str, role: AccessibleRole) -> ElementHandle {
-    let mut found = all(app, label, role);
-    assert_eq!(found.len(), 1, "expected one {role:?} labelled {label:?}");
-    found.remove(0)
-}
-
-fn tap(app: &App, label: &str) {
-    one(app, label, AccessibleRole::Button).invoke_accessible_default_action();
+    util::ui::app_sized(state, 1280.0, 6000.0)
 }
 
 /// The tick box of `item`, found by its label.

@@ -5,7 +5,9 @@
 
 mod util;
 
-use i_slint_backend_testing::{AccessibleRole, ElementHandle};
+use util::ui::{one, tap, type_into};
+
+use i_slint_backend_testing::AccessibleRole;
 use loopside::app::{App, AppState, CheckAdapter, LevelAdapter, Screen, UnitsAdapter};
 use loopside::journal::Kind;
 use slint::{ComponentHandle, Model};
@@ -13,30 +15,7 @@ use slint::{ComponentHandle, Model};
 /// The demo plant (LT-101 open, 0–4.5 m, ±0.5 % of span) in a tall desktop window, so
 /// every element is in view for the search.
 fn app() -> App {
-    util::ui_backend();
-    let app = App::new(AppState::demo()).unwrap();
-    app.window
-        .window()
-        .set_size(slint::LogicalSize::new(1280.0, 6000.0));
-    app
-}
-
-/// The one element with this label and role.
-fn one(app: &App, label: &str, role: AccessibleRole) -> ElementHandle {
-    let mut found: Vec<_> = ElementHandle::find_by_accessible_label(&app.window, label)
-        .filter(|e| e.accessible_role() == Some(role))
-        .collect();
-    assert_eq!(found.len(), 1, "expected one {role:?} labelled {label:?}");
-    found.remove(0)
-}
-
-/// Type `text` into the field labelled `label`.
-fn type_into(app: &App, label: &str, text: &str) {
-    one(app, label, AccessibleRole::TextInput).set_accessible_value(text);
-}
-
-fn tap(app: &App, label: &str) {
-    one(app, label, AccessibleRole::Button).invoke_accessible_default_action();
+    util::ui::app_sized(AppState::demo(), 1280.0, 6000.0)
 }
 
 #[test]

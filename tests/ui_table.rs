@@ -5,7 +5,9 @@
 
 mod util;
 
-use i_slint_backend_testing::{AccessibleRole, ElementHandle};
+use util::ui::{all, one, tap, type_into};
+
+use i_slint_backend_testing::AccessibleRole;
 use loopside::app::{App, AppState, FormField, Screen, TagsAdapter};
 use loopside::scale::{TablePoint, Transfer};
 use slint::{ComponentHandle, Model};
@@ -13,49 +15,7 @@ use slint::{ComponentHandle, Model};
 /// The demo plant in a tall window (`width` 1280 is the desktop, 560 the phone), so every
 /// element is in view for the search.
 fn app_in(state: AppState, width: f32) -> App {
-    util::ui_backend();
-    let app = App::new(state).unwrap();
-    app.window
-        .window()
-        .set_size(slint::LogicalSize::new(width, 6000.0));
-    app
-}
-
-/// The elements with this label and role.
-fn all(app: &App, label: &str, role: AccessibleRole) -> Vec<ElementHandle> {
-    ElementHandle::find_by_accessible_label(&app.window, label)
-        .filter(|e| e.accessible_role() == Some(role))
-        .collect()
-}
-
-/// The one element with this label and role.
-fn one(app: &App, label: &str, role: AccessibleRole) -> ElementHandle {
-    let mut found = all(app, label, role);
-    if found.len() != 1 {
-        use i_slint_backend_testing::ElementRoot;
-        let labels: Vec<String> = app
-            .window
-            .root_element()
-            .query_descendants()
-            .find_all()
-            .into_iter()
-            .filter(|e| e.accessible_role() == Some(role))
-            .filter_map(|e| e.accessible_label().map(|l| l.to_string()))
-            .collect();
-        panic!(
-            "expected one {role:?} labelled {label:?}, found {}; there are {labels:?}",
-            found.len()
-        );
-    }
-    found.remove(0)
-}
-
-fn type_into(app: &App, label: &str, text: &str) {
-    one(app, label, AccessibleRole::TextInput).set_accessible_value(text);
-}
-
-fn tap(app: &App, label: &str) {
-    one(app, label, AccessibleRole::Button).invoke_accessible_default_action();
+    util::ui::app_sized(state, width, 6000.0)
 }
 
 /// The points the curve shows, as (x, y) fractions of the plot.

@@ -92,12 +92,6 @@ impl fmt::Display for CheckSaved {
     }
 }
 
-/// The text of a loop-check entry: the one wording, [`crate::view::wording::check::log_text`]
-/// (verdict, then the technician's own words, then what was put right before leaving).
-pub fn log_text(result: &CheckResult) -> String {
-    crate::view::wording::check::log_text(result)
-}
-
 /// The payload of a loop-check entry (version [`PAYLOAD_VERSION`]; see the module).
 pub fn payload(
     result: &CheckResult,
@@ -124,7 +118,13 @@ pub fn save_check(
     let who = initials(check.initials)?;
     let record = store.require_tag(check.tag)?;
     let (tag_id, number) = (record.id.clone(), record.tag.number.clone());
-    let mut entry = Entry::new(&tag_id, now, &who, Kind::LoopCheck, &log_text(check.result))?;
+    let mut entry = Entry::new(
+        &tag_id,
+        now,
+        &who,
+        Kind::LoopCheck,
+        &crate::view::wording::check::log_text(check.result),
+    )?;
     entry.payload = Some(payload(check.result, check.sensor.as_ref())?);
     let id = store.append(entry)?;
     Ok(CheckSaved {

@@ -97,10 +97,13 @@ impl DescribeArgs {
     fn sensor(&self) -> Result<Option<Sensor>, FieldError> {
         use crate::form::sensor::{parse_kind, SensorForm, SensorKind};
         // The flag says which family is meant; the form reads the rest.
-        let (kind, family_ok) = match (&self.rtd, &self.tc) {
-            (Some(k), _) => (k, matches!(parse_kind(k), Ok(SensorKind::Rtd(_)))),
-            (None, Some(k)) => (k, matches!(parse_kind(k), Ok(SensorKind::Thermocouple(_)))),
-            (None, None) => return Ok(None),
+        let Some(kind) = self.rtd.as_ref().or(self.tc.as_ref()) else {
+            return Ok(None);
+        };
+        let family_ok = match parse_kind(kind) {
+            Ok(SensorKind::Rtd(_)) => self.rtd.is_some(),
+            Ok(SensorKind::Thermocouple(_)) => self.rtd.is_none(),
+            Err(_) => false,
         };
         if !family_ok {
             let want = if self.rtd.is_some() {

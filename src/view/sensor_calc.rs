@@ -68,7 +68,7 @@ pub fn view(input: &CalcInput) -> CalcView {
 
 fn fill(input: &CalcInput, from_temp: bool, v: &mut CalcView) -> Result<()> {
     // The one sensor-kind reader (the command line's --rtd/--tc use it too).
-    let kind = parse_kind(&input.sensor).map_err(|e| FieldError::new(e.field.name(), e.reason))?;
+    let kind = parse_kind(&input.sensor).map_err(FieldError::from)?;
     match kind {
         SensorKind::Rtd(k) => {
             let rtd = Rtd::standard(k);

@@ -191,3 +191,61 @@ pub fn brindlemoor(now: chrono::DateTime<chrono::FixedOffset>) -> loopside::stor
     loopside::demo::fill(&mut store, now).expect("the demo fills an empty store");
     store
 }
+
+/// Finding and driving the app's elements by accessible label, for the UI tests.
+#[cfg(feature = "ui")]
+pub mod ui {
+    use i_slint_backend_testing::{AccessibleRole, ElementHandle, ElementRoot};
+    use loopside::app::{App, AppState};
+    use slint::ComponentHandle;
+
+    /// The app on `state` in a `width` × `height` window (logical px); a tall window keeps
+    /// every element in view for the search.
+    pub fn app_sized(state: AppState, width: f32, height: f32) -> App {
+        super::ui_backend();
+        let app = App::new(state).unwrap();
+        app.window
+            .window()
+            .set_size(slint::LogicalSize::new(width, height));
+        app
+    }
+
+    /// Every element with this label and role.
+    pub fn all(app: &App, label: &str, role: AccessibleRole) -> Vec<ElementHandle> {
+        ElementHandle::find_by_accessible_label(&app.window, label)
+            .filter(|e| e.accessible_role() == Some(role))
+            .collect()
+    }
+
+    /// The one element with this label and role; when there is not exactly one, the
+    /// failure lists the labels there are with that role.
+    pub fn one(app: &App, label: &str, role: AccessibleRole) -> ElementHandle {
+        let mut found = all(app, label, role);
+        if found.len() != 1 {
+            let labels: Vec<String> = app
+                .window
+                .root_element()
+                .query_descendants()
+                .find_all()
+                .into_iter()
+                .filter(|e| e.accessible_role() == Some(role))
+                .filter_map(|e| e.accessible_label().map(|l| l.to_string()))
+                .collect();
+            panic!(
+                "expected one {role:?} labelled {label:?}, found {}; there are {labels:?}",
+                found.len()
+            );
+        }
+        found.remove(0)
+    }
+
+    /// Type `text` into the field labelled `label`.
+    pub fn type_into(app: &App, label: &str, text: &str) {
+        one(app, label, AccessibleRole::TextInput).set_accessible_value(text);
+    }
+
+    /// Tap the button labelled `label`.
+    pub fn tap(app: &App, label: &str) {
+        one(app, label, AccessibleRole::Button).invoke_accessible_default_action();
+    }
+}
