@@ -192,6 +192,57 @@ fn a_shift_at_brindlemoor_is_recorded_alike_from_the_desk_and_the_phone() {
         "archived tag",
     );
 
+    // A temperature loop on the digester heating: 0–150 °C from a Pt100 on two wires
+    // (0,8 Ω of lead in all) into an older 0–20 mA card; then its sensor changed to a
+    // type K with the transmitter's terminals at 25 °C. The phone picks the signal, the
+    // sensor and the wiring from lists.
+    desk.run(&[
+        "tag",
+        "add",
+        "TT-420",
+        "--range",
+        "0..150",
+        "--unit",
+        "°C",
+        "--signal",
+        "0..20",
+        "--rtd",
+        "pt100",
+        "--wires",
+        "2",
+        "--lead-ohms",
+        "0,8",
+    ]);
+    let mut form = app::tags::empty_form();
+    form.number = "TT-420".into();
+    form.urv = "150".into();
+    form.unit = "°C".into();
+    form.supply = "".into();
+    form.tx_min = "".into();
+    let i = option(&form.signal_options, "0–20 mA");
+    app::tags::pick_signal(&mut form, i);
+    let i = option(&form.sensor_options, "Pt100 RTD");
+    app::tags::pick_sensor(&mut form, i);
+    app::tags::pick_wiring(&mut form, 0);
+    form.lead_ohms = "0,8".into();
+    app::tags::save_form(&mut state, &form, true).unwrap();
+    same(
+        &desk.tag("TT-420"),
+        &app_tag(&state, "TT-420"),
+        "temperature tag",
+    );
+    desk.run(&["tag", "edit", "TT-420", "--tc", "K", "--cj-c", "25"]);
+    let mut form = app::tags::form_of(&state.store.tag("TT-420").unwrap().tag);
+    let i = option(&form.sensor_options, "type K thermocouple");
+    app::tags::pick_sensor(&mut form, i);
+    form.cold_junction = "25".into();
+    app::tags::save_form(&mut state, &form, false).unwrap();
+    same(
+        &desk.tag("TT-420"),
+        &app_tag(&state, "TT-420"),
+        "temperature tag, sensor changed",
+    );
+
     // A five-point as-found check of TT-412 (Pt100), applied in ohms at the terminals,
     // reading a little high (worst 0.07 mA at 50 % rising), with everything put right
     // before leaving.
@@ -354,6 +405,12 @@ fn a_shift_at_brindlemoor_is_recorded_alike_from_the_desk_and_the_phone() {
         imported.to_string()
     );
     same_record(&desk2.last(), &last(&empty));
+}
+
+/// The place of `label` among a picker's options.
+fn option(options: &slint::ModelRc<slint::SharedString>, label: &str) -> i32 {
+    let i = slint::Model::iter(options).position(|o| o == label);
+    i32::try_from(i.unwrap_or_else(|| panic!("no {label:?} to pick"))).unwrap()
 }
 
 fn app_tag(state: &AppState, number: &str) -> Value {

@@ -207,6 +207,26 @@ pub struct TagDraft {
     pub table_rows: Vec<(String, String)>,
     /// The characterisation table's output unit as typed.
     pub table_unit: String,
+    /// The signal span as the range form reads it (`4..20`); `None` in drafts from before
+    /// the signal picker (the tag's own span is then kept).
+    pub signal: Option<String>,
+    /// The sensor as typed and picked; `None` in drafts from before the sensor fields
+    /// (the tag's own sensor is then kept).
+    pub sensor: Option<SensorDraft>,
+}
+
+/// The tag form's sensor fields as typed (the fields of [`crate::form::sensor::SensorForm`]).
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct SensorDraft {
+    /// The kind (`Pt100`, `K`; empty for none).
+    pub kind: String,
+    /// RTD wiring, 2, 3 or 4.
+    pub wiring: String,
+    /// Resistance of both RTD leads, Ω, as typed.
+    pub lead_ohms: String,
+    /// Thermocouple cold junction, °C, as typed.
+    pub cold_junction: String,
 }
 
 /// The Check screen as the technician left it: an unfinished check survives a restart.

@@ -1,15 +1,17 @@
 //! Tags screen glue: search the register, open a tag, add or edit one through
 //! [`crate::tag::Tag::validate`]. Every change is saved to the store before it is shown.
 
-use super::state::{PowerForm, TagDraft};
+use super::state::{PowerForm, SensorDraft, TagDraft};
 use super::{model, navigate, refresh_all, AppState, AppWindow, Shared, TagsAdapter};
 use crate::budget::LoopConfig;
 use crate::display;
 use crate::error::{FieldError, Result};
 use crate::form::conductor;
 use crate::form::range::{
-    choice_from_words, cutoff_text, parse_table, Bounds, CutoffOf, RangeForm, TransferChoice,
+    choice_from_words, cutoff_text, parse_table, signal_choices, signal_text, Bounds, CutoffOf,
+    RangeForm, TransferChoice,
 };
+use crate::form::sensor::{self, SensorForm, SensorKind};
 use crate::form::{Field, FormError};
 use crate::journal::{Entry, TagId};
 use crate::number::parse_number;
@@ -107,6 +109,12 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         set_conductor(&mut form, &size);
         a.set_form(form);
     });
+    let weak = window.as_weak();
+    adapter.on_pick_signal(move |i| edit_form(&weak, |form| pick_signal(form, i)));
+    let weak = window.as_weak();
+    adapter.on_pick_sensor(move |i| edit_form(&weak, |form| pick_sensor(form, i)));
+    let weak = window.as_weak();
+    adapter.on_pick_wiring(move |i| edit_form(&weak, |form| pick_wiring(form, i)));
     let weak = window.as_weak();
     adapter.on_pick_transfer(move |i| {
         let Some(w) = weak.upgrade() else { return };
@@ -326,6 +334,101 @@ fn edit_elements(
     a.set_form(form);
 }
 
+/// Change the form: read it back (with what is typed in its fields), change it, set it.
+fn edit_form(weak: &slint::Weak<AppWindow>, change: impl FnOnce(&mut super::TagForm)) {
+    let Some(w) = weak.upgrade() else { return };
+    let a = w.global::<TagsAdapter>();
+    let mut form = a.get_form();
+    change(&mut form);
+    a.set_form(form);
+}
+
+/// Option `i` of the signal picker picked.
+pub fn pick_signal(form: &mut super::TagForm, i: i32) {
+    let choices = signal_choices(form.signal.as_str());
+    if let Some(text) = usize::try_from(i).ok().and_then(|i| choices.texts.get(i)) {
+        set_signal(form, text);
+    }
+}
+
+/// Option `i` of the sensor picker picked: the family's own fields stay as typed, the
+/// other family's go (they would be refused, naming them).
+pub fn pick_sensor(form: &mut super::TagForm, i: i32) {
+    let choices = sensor::choices(form.sensor_kind.as_str());
+    let kind = sensor::picked(&choices, usize::try_from(i).unwrap_or(0));
+    let mut typed = sensor_form_of(form);
+    let was = sensor::parse_kind(&typed.kind).ok();
+    if !same_family(was, sensor::parse_kind(&kind).ok()) {
+        typed = SensorForm::default();
+    }
+    typed.kind = kind;
+    set_sensor(form, &typed);
+}
+
+/// Option `i` of the RTD wiring picker picked.
+pub fn pick_wiring(form: &mut super::TagForm, i: i32) {
+    let mut typed = sensor_form_of(form);
+    typed.wiring = sensor::wiring_picked(usize::try_from(i).unwrap_or(1));
+    set_sensor(form, &typed);
+}
+
+/// Two kinds of the same family (both RTDs or both thermocouples).
+fn same_family(a: Option<SensorKind>, b: Option<SensorKind>) -> bool {
+    matches!(
+        (a, b),
+        (Some(SensorKind::Rtd(_)), Some(SensorKind::Rtd(_)))
+            | (
+                Some(SensorKind::Thermocouple(_)),
+                Some(SensorKind::Thermocouple(_))
+            )
+    )
+}
+
+/// The form's signal span and its picker.
+fn set_signal(f: &mut super::TagForm, text: &str) {
+    let c = signal_choices(text);
+    f.signal = c.texts.get(c.current).cloned().unwrap_or_default().into();
+    f.signal_index = i32::try_from(c.current).unwrap_or(0);
+    f.signal_options = model(c.options.into_iter().map(Into::into).collect());
+}
+
+/// The form's sensor fields and pickers, with the family's own fields shown.
+fn set_sensor(f: &mut super::TagForm, s: &SensorForm) {
+    let c = sensor::choices(&s.kind);
+    f.sensor_kind = s.kind.clone().into();
+    f.sensor_index = i32::try_from(c.current).unwrap_or(0);
+    f.sensor_options = model(c.options.into_iter().map(Into::into).collect());
+    f.wiring = i32::try_from(sensor::wiring_chosen(&s.wiring)).unwrap_or(1);
+    f.lead_ohms = s.lead_ohms.clone().into();
+    f.cold_junction = s.cold_junction.clone().into();
+    let kind = sensor::parse_kind(&s.kind).ok();
+    f.rtd_shown = matches!(kind, Some(SensorKind::Rtd(_)));
+    f.tc_shown = matches!(kind, Some(SensorKind::Thermocouple(_)));
+}
+
+/// The form's sensor as the sensor form ([`crate::form::sensor`]) reads it: only the
+/// fields of the family picked (the others are hidden).
+pub fn sensor_form_of(f: &super::TagForm) -> SensorForm {
+    SensorForm {
+        kind: f.sensor_kind.to_string(),
+        wiring: if f.rtd_shown {
+            sensor::wiring_picked(usize::try_from(f.wiring).unwrap_or(1))
+        } else {
+            String::new()
+        },
+        lead_ohms: if f.rtd_shown {
+            f.lead_ohms.to_string()
+        } else {
+            String::new()
+        },
+        cold_junction: if f.tc_shown {
+            f.cold_junction.to_string()
+        } else {
+            String::new()
+        },
+    }
+}
+
 /// Save the form: a new tag, or the open tag edited (a changed number renames it and its
 /// log follows). The tag becomes the open tag.
 pub fn save_form(
@@ -390,6 +493,8 @@ pub fn empty_form() -> super::TagForm {
         &loop_part,
     );
     f.supply = "24".into();
+    set_signal(&mut f, "");
+    set_sensor(&mut f, &SensorForm::default());
     f
 }
 
@@ -401,7 +506,7 @@ pub fn form_of(tag: &Tag) -> super::TagForm {
         None => PowerForm::default(),
     };
     loop_part.hart = tag.hart;
-    with_loop(
+    let mut f = with_loop(
         super::TagForm {
             number: tag.number.clone().into(),
             service: tag.service.clone().into(),
@@ -422,7 +527,10 @@ pub fn form_of(tag: &Tag) -> super::TagForm {
             ..Default::default()
         },
         &loop_part,
-    )
+    );
+    set_signal(&mut f, &signal_text(&tag.scale.signal));
+    set_sensor(&mut f, &sensor::form_of(tag.sensor.as_ref()));
+    f
 }
 
 /// A tag's characterisation table as rows the form shows (none for another transfer).
@@ -453,11 +561,22 @@ pub fn draft_of(f: &super::TagForm, is_new: bool) -> TagDraft {
         loop_form: loop_form_of(f),
         table_rows: table_rows_of(&f.table_rows),
         table_unit: f.table_unit.to_string(),
+        signal: Some(f.signal.to_string()),
+        sensor: Some({
+            let typed = sensor_form_of(f);
+            SensorDraft {
+                kind: typed.kind,
+                wiring: typed.wiring,
+                lead_ohms: typed.lead_ohms,
+                cold_junction: typed.cold_junction,
+            }
+        }),
     }
 }
 
-/// The form as it was typed before the app closed.
-pub fn form_of_draft(d: &TagDraft) -> super::TagForm {
+/// The form as it was typed before the app closed; `open` is the tag it edits, whose
+/// signal span and sensor are kept when the draft is older than their fields.
+pub fn form_of_draft(d: &TagDraft, open: Option<&Tag>) -> super::TagForm {
     // A draft from before the picker has the transfer in words, cutoff included.
     let (choice, cutoff_in_words) = choice_from_words(&d.transfer);
     let cutoff = if d.cutoff.trim().is_empty() {
@@ -465,7 +584,7 @@ pub fn form_of_draft(d: &TagDraft) -> super::TagForm {
     } else {
         d.cutoff.clone()
     };
-    with_loop(
+    let mut f = with_loop(
         super::TagForm {
             number: d.number.clone().into(),
             service: d.service.clone().into(),
@@ -483,14 +602,33 @@ pub fn form_of_draft(d: &TagDraft) -> super::TagForm {
             ..Default::default()
         },
         &d.loop_form,
-    )
+    );
+    let open = open.filter(|_| !d.is_new);
+    let signal = match (&d.signal, open) {
+        (Some(text), _) => text.clone(),
+        (None, Some(tag)) => signal_text(&tag.scale.signal),
+        (None, None) => String::new(),
+    };
+    set_signal(&mut f, &signal);
+    let typed = match (&d.sensor, open) {
+        (Some(s), _) => SensorForm {
+            kind: s.kind.clone(),
+            wiring: s.wiring.clone(),
+            lead_ohms: s.lead_ohms.clone(),
+            cold_junction: s.cold_junction.clone(),
+        },
+        (None, Some(tag)) => sensor::form_of(tag.sensor.as_ref()),
+        (None, None) => SensorForm::default(),
+    };
+    set_sensor(&mut f, &typed);
+    f
 }
 
 /// Show a tag form left open when the app closed (called once at start-up).
 pub fn restore_draft(window: &AppWindow, state: &AppState) {
     if let Some(d) = &state.ui.tag_draft {
         let a = window.global::<TagsAdapter>();
-        a.set_form(form_of_draft(d));
+        a.set_form(form_of_draft(d, state.open_tag()));
         a.set_is_new(d.is_new);
         a.set_editing(true);
         show_curve(&a);
@@ -534,9 +672,8 @@ pub fn loop_form_of(f: &super::TagForm) -> PowerForm {
     }
 }
 
-/// The form's range and transfer as the range form ([`crate::form::range`]); the signal
-/// span, which the form does not show, is the tag's own.
-pub fn range_form_of(f: &super::TagForm, base: Option<&Tag>) -> RangeForm {
+/// The form's range, transfer and signal span as the range form ([`crate::form::range`]).
+pub fn range_form_of(f: &super::TagForm) -> RangeForm {
     RangeForm {
         bounds: Bounds::Apart {
             lrv: f.lrv.to_string(),
@@ -548,9 +685,7 @@ pub fn range_form_of(f: &super::TagForm, base: Option<&Tag>) -> RangeForm {
         cutoff_of: CutoffOf::Flow,
         table: table_text(&table_rows_of(&f.table_rows)),
         table_unit: f.table_unit.to_string(),
-        signal: base
-            .map(|b| format!("{}..{}", b.scale.signal.low_ma, b.scale.signal.high_ma))
-            .unwrap_or_default(),
+        signal: f.signal.to_string(),
     }
 }
 
@@ -566,7 +701,7 @@ pub fn tag_from_form(form: &super::TagForm, base: Option<&Tag>) -> Result<Tag> {
         Some(Transfer::Table(t)) => Some(t),
         _ => None,
     };
-    let scale = range_form_of(form, base).parse(kept_table)?;
+    let scale = range_form_of(form).parse(kept_table)?;
     let mut tag = match base {
         Some(b) => {
             let mut t = b.clone();
@@ -580,6 +715,9 @@ pub fn tag_from_form(form: &super::TagForm, base: Option<&Tag>) -> Result<Tag> {
     tag.area = form.area.trim().to_string();
     tag.tolerance_percent = parse_number("tolerance", form.tolerance.trim_end_matches('%'))?;
     tag.hart = form.hart;
+    tag.sensor = sensor_form_of(form)
+        .parse_keeping(base.and_then(|b| b.sensor.as_ref()))
+        .map_err(FieldError::from)?;
     let lf = loop_form_of(form);
     let unknown = lf.supply.trim().is_empty() && lf.tx_min.trim().is_empty();
     let described = !lf.elements.is_empty() || !lf.cable_m.trim().is_empty();
@@ -853,12 +991,12 @@ mod tests {
                 "tolerance": "0.5"}"#,
         )
         .unwrap();
-        let f = form_of_draft(&draft);
+        let f = form_of_draft(&draft, None);
         assert_eq!(f.transfer, TransferChoice::RootInTransmitter.index());
         // 0.01 % of DP is 1 % of flow (flow ∝ √ΔP, ISO 5167 relation).
         assert_eq!(f.cutoff, "1");
         // And the draft as now written reads back the same.
-        let again = form_of_draft(&draft_of(&f, true));
+        let again = form_of_draft(&draft_of(&f, true), None);
         assert_eq!((again.transfer, again.cutoff), (f.transfer, f.cutoff));
     }
 
@@ -885,7 +1023,7 @@ mod tests {
         );
         assert_eq!(tag_from_form(&back, Some(&tag)).unwrap(), tag);
         // The draft keeps the rows; a draft from before the table editor has none.
-        let again = form_of_draft(&draft_of(&f, true));
+        let again = form_of_draft(&draft_of(&f, true), None);
         assert_eq!(
             table_rows_of(&again.table_rows),
             table_rows_of(&f.table_rows)
@@ -899,6 +1037,101 @@ mod tests {
         f.table_rows = table_rows(&[("0".into(), "0".into()), ("1".into(), "lots".into())]);
         assert_eq!(table_error_row(&f), 1);
         assert_eq!(tag_from_form(&f, None).unwrap_err().field, "table");
+    }
+
+    /// The option of a picker whose words are `label`.
+    fn option(options: &slint::ModelRc<slint::SharedString>, label: &str) -> i32 {
+        let i = options.iter().position(|o| o == label);
+        i32::try_from(i.unwrap_or_else(|| panic!("no {label:?} in the picker"))).unwrap()
+    }
+
+    #[test]
+    fn a_temperature_tag_records_its_sensor_and_its_signal() {
+        // TT-420 on the digester heating loop: 0–150 °C from a Pt100 wired with two
+        // wires (0,8 Ω of lead in all), on an older 0–20 mA input card.
+        let mut f = form("TT-420", "0");
+        f.urv = "150".into();
+        f.unit = "°C".into();
+        let i = option(&f.signal_options, "0–20 mA");
+        pick_signal(&mut f, i);
+        assert!(
+            !f.rtd_shown && !f.tc_shown,
+            "no sensor fields before a sensor"
+        );
+        let i = option(&f.sensor_options, "Pt100 RTD");
+        pick_sensor(&mut f, i);
+        assert!(f.rtd_shown && !f.tc_shown);
+        pick_wiring(&mut f, 0);
+        f.lead_ohms = "0,8".into();
+        let tag = tag_from_form(&f, None).unwrap();
+        assert_eq!(
+            (tag.scale.signal.low_ma, tag.scale.signal.high_ma),
+            (0.0, 20.0)
+        );
+        assert_eq!(
+            tag.sensor,
+            Some(crate::sensor::Sensor::Rtd {
+                element: crate::rtd::RtdKind::Pt100,
+                wiring: crate::rtd::Wiring::TwoWire,
+                lead_ohms: 0.8
+            })
+        );
+        // The form filled from the tag shows the same picks and reads back the same.
+        let back = form_of(&tag);
+        assert_eq!(
+            back.signal_options
+                .row_data(back.signal_index as usize)
+                .unwrap(),
+            "0–20 mA"
+        );
+        assert_eq!(
+            back.sensor_options
+                .row_data(back.sensor_index as usize)
+                .unwrap(),
+            "Pt100 RTD"
+        );
+        assert_eq!(back.wiring, 0);
+        assert_eq!(tag_from_form(&back, Some(&tag)).unwrap(), tag);
+        // And so does the draft kept over a restart.
+        assert_eq!(
+            tag_from_form(&form_of_draft(&draft_of(&back, false), None), Some(&tag)).unwrap(),
+            tag
+        );
+        // Changed to a type K: the RTD's fields go, the cold junction is asked for.
+        let mut f = back;
+        let i = option(&f.sensor_options, "type K thermocouple");
+        pick_sensor(&mut f, i);
+        assert!(f.tc_shown && !f.rtd_shown);
+        f.cold_junction = "400".into();
+        assert_eq!(
+            tag_from_form(&f, Some(&tag)).unwrap_err().field,
+            "cold junction"
+        );
+        f.cold_junction = "25".into();
+        assert_eq!(
+            tag_from_form(&f, Some(&tag)).unwrap().sensor,
+            Some(crate::sensor::Sensor::Thermocouple {
+                tc: crate::thermocouple::TcType::K,
+                cj_c: 25.0
+            })
+        );
+        // None picked: the tag has no sensor recorded.
+        pick_sensor(&mut f, 0);
+        assert_eq!(tag_from_form(&f, Some(&tag)).unwrap().sensor, None);
+    }
+
+    #[test]
+    fn a_draft_from_before_the_sensor_fields_keeps_the_tags_own() {
+        // TT-412 (demo plant) has a Pt100; a draft of its edit written before the form
+        // showed the sensor and the signal has neither.
+        let tags = crate::demo::tags().unwrap();
+        let tt = tags.iter().find(|t| t.number == "TT-412").unwrap();
+        assert!(tt.sensor.is_some());
+        let mut draft = draft_of(&form_of(tt), false);
+        draft.sensor = None;
+        draft.signal = None;
+        let f = form_of_draft(&draft, Some(tt));
+        assert_eq!(tag_from_form(&f, Some(tt)).unwrap().sensor, tt.sensor);
     }
 
     #[test]

@@ -73,6 +73,87 @@ impl TransferChoice {
     }
 }
 
+/// The signal spans the screens' signal picker offers, mA: 4–20 (the one NAMUR NE 43 is
+/// written for), 0–20 and 10–50 (older and some legacy loops; common practice). Any other
+/// span can be given on the command line (`--signal 1..5`) and is then kept on the picker.
+pub const COMMON_SIGNALS_MA: [(f64, f64); 3] = [(4.0, 20.0), (0.0, 20.0), (10.0, 50.0)];
+
+/// What a signal picker offers: [`COMMON_SIGNALS_MA`] in words, then the span the form
+/// already has when it is none of those, and which one is picked.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct SignalChoices {
+    /// The options, in words (`4–20 mA`).
+    pub options: Vec<String>,
+    /// The same spans as the range form's signal text (`4..20`).
+    pub texts: Vec<String>,
+    /// The one picked.
+    pub current: usize,
+}
+
+/// A signal span in words: `4–20 mA`.
+pub fn signal_label(low_ma: f64, high_ma: f64) -> String {
+    format!(
+        "{}–{} mA",
+        crate::display::trimmed(low_ma),
+        crate::display::trimmed(high_ma)
+    )
+}
+
+/// A signal span as the range form's signal text: `4..20`.
+pub fn signal_text(span: &SignalSpan) -> String {
+    format!(
+        "{}..{}",
+        crate::display::trimmed(span.low_ma),
+        crate::display::trimmed(span.high_ma)
+    )
+}
+
+/// The picker for a signal span as the form holds it (`LOW..HIGH`; empty is 4–20 mA). A
+/// text that does not read as a span is offered as typed, so nothing is silently changed
+/// (the form names it when saved).
+pub fn signal_choices(current: &str) -> SignalChoices {
+    let mut options: Vec<String> = COMMON_SIGNALS_MA
+        .iter()
+        .map(|&(lo, hi)| signal_label(lo, hi))
+        .collect();
+    let mut texts: Vec<String> = COMMON_SIGNALS_MA
+        .iter()
+        .map(|&(lo, hi)| {
+            signal_text(&SignalSpan {
+                low_ma: lo,
+                high_ma: hi,
+            })
+        })
+        .collect();
+    let current = if current.trim().is_empty() {
+        0
+    } else {
+        let (label, text) = match parse_range(Field::Signal.name(), current) {
+            Ok((lo, hi)) => (
+                signal_label(lo, hi),
+                signal_text(&SignalSpan {
+                    low_ma: lo,
+                    high_ma: hi,
+                }),
+            ),
+            Err(_) => (current.trim().to_string(), current.trim().to_string()),
+        };
+        match options.iter().position(|o| *o == label) {
+            Some(i) => i,
+            None => {
+                options.push(label);
+                texts.push(text);
+                options.len() - 1
+            }
+        }
+    };
+    SignalChoices {
+        options,
+        texts,
+        current,
+    }
+}
+
 /// What a typed square-root cutoff is a percentage of.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub enum CutoffOf {
@@ -434,6 +515,27 @@ mod tests {
             spoil(&mut f);
             assert_eq!(f.parse(None).unwrap_err().field, field, "{f:?}");
         }
+    }
+
+    #[test]
+    fn the_signal_is_picked_from_the_common_spans_or_kept() {
+        let c = signal_choices("");
+        assert_eq!(c.options, ["4–20 mA", "0–20 mA", "10–50 mA"]);
+        assert_eq!(c.current, 0);
+        // 0–20 mA picked reads as a 0–20 mA span (2 mA is then 10 %, not a failure).
+        let f = RangeForm {
+            bounds: Bounds::Together("0..100".into()),
+            signal: c.texts[1].clone(),
+            ..Default::default()
+        };
+        assert_eq!(f.parse(None).unwrap().signal.low_ma, 0.0);
+        assert_eq!(signal_choices("0..20").current, 1);
+        assert_eq!(signal_choices("10 .. 50").current, 2);
+        // A 1–5 mA span given on the command line stays on the list, picked.
+        let odd = signal_choices("1..5");
+        assert_eq!(odd.options.len(), 4);
+        assert_eq!(odd.options[odd.current], "1–5 mA");
+        assert_eq!(odd.texts[odd.current], "1..5");
     }
 
     #[test]

@@ -19,6 +19,158 @@ pub enum SensorKind {
     Thermocouple(TcType),
 }
 
+impl SensorKind {
+    /// Every kind, in the order the screens' sensor pickers list them: the RTDs, then the
+    /// thermocouple letters.
+    pub const ALL: [SensorKind; 11] = [
+        SensorKind::Rtd(RtdKind::Pt100),
+        SensorKind::Rtd(RtdKind::Pt500),
+        SensorKind::Rtd(RtdKind::Pt1000),
+        SensorKind::Thermocouple(TcType::B),
+        SensorKind::Thermocouple(TcType::E),
+        SensorKind::Thermocouple(TcType::J),
+        SensorKind::Thermocouple(TcType::K),
+        SensorKind::Thermocouple(TcType::N),
+        SensorKind::Thermocouple(TcType::R),
+        SensorKind::Thermocouple(TcType::S),
+        SensorKind::Thermocouple(TcType::T),
+    ];
+
+    /// The kind as [`parse_kind`] reads it and a nameplate writes it: `Pt100`, `K`.
+    pub fn name(self) -> String {
+        match self {
+            SensorKind::Rtd(k) => k.name().to_string(),
+            SensorKind::Thermocouple(tc) => tc.letter().to_string(),
+        }
+    }
+
+    /// The words a picker shows: `Pt100 RTD`, `type K thermocouple`.
+    pub fn label(self) -> String {
+        match self {
+            SensorKind::Rtd(k) => format!("{} RTD", k.name()),
+            SensorKind::Thermocouple(tc) => format!("type {} thermocouple", tc.letter()),
+        }
+    }
+
+    /// The kind of a recorded sensor (none for a DP level sensor, which has no kind here).
+    pub fn of(sensor: &Sensor) -> Option<SensorKind> {
+        match *sensor {
+            Sensor::Rtd { element, .. } => Some(SensorKind::Rtd(element)),
+            Sensor::Thermocouple { tc, .. } => Some(SensorKind::Thermocouple(tc)),
+            Sensor::DpLevel { .. } => None,
+        }
+    }
+
+    /// This kind's place in [`SensorKind::ALL`].
+    pub fn index(self) -> usize {
+        SensorKind::ALL
+            .iter()
+            .position(|k| *k == self)
+            .unwrap_or_default()
+    }
+}
+
+/// The words of the tag form's sensor picker's first option: no sensor recorded.
+pub const NO_SENSOR: &str = "none recorded";
+
+/// The words for a DP level sensor on the tag form's picker: its setup is kept as it
+/// is (it is set in the tag's JSON, not on the form).
+pub const KEPT_DP_LEVEL: &str = "DP level (kept as set)";
+
+/// What the tag form's sensor picker offers ([`NO_SENSOR`], then every [`SensorKind`],
+/// then [`KEPT_DP_LEVEL`] when the form holds a DP level sensor) and which one is picked.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct SensorChoices {
+    /// The options, in words.
+    pub options: Vec<String>,
+    /// The one picked.
+    pub current: usize,
+}
+
+/// The picker for a sensor kind as the form holds it (`Pt100`, `K`; `""` is
+/// [`NO_SENSOR`]). A kind that does not read is shown as none picked; the form names it
+/// when saved.
+pub fn choices(kind: &str) -> SensorChoices {
+    let mut options: Vec<String> = std::iter::once(NO_SENSOR.to_string())
+        .chain(SensorKind::ALL.iter().map(|k| k.label()))
+        .collect();
+    let kind = kind.trim();
+    let current = if kind == KEPT_DP_LEVEL {
+        options.push(KEPT_DP_LEVEL.to_string());
+        options.len() - 1
+    } else if kind.is_empty() {
+        0
+    } else {
+        parse_kind(kind).map_or(0, |k| k.index() + 1)
+    };
+    SensorChoices { options, current }
+}
+
+/// The form's kind text for option `index` of [`choices`] (`""` for [`NO_SENSOR`]).
+pub fn picked(choices: &SensorChoices, index: usize) -> String {
+    match index {
+        0 => String::new(),
+        i => match SensorKind::ALL.get(i - 1) {
+            Some(k) => k.name(),
+            None if choices.options.get(i).is_some_and(|o| o == KEPT_DP_LEVEL) => {
+                KEPT_DP_LEVEL.to_string()
+            }
+            None => String::new(),
+        },
+    }
+}
+
+/// The RTD connections a picker offers, in words, 2, 3 and 4 wires in that order.
+pub const WIRINGS: [&str; 3] = ["2-wire", "3-wire", "4-wire"];
+
+/// The wiring text of [`WIRINGS`] option `index` as [`parse_wiring`] reads it (`3` for
+/// anything else).
+pub fn wiring_picked(index: usize) -> String {
+    match index {
+        0 => "2",
+        2 => "4",
+        _ => "3",
+    }
+    .to_string()
+}
+
+/// The [`WIRINGS`] option a wiring text stands for (empty or unreadable: 3-wire, the
+/// default).
+pub fn wiring_chosen(text: &str) -> usize {
+    parse_wiring(text).map_or(1, |w| w.count() as usize - 2)
+}
+
+/// The form filled from a recorded sensor: the fields as [`SensorForm::parse`] reads them
+/// back ([`KEPT_DP_LEVEL`] for a DP level sensor).
+pub fn form_of(sensor: Option<&Sensor>) -> SensorForm {
+    match sensor {
+        None => SensorForm::default(),
+        Some(Sensor::Rtd {
+            element,
+            wiring,
+            lead_ohms,
+        }) => SensorForm {
+            kind: element.name().to_string(),
+            wiring: wiring.count().to_string(),
+            lead_ohms: if *lead_ohms > 0.0 {
+                crate::display::trimmed(*lead_ohms)
+            } else {
+                String::new()
+            },
+            cold_junction: String::new(),
+        },
+        Some(Sensor::Thermocouple { tc, cj_c }) => SensorForm {
+            kind: tc.letter().to_string(),
+            cold_junction: crate::display::trimmed(*cj_c),
+            ..Default::default()
+        },
+        Some(Sensor::DpLevel { .. }) => SensorForm {
+            kind: KEPT_DP_LEVEL.to_string(),
+            ..Default::default()
+        },
+    }
+}
+
 /// The cold-junction temperature a transmitter's terminals may be at, °C (common practice:
 /// an indoor or field housing; a value outside is a typing slip, not a terminal).
 pub const COLD_JUNCTION_RANGE_C: (f64, f64) = (-50.0, 100.0);
@@ -59,6 +211,21 @@ pub struct SensorForm {
 }
 
 impl SensorForm {
+    /// As [`SensorForm::parse`], but the kind [`KEPT_DP_LEVEL`] gives `kept` when it is a
+    /// DP level sensor (the tag's own, as saved; the form does not retype its setup).
+    pub fn parse_keeping(&self, kept: Option<&Sensor>) -> Result<Option<Sensor>, FormError> {
+        if self.kind.trim() == KEPT_DP_LEVEL {
+            return match kept {
+                Some(s @ Sensor::DpLevel { .. }) => Ok(Some(*s)),
+                _ => Err(FormError::new(
+                    Field::Sensor,
+                    "has no DP level setup to keep; pick an RTD, a thermocouple or none",
+                )),
+            };
+        }
+        self.parse()
+    }
+
     /// The sensor the form describes; `Ok(None)` when no kind is given. An RTD-only field
     /// given for a thermocouple (or the other way round) is refused, naming it, so that
     /// nothing typed is silently dropped.
@@ -200,6 +367,56 @@ mod tests {
             })
         );
         assert_eq!(form("", "", "", "").parse().unwrap(), None);
+    }
+
+    #[test]
+    fn the_picker_lists_every_kind_and_reads_back_what_it_shows() {
+        let c = choices("");
+        assert_eq!(c.options.len(), 1 + SensorKind::ALL.len());
+        assert_eq!((c.options[0].as_str(), c.current), (NO_SENSOR, 0));
+        assert_eq!(c.options[1], "Pt100 RTD");
+        assert_eq!(c.options[7], "type K thermocouple");
+        for i in 0..c.options.len() {
+            assert_eq!(choices(&picked(&c, i)).current, i);
+        }
+        assert_eq!(choices("type k").current, 7);
+        // A DP level sensor (set in the tag's JSON) is offered only when the tag has one.
+        let dp = choices(KEPT_DP_LEVEL);
+        assert_eq!(dp.options[dp.current], KEPT_DP_LEVEL);
+        assert_eq!(picked(&dp, dp.current), KEPT_DP_LEVEL);
+        assert_eq!(picked(&c, c.options.len()), "");
+        // 2, 3 and 4 wires, picked and read back; empty is 3-wire.
+        for i in 0..WIRINGS.len() {
+            assert_eq!(wiring_chosen(&wiring_picked(i)), i);
+        }
+        assert_eq!(WIRINGS[wiring_chosen("")], "3-wire");
+    }
+
+    #[test]
+    fn a_recorded_sensor_fills_the_form_and_reads_back_the_same() {
+        // TT-412 (demo plant): a Pt100 on two wires with 0,8 Ω of lead in all; and a type
+        // J with its cold junction at 25 °C.
+        for sensor in [
+            Sensor::Rtd {
+                element: RtdKind::Pt100,
+                wiring: Wiring::TwoWire,
+                lead_ohms: 0.8,
+            },
+            Sensor::Thermocouple {
+                tc: TcType::J,
+                cj_c: 25.0,
+            },
+        ] {
+            assert_eq!(form_of(Some(&sensor)).parse().unwrap(), Some(sensor));
+        }
+        assert_eq!(form_of(None).parse().unwrap(), None);
+        // A DP level sensor is kept as saved; nothing to keep is named.
+        let kept = form_of(None);
+        let dp = SensorForm {
+            kind: KEPT_DP_LEVEL.into(),
+            ..kept
+        };
+        assert_eq!(dp.parse_keeping(None).unwrap_err().field, Field::Sensor);
     }
 
     #[test]
