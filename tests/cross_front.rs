@@ -375,8 +375,12 @@ fn a_shift_at_brindlemoor_is_recorded_alike_from_the_desk_and_the_phone() {
         desk_bundle.to_str().unwrap(),
     ]);
     state.ui.log_all = true;
-    let written =
-        app::log::export(&state, "json", out.path().join("phone").to_str().unwrap()).unwrap();
+    let written = app::log::export(
+        &state,
+        loopside::action::bundle::Format::Json,
+        out.path().join("phone").to_str().unwrap(),
+    )
+    .unwrap();
     assert_eq!(
         said.trim(),
         format!(

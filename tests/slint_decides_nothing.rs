@@ -4,7 +4,11 @@
 //!
 //! This reads the text of every `ui/**/*.slint` file (no Slint needed) and refuses:
 //! - a comparison with a non-empty string literal (`== "supply"`);
-//! - a comparison with a bare number (`== 0`, `> 1`, `kind == 4`).
+//! - a comparison with a bare number (`== 0`, `> 1`, `kind == 4`);
+//! - a string literal passed to a callback or function (`edited("supply", t)`,
+//!   `export-report("md")`): a field or a choice is named by an enum (`FormField.supply`,
+//!   `ReportFormat.markdown`), which Rust matches exhaustively, never by a word Rust must
+//!   spell the same way. Text for people goes through `@tr("…")`, which is allowed.
 //!
 //! Allowed, because they decide nothing about the domain: comparisons with a number that
 //! carries a unit (`width > 600px`, layout arithmetic); whether a text is empty (`!= ""`)
@@ -130,6 +134,56 @@ fn deciding_comparisons(line: &str) -> Vec<String> {
     found
 }
 
+/// The string literals one line of `.slint` code passes to a callback or a function
+/// (`@tr` and `@image-url` take text and paths, not keys, and are allowed).
+fn string_arguments(line: &str) -> Vec<String> {
+    let code = code_of(line);
+    let bytes = code.as_bytes();
+    let mut callees: Vec<String> = Vec::new();
+    let mut found = Vec::new();
+    let mut i = 0;
+    while i < bytes.len() {
+        match bytes[i] {
+            b'"' => {
+                let end = code[i + 1..]
+                    .char_indices()
+                    .scan(false, |escaped, (j, c)| {
+                        let stop = c == '"' && !*escaped;
+                        *escaped = c == '\\' && !*escaped;
+                        Some((j, stop))
+                    })
+                    .find(|(_, stop)| *stop)
+                    .map_or(code.len(), |(j, _)| i + 1 + j);
+                let called = callees.last().is_some_and(|c| {
+                    !c.is_empty() && !["@tr", "@image-url", "if"].contains(&c.as_str())
+                });
+                if called {
+                    found.push(format!(
+                        "{}(\"{}\")",
+                        callees[callees.len() - 1],
+                        &code[i + 1..end]
+                    ));
+                }
+                i = end + 1;
+                continue;
+            }
+            b'(' => {
+                let before = code[..i].trim_end();
+                let start = before
+                    .rfind(|c: char| !(c.is_ascii_alphanumeric() || "-_.@".contains(c)))
+                    .map_or(0, |k| k + 1);
+                callees.push(before[start..].to_string());
+            }
+            b')' => {
+                callees.pop();
+            }
+            _ => {}
+        }
+        i += 1;
+    }
+    found
+}
+
 fn slint_files(dir: &Path, out: &mut Vec<PathBuf>) {
     for entry in std::fs::read_dir(dir).unwrap() {
         let path = entry.unwrap().path();
@@ -171,6 +225,57 @@ fn the_checker_tells_a_decision_from_layout() {
     ] {
         assert_eq!(deciding_comparisons(fine), Vec::<String>::new(), "{fine}");
     }
+}
+
+#[test]
+fn the_checker_tells_a_key_from_text() {
+    // What the screens used to pass, and must not pass again.
+    for bad in [
+        "edited(t) => { PowerAdapter.edited(\"supply\", t); }",
+        "clicked => { LogAdapter.export-report(\"md\"); }",
+        "clicked => { root.add(\"volts\"); }",
+        "edited(t) => { ConvertAdapter.calc-edited( \"cj\", t); }",
+    ] {
+        assert!(!string_arguments(bad).is_empty(), "not caught: {bad}");
+    }
+    for fine in [
+        "edited(t) => { PowerAdapter.edited(FormField.supply, t); }",
+        "text: @tr(\"Edit {}\", TagsAdapter.form.number);",
+        "accessible-label: @tr(\"Remove row {}\", i + 1);",
+        "unit: \"V\";",
+        "label: @tr(\"Row {} input\", i + 1); // add(\"x\") in a comment",
+        "text: (root.a + \" · \") + root.b;",
+    ] {
+        assert_eq!(string_arguments(fine), Vec::<String>::new(), "{fine}");
+    }
+}
+
+#[test]
+fn no_slint_file_names_a_field_or_a_choice_by_a_string() {
+    let mut files = Vec::new();
+    slint_files(
+        &Path::new(env!("CARGO_MANIFEST_DIR")).join("ui"),
+        &mut files,
+    );
+    let mut offending = Vec::new();
+    for file in &files {
+        let text = std::fs::read_to_string(file).unwrap();
+        for (n, line) in text.lines().enumerate() {
+            for c in string_arguments(line) {
+                offending.push(format!(
+                    "{}:{}: {c}: {}",
+                    file.display(),
+                    n + 1,
+                    line.trim()
+                ));
+            }
+        }
+    }
+    assert!(
+        offending.is_empty(),
+        "pass an enum (FormField, a per-form enum in widgets/kinds.slint), not a string:\n{}",
+        offending.join("\n")
+    );
 }
 
 #[test]

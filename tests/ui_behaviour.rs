@@ -5,7 +5,7 @@
 mod util;
 
 use i_slint_backend_testing::{AccessibleRole, ElementHandle};
-use loopside::app::{App, AppState, ConvertAdapter, Screen};
+use loopside::app::{App, AppState, CalcField, ConvertAdapter, Screen};
 use slint::ComponentHandle;
 
 /// The app on the testing backend, in a tall desktop-size window so every screen fits
@@ -78,7 +78,7 @@ fn volts_across_the_resistor_give_the_current() {
     // field itself would, and the result is read back from the screen.
     app.window
         .global::<ConvertAdapter>()
-        .invoke_edited("volts".into(), "3".into());
+        .invoke_edited(loopside::app::FormField::Volts, "3".into());
     assert_eq!(value_of(&app, "Loop current"), "12.000");
 }
 
@@ -203,17 +203,28 @@ fn the_sensor_calculator_works_both_ways() {
     app.show_screen(Screen::Convert);
     let a = app.window.global::<ConvertAdapter>();
     // Pt100 at 75 °C: 128.99 Ω in the IEC 60751 table.
-    a.invoke_calc_edited("temp".into(), "75".into());
+    a.invoke_calc_edited(CalcField::Temperature, "75".into());
     assert_eq!(a.get_calc_signal(), "128.987");
     // Type K with the transmitter's terminals at 20 °C: 12,209 mV − E(20 °C) 0,798 mV =
     // 11,411 mV read back is 300 °C (NIST ITS-90 type K table; table values are rounded
     // to 1 µV, about 0.03 °C here).
-    a.invoke_calc_edited("sensor".into(), "K".into());
+    // The sensor is picked from the core's list, not typed.
+    with_role(&app, "Sensor", AccessibleRole::Combobox);
+    let sensors: Vec<String> = slint::Model::iter(&a.get_calc_sensors())
+        .map(|s| s.to_string())
+        .collect();
+    assert_eq!(sensors.len(), 11, "three RTDs and eight thermocouple types");
+    let k = sensors
+        .iter()
+        .position(|s| s == "type K thermocouple")
+        .unwrap();
+    a.invoke_calc_pick_sensor(i32::try_from(k).unwrap());
     assert!(a.get_calc_tc());
-    a.invoke_calc_edited("signal".into(), "11,411".into());
+    assert_eq!(a.get_calc_sensor_index(), i32::try_from(k).unwrap());
+    a.invoke_calc_edited(CalcField::Signal, "11,411".into());
     let t: f64 = a.get_calc_temp().parse().unwrap();
     assert!((t - 300.0).abs() <= 0.05, "{t}");
-    a.invoke_calc_edited("cj".into(), "cold".into());
+    a.invoke_calc_edited(CalcField::ColdJunction, "cold".into());
     assert_eq!(
         a.get_calc_error_field(),
         loopside::app::FormField::ColdJunction

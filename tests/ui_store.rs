@@ -8,8 +8,8 @@
 mod util;
 
 use loopside::app::{
-    clear_demo, load_or_demo, save, App, AppState, CheckAdapter, LogAdapter, Screen, TagForm,
-    TagsAdapter, DEMO_DIR,
+    clear_demo, load_or_demo, save, App, AppState, CheckAdapter, FormField, LogAdapter,
+    ReportFormat, Screen, SeriesKind, TagForm, TagsAdapter, DEMO_DIR,
 };
 use loopside::journal::Kind;
 use loopside::store::{FileStore, MemoryStore};
@@ -115,8 +115,12 @@ fn handoff_reports_are_written_and_a_bundle_imports_once() {
     let log = app.window.global::<LogAdapter>();
     log.invoke_show_all(true);
     log.set_export_dir(dir.display().to_string().into());
-    for format in ["md", "csv", "json"] {
-        log.invoke_export_report(format.into());
+    for format in [
+        ReportFormat::Markdown,
+        ReportFormat::Csv,
+        ReportFormat::Json,
+    ] {
+        log.invoke_export_report(format);
         assert!(
             log.get_message().starts_with("Wrote "),
             "{}",
@@ -165,7 +169,7 @@ fn handoff_reports_are_written_and_a_bundle_imports_once() {
     log.set_export_dir(shift.display().to_string().into());
     log.invoke_export_dir_edited(shift.display().to_string().into());
     log.invoke_since_edited("2026-11-30".into());
-    log.invoke_export_report("json".into());
+    log.invoke_export_report(ReportFormat::Json);
     let written = std::fs::read_dir(&shift)
         .unwrap()
         .next()
@@ -180,7 +184,7 @@ fn handoff_reports_are_written_and_a_bundle_imports_once() {
         .all(|e| e.time.date_naive().to_string().as_str() >= "2026-11-30"));
     // A start that cannot be read writes nothing and says why.
     log.invoke_since_edited("fortnight".into());
-    log.invoke_export_report("md".into());
+    log.invoke_export_report(ReportFormat::Markdown);
     assert!(
         log.get_message().starts_with("Not written: since"),
         "{}",
@@ -256,7 +260,7 @@ fn a_loop_edited_on_power_is_saved_to_its_tag() {
     let power = app.window.global::<loopside::app::PowerAdapter>();
     assert!(power.get_can_save());
     // The PLC card was swapped for one with a 100 Ω input; a 26 V supply went in.
-    power.invoke_edited("supply".into(), "26".into());
+    power.invoke_edited(FormField::Supply, "26".into());
     power.invoke_save_to_tag();
     assert_eq!(power.get_message(), "Saved this loop to LT-101.");
     let state = app.state.borrow();
@@ -264,7 +268,7 @@ fn a_loop_edited_on_power_is_saved_to_its_tag() {
     assert_eq!(config.supply_volts, 26.0);
     drop(state);
     // A bad field is named and nothing is saved.
-    power.invoke_edited("supply".into(), "lots".into());
+    power.invoke_edited(FormField::Supply, "lots".into());
     power.invoke_save_to_tag();
     assert!(power.get_error_text().starts_with("supply"));
     let state = app.state.borrow();
@@ -291,7 +295,7 @@ fn a_half_typed_tag_a_note_and_the_reference_survive_a_restart() {
         form.number = "PT-650".into();
         form.service = "Clarifier drive torque".into();
         tags.set_form(form);
-        tags.invoke_add_element("ohms".into());
+        tags.invoke_add_element(SeriesKind::Resistor);
         app.window
             .global::<LogAdapter>()
             .set_note_text("Gland on JB-04 weeping".into());

@@ -1,12 +1,17 @@
 //! Convert screen glue: typed text → [`crate::view::convert`] → `ConvertAdapter`.
 
-use super::{model, navigate, AppState, AppWindow, ConvertAdapter, Screen, Shared};
+use super::{
+    model, navigate, AppState, AppWindow, CalcField, ConvertAdapter, FormField, Screen, Shared,
+};
 use crate::error::Result;
+use crate::form::sensor::{parse_kind, SensorKind};
 use crate::number::parse_number;
+use crate::rtd::RtdKind;
 use crate::scale::{Scale, Transfer};
 use crate::signal::BandLimits;
 use crate::view::bands::BandBar;
 use crate::view::convert::{view, ConvertInput, ConvertView, Source};
+use crate::view::sensor_calc::{self, CalcSource};
 use slint::ComponentHandle;
 
 /// Wire the adapter's callbacks.
@@ -19,17 +24,22 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         {
             let mut s = st.borrow_mut();
             let c = &mut s.ui.convert;
-            match field.as_str() {
-                "ohms" => c.ohms = text.to_string(),
-                "lrv" => c.lrv = text.to_string(),
-                "urv" => c.urv = text.to_string(),
-                "unit" => c.unit = text.to_string(),
-                other => {
-                    if let Some(source) = Source::from_name(other) {
-                        c.source = source;
-                        c.text = text.to_string();
-                    }
+            let text = text.to_string();
+            match field {
+                FormField::Ohms => c.ohms = text,
+                FormField::Lrv => c.lrv = text,
+                FormField::Urv => c.urv = text,
+                FormField::Unit => c.unit = text,
+                FormField::Ma | FormField::Percent | FormField::Value | FormField::Volts => {
+                    c.source = match field {
+                        FormField::Ma => Source::Ma,
+                        FormField::Percent => Source::Percent,
+                        FormField::Value => Source::Value,
+                        _ => Source::Volts,
+                    };
+                    c.text = text;
                 }
+                _ => {}
             }
         }
         update(&w, &st.borrow(), false);
@@ -42,17 +52,30 @@ pub fn connect(window: &AppWindow, state: &Shared) {
             let mut s = st.borrow_mut();
             let c = &mut s.ui.convert;
             let text = text.to_string();
-            match field.as_str() {
-                "sensor" => c.calc_sensor = text,
-                "cj" => c.calc_cj = text,
-                "temp" | "signal" => {
-                    c.calc_source = field.to_string();
+            match field {
+                CalcField::ColdJunction => c.calc_cj = text,
+                CalcField::Temperature => {
+                    c.calc_source = CalcSource::Temperature.name().to_string();
                     c.calc_text = text;
                 }
-                _ => {}
+                CalcField::Signal => {
+                    c.calc_source = CalcSource::Signal.name().to_string();
+                    c.calc_text = text;
+                }
             }
         }
         update_calc(&w, &st.borrow(), false);
+    });
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_calc_pick_sensor(move |i| {
+        let Some(w) = weak.upgrade() else { return };
+        if let Some(kind) = usize::try_from(i).ok().and_then(|i| SensorKind::ALL.get(i)) {
+            st.borrow_mut().ui.convert.calc_sensor = kind.name();
+        }
+        // The sensor changes both fields' meaning: the signal is worked out again from the
+        // temperature (or the temperature from the signal) and shown.
+        update_calc(&w, &st.borrow(), true);
     });
     let weak = window.as_weak();
     let st = state.clone();
@@ -72,21 +95,35 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     });
 }
 
+/// The sensor the calculator works with: the one picked (kept in the screen state by the
+/// name a nameplate writes, so states saved when it was typed still read), or a Pt100.
+fn calc_sensor(state: &AppState) -> SensorKind {
+    parse_kind(&state.ui.convert.calc_sensor).unwrap_or(SensorKind::Rtd(RtdKind::Pt100))
+}
+
 /// Copy the sensor calculator in; the field being typed in keeps its text unless `all`.
 pub fn update_calc(window: &AppWindow, state: &AppState, all: bool) {
     let a = window.global::<ConvertAdapter>();
     let c = &state.ui.convert;
-    let v = crate::view::sensor_calc::view(&crate::view::sensor_calc::CalcInput {
-        sensor: c.calc_sensor.clone(),
+    let sensor = calc_sensor(state);
+    let source = CalcSource::from_name(&c.calc_source);
+    let v = sensor_calc::view(&sensor_calc::CalcInput {
+        sensor,
         cold_junction: c.calc_cj.clone(),
-        source: c.calc_source.clone(),
+        source,
         text: c.calc_text.clone(),
     });
     if all {
-        a.set_calc_sensor(c.calc_sensor.clone().into());
+        a.set_calc_sensors(model(
+            sensor_calc::sensor_options()
+                .into_iter()
+                .map(Into::into)
+                .collect(),
+        ));
+        a.set_calc_sensor_index(i32::try_from(sensor.index()).unwrap_or(0));
         a.set_calc_cj(c.calc_cj.clone().into());
     }
-    let from_signal = c.calc_source == "signal";
+    let from_signal = source == CalcSource::Signal;
     if all || from_signal {
         a.set_calc_temp(v.temp_c.into());
     }

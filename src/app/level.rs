@@ -3,7 +3,7 @@
 //! typed is kept in the saved state as it changes.
 
 use super::state::LevelForm;
-use super::{model, AppState, AppWindow, LevelAdapter, LevelRow, Shared};
+use super::{model, AppState, AppWindow, LevelAdapter, LevelField, LevelRow, Shared};
 use super::{LineFill, SketchLabel, SketchLine, SketchRect};
 use crate::view::level::{self as vl, Frac, LevelInput, Piping};
 use slint::ComponentHandle;
@@ -32,32 +32,29 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     let st = state.clone();
     adapter.on_edited(move |field, text| {
         let Some(w) = weak.upgrade() else { return };
-        if let Some(slot) = field_of(&mut st.borrow_mut().ui.level, &field) {
-            *slot = text.to_string();
-        }
+        *field_of(&mut st.borrow_mut().ui.level, field) = text.to_string();
         // The typed field keeps its text; only what is worked out is copied in.
         show(&w, &st.borrow());
     });
 }
 
-/// The form's text for a field named as on the command line.
-fn field_of<'a>(form: &'a mut LevelForm, name: &str) -> Option<&'a mut String> {
-    Some(match name {
-        "sg" => &mut form.sg,
-        "min-m" => &mut form.min_m,
-        "max-m" => &mut form.max_m,
-        "tx-m" => &mut form.tx_m,
-        "leg-m" => &mut form.leg_m,
-        "fill-sg" => &mut form.fill_sg,
-        "hp-seal-m" => &mut form.hp_seal_m,
-        "lp-seal-m" => &mut form.lp_seal_m,
-        "upper-sg" => &mut form.upper_sg,
-        "hp-tap-m" => &mut form.hp_tap_m,
-        "lp-tap-m" => &mut form.lp_tap_m,
-        "unit" => &mut form.unit,
-        "dp" => &mut form.dp,
-        _ => return None,
-    })
+/// The form's text for a field of the card.
+fn field_of(form: &mut LevelForm, field: LevelField) -> &mut String {
+    match field {
+        LevelField::Sg => &mut form.sg,
+        LevelField::MinM => &mut form.min_m,
+        LevelField::MaxM => &mut form.max_m,
+        LevelField::TxM => &mut form.tx_m,
+        LevelField::LegM => &mut form.leg_m,
+        LevelField::FillSg => &mut form.fill_sg,
+        LevelField::HpSealM => &mut form.hp_seal_m,
+        LevelField::LpSealM => &mut form.lp_seal_m,
+        LevelField::UpperSg => &mut form.upper_sg,
+        LevelField::HpTapM => &mut form.hp_tap_m,
+        LevelField::LpTapM => &mut form.lp_tap_m,
+        LevelField::Unit => &mut form.unit,
+        LevelField::Dp => &mut form.dp,
+    }
 }
 
 fn input(form: &LevelForm) -> LevelInput<'_> {

@@ -81,7 +81,12 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let a = w.global::<LogAdapter>();
         let folder = a.get_export_dir().to_string();
         st.borrow_mut().ui.export_dir = folder.clone();
-        let message = match export(&st.borrow(), &format, &folder) {
+        let format = match format {
+            super::ReportFormat::Markdown => Format::Markdown,
+            super::ReportFormat::Csv => Format::Csv,
+            super::ReportFormat::Json => Format::Json,
+        };
+        let message = match export(&st.borrow(), format, &folder) {
             Ok(done) => done.to_string(),
             Err(e) => format!("Not written: {e}"),
         };
@@ -171,9 +176,8 @@ fn whole_period_query(state: &AppState) -> Query {
 /// Write what the Log shows ([`shown_query`]) as a hand-over in `format` (`md`, `csv`,
 /// `json`) into `folder` (the one typed, else the default). See
 /// [`action::bundle::export_handover`].
-pub fn export(state: &AppState, format: &str, folder: &str) -> Result<Exported, StoreError> {
+pub fn export(state: &AppState, format: Format, folder: &str) -> Result<Exported, StoreError> {
     let folder = export_folder(state, folder)?;
-    let format = Format::parse(format)?;
     let q = shown_query(state)?;
     action::bundle::export_handover(
         state.store.as_ref(),

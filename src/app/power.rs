@@ -2,7 +2,7 @@
 //! [`crate::view::power`] → `PowerAdapter`.
 
 use super::state::PowerForm;
-use super::{model, navigate, AppState, AppWindow, PowerAdapter, Screen, Shared};
+use super::{model, navigate, AppState, AppWindow, FormField, PowerAdapter, Screen, Shared};
 use crate::budget::{ElementKind, LoopConfig, DEFAULT_FAULT_MA};
 use crate::display;
 use crate::error::{FieldError, Result};
@@ -24,12 +24,12 @@ pub fn connect(window: &AppWindow, state: &Shared) {
             let mut s = st.borrow_mut();
             let f = &mut s.ui.power;
             let text = text.to_string();
-            match field.as_str() {
-                "supply" => f.supply = text,
-                "tolerance" => f.tolerance = text,
-                "tx-min" => f.tx_min = text,
-                "fault" => f.fault = text,
-                "cable-m" => f.cable_m = text,
+            match field {
+                FormField::Supply => f.supply = text,
+                FormField::SupplySag => f.tolerance = text,
+                FormField::TxMin => f.tx_min = text,
+                FormField::FaultCurrent => f.fault = text,
+                FormField::CableLength => f.cable_m = text,
                 _ => {}
             }
         }
@@ -78,7 +78,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
             let n = s.ui.power.elements.len() + 1;
             s.ui.power
                 .elements
-                .push(new_element(n, kind.as_str() == "volts"));
+                .push(new_element(n, kind == super::SeriesKind::Drop));
         }
         refresh(&w, &st.borrow());
     });

@@ -87,7 +87,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         edit_elements(&weak, |e| {
             e.push(super::power::new_element(
                 e.len() + 1,
-                kind.as_str() == "volts",
+                kind == super::SeriesKind::Drop,
             ))
         })
     });

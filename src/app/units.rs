@@ -68,10 +68,9 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let Some(w) = weak.upgrade() else { return };
         {
             let mut s = st.borrow_mut();
-            match field.as_str() {
-                "value" => s.ui.units.value = text.to_string(),
-                "atm" => s.ui.units.atm = text.to_string(),
-                _ => {}
+            match field {
+                super::UnitsField::Value => s.ui.units.value = text.to_string(),
+                super::UnitsField::Atmosphere => s.ui.units.atm = text.to_string(),
             }
         }
         // The typed field keeps its text; only what is worked out is copied in.

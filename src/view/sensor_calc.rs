@@ -4,23 +4,58 @@
 //! back (NIST ITS-90). The technician types into either field; the other follows.
 
 use crate::display;
-use crate::error::{FieldError, Result};
-use crate::form::sensor::{parse_kind, SensorKind};
+use crate::error::Result;
+use crate::form::sensor::SensorKind;
 use crate::number::{parse_in, parse_number};
 use crate::rtd::Rtd;
 use crate::thermocouple;
 
-/// The calculator as typed.
+/// Which of the calculator's two fields the technician typed into; the other follows.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum CalcSource {
+    /// The temperature, °C.
+    #[default]
+    Temperature,
+    /// The sensor's signal: ohms for an RTD, millivolts for a thermocouple.
+    Signal,
+}
+
+impl CalcSource {
+    /// The name kept in the saved screen state (`temp`, `signal`).
+    pub fn name(self) -> &'static str {
+        match self {
+            CalcSource::Temperature => "temp",
+            CalcSource::Signal => "signal",
+        }
+    }
+
+    /// The source a saved name stands for (the temperature for anything else).
+    pub fn from_name(name: &str) -> CalcSource {
+        if name == CalcSource::Signal.name() {
+            CalcSource::Signal
+        } else {
+            CalcSource::Temperature
+        }
+    }
+}
+
+/// The calculator as picked and typed.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct CalcInput {
-    /// `Pt100`, `pt1000`, `K`, `type J` …
-    pub sensor: String,
+    /// The sensor picked (the screen's list is [`SensorKind::ALL`]).
+    pub sensor: SensorKind,
     /// Cold-junction temperature for a thermocouple, °C as typed.
     pub cold_junction: String,
-    /// Which field was typed: `temp` or `signal`.
-    pub source: String,
+    /// Which field was typed.
+    pub source: CalcSource,
     /// Its text.
     pub text: String,
+}
+
+/// The sensors the calculator's picker offers, in words, in the order of
+/// [`SensorKind::ALL`].
+pub fn sensor_options() -> Vec<String> {
+    SensorKind::ALL.iter().map(|k| k.label()).collect()
 }
 
 /// What the calculator shows.
@@ -36,7 +71,7 @@ pub struct CalcView {
     pub thermocouple: bool,
     /// The standard behind the figures and the sensor's range, in words.
     pub note: String,
-    /// The field in error (`sensor`, `temperature`, `ohms`, `millivolts`, `cold junction`).
+    /// The field in error (`temperature`, `ohms`, `millivolts`, `cold junction`).
     pub error_field: String,
     /// The message, naming the field and the allowed range.
     pub error_text: String,
@@ -53,7 +88,7 @@ pub fn view(input: &CalcInput) -> CalcView {
         error_field: String::new(),
         error_text: String::new(),
     };
-    let from_temp = input.source != "signal";
+    let from_temp = input.source == CalcSource::Temperature;
     if from_temp {
         v.temp_c = input.text.clone();
     } else {
@@ -67,9 +102,7 @@ pub fn view(input: &CalcInput) -> CalcView {
 }
 
 fn fill(input: &CalcInput, from_temp: bool, v: &mut CalcView) -> Result<()> {
-    // The one sensor-kind reader (the command line's --rtd/--tc use it too).
-    let kind = parse_kind(&input.sensor).map_err(FieldError::from)?;
-    match kind {
+    match input.sensor {
         SensorKind::Rtd(k) => {
             let rtd = Rtd::standard(k);
             v.note = format!(
@@ -140,9 +173,9 @@ mod tests {
 
     fn calc(sensor: &str, cj: &str, source: &str, text: &str) -> CalcView {
         view(&CalcInput {
-            sensor: sensor.to_string(),
+            sensor: crate::form::sensor::parse_kind(sensor).unwrap(),
             cold_junction: cj.to_string(),
-            source: source.to_string(),
+            source: CalcSource::from_name(source),
             text: text.to_string(),
         })
     }
@@ -176,7 +209,12 @@ mod tests {
 
     #[test]
     fn bad_input_names_the_field() {
-        assert_eq!(calc("Pt42", "", "temp", "20").error_field, "sensor");
+        // Every kind on the picker works both ways at 20 °C.
+        for kind in SensorKind::ALL {
+            let v = calc(&kind.name(), "0", "temp", "20");
+            assert_eq!(v.error_text, "", "{kind:?}");
+        }
+        assert_eq!(sensor_options()[6], "type K thermocouple");
         let v = calc("Pt100", "", "temp", "900");
         assert_eq!(v.error_field, "temperature");
         assert!(v.error_text.contains("850"), "{}", v.error_text);
