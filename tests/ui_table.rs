@@ -192,3 +192,100 @@ fn a_half_typed_table_survives_a_restart_on_the_phone() {
     // The curve is drawn again from the rows as typed (row 3 has no output yet).
     assert_eq!(curve_points(&app).len(), 2);
 }
+
+#[test]
+fn removing_every_row_leaves_the_tank_with_no_table() {
+    // LT-605 in the demo plant reads its horizontal tank's volume through a 21-row table.
+    // The tank is replaced by a vertical one, whose volume is linear in level: the
+    // technician removes the table row by row and saves; the tag then has no table.
+    let app = app_in(AppState::demo(), 1280.0);
+    app.show_screen(Screen::Tags);
+    tap(&app, "LT-605");
+    tap(&app, "Edit LT-605");
+    for left in (1..=21).rev() {
+        assert_eq!(
+            all(
+                &app,
+                &format!("Row {left} input"),
+                AccessibleRole::TextInput
+            )
+            .len(),
+            1,
+            "row {left} is still there"
+        );
+        tap(&app, "Remove row 1");
+    }
+    // With the last row gone the form says so: linear is picked and the editor is gone.
+    assert_eq!(
+        one(&app, "Transfer: linear", AccessibleRole::Checkbox).accessible_checked(),
+        Some(true)
+    );
+    assert!(all(&app, "Table output unit", AccessibleRole::TextInput).is_empty());
+    tap(&app, "Save");
+    let tags = app.window.global::<TagsAdapter>();
+    assert_eq!(
+        tags.get_error_field(),
+        FormField::None,
+        "{}",
+        tags.get_error_text()
+    );
+    assert_eq!(
+        app.state
+            .borrow()
+            .store
+            .tag("LT-605")
+            .unwrap()
+            .tag
+            .scale
+            .transfer,
+        Transfer::Linear,
+        "the saved table is gone, not kept"
+    );
+}
+
+#[test]
+fn an_order_fault_is_told_by_the_rows_as_numbered_on_screen() {
+    // LT-142, a cone-bottomed tank (invented volumes): 0 m → 0 m³, 1 m → 2 m³, 2 m → 6 m³,
+    // then a fourth row typed later for 1,5 m with 1,5 m³ by mistake (3,5 was meant). In
+    // input order the slip is the third point; on the screen it is row 4, and the error
+    // says row 4 and the row it clashes with, as numbered there.
+    let app = app_in(AppState::demo(), 1280.0);
+    app.show_screen(Screen::Tags);
+    tap(&app, "New tag");
+    type_into(&app, "Tag number", "LT-142");
+    type_into(&app, "URV", "2");
+    type_into(&app, "Unit", "m");
+    one(
+        &app,
+        "Transfer: characterisation table",
+        AccessibleRole::Checkbox,
+    )
+    .invoke_accessible_default_action();
+    type_into(&app, "Table output unit", "m³");
+    for (row, (input, output)) in [("0", "0"), ("1", "2"), ("2", "6"), ("1,5", "1,5")]
+        .into_iter()
+        .enumerate()
+    {
+        if row >= 2 {
+            tap(&app, "Add table row");
+        }
+        type_into(&app, &format!("Row {} input", row + 1), input);
+        type_into(&app, &format!("Row {} output", row + 1), output);
+    }
+    tap(&app, "Save");
+    let tags = app.window.global::<TagsAdapter>();
+    assert_eq!(tags.get_table_error_row(), 3, "row 4 is outlined");
+    assert_eq!(
+        tags.get_error_text(),
+        "table: row 4: outputs must rise (or fall) steadily with input; 1.5 → 1.5 breaks that (against row 2)"
+    );
+    type_into(&app, "Row 4 output", "3,5");
+    tap(&app, "Save");
+    assert_eq!(
+        tags.get_error_field(),
+        FormField::None,
+        "{}",
+        tags.get_error_text()
+    );
+    assert!(app.state.borrow().store.tag("LT-142").is_some());
+}

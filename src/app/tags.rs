@@ -143,11 +143,12 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     adapter.on_add_table_row(move || edit_table(&weak, |rows| rows.push(Default::default())));
     let weak = window.as_weak();
     adapter.on_remove_table_row(move |i| {
-        edit_table(&weak, |rows| {
-            if let Some(i) = usize::try_from(i).ok().filter(|&i| i < rows.len()) {
-                rows.remove(i);
-            }
-        })
+        let Some(w) = weak.upgrade() else { return };
+        let a = w.global::<TagsAdapter>();
+        let mut form = a.get_form();
+        remove_table_row(&mut form, i);
+        a.set_form(form);
+        show_curve(&a);
     });
     let weak = window.as_weak();
     adapter.on_table_changed(move || {
@@ -309,6 +310,22 @@ fn edit_table(weak: &slint::Weak<AppWindow>, change: impl FnOnce(&mut Vec<(Strin
     form.table_rows = table_rows(&rows);
     a.set_form(form);
     show_curve(&a);
+}
+
+/// Remove row `i` of the form's table. With its last row gone the tag has no table: the
+/// transfer goes back to linear, shown picked on the form, and is saved so.
+pub fn remove_table_row(form: &mut super::TagForm, i: i32) {
+    let mut rows = table_rows_of(&form.table_rows);
+    if let Some(i) = usize::try_from(i).ok().filter(|&i| i < rows.len()) {
+        rows.remove(i);
+    }
+    if rows.is_empty() && table_shown(form.transfer) {
+        form.transfer = TransferChoice::Linear.index();
+        form.table_shown = false;
+        form.cutoff_shown = false;
+        form.table_unit = "".into();
+    }
+    form.table_rows = table_rows(&rows);
 }
 
 /// The cutoff field is shown for a square root only.
@@ -604,6 +621,13 @@ pub fn form_of_draft(d: &TagDraft, open: Option<&Tag>) -> super::TagForm {
         &d.loop_form,
     );
     let open = open.filter(|_| !d.is_new);
+    if let (true, 0, Some(tag)) = (f.table_shown, d.table_rows.len(), open) {
+        // A draft from before the table editor: the tag's table, row by row.
+        f.table_rows = table_rows(&table_rows_of_tag(tag));
+        if let Transfer::Table(t) = &tag.scale.transfer {
+            f.table_unit = t.output_unit().into();
+        }
+    }
     let signal = match (&d.signal, open) {
         (Some(text), _) => text.clone(),
         (None, Some(tag)) => signal_text(&tag.scale.signal),
@@ -697,11 +721,9 @@ fn read_loop(f: &super::TagForm) -> std::result::Result<crate::budget::LoopConfi
 /// Build a tag from the form, keeping what the form does not show from `base`.
 pub fn tag_from_form(form: &super::TagForm, base: Option<&Tag>) -> Result<Tag> {
     let number = clean_number(&form.number)?;
-    let kept_table = match base.map(|b| &b.scale.transfer) {
-        Some(Transfer::Table(t)) => Some(t),
-        _ => None,
-    };
-    let scale = range_form_of(form).parse(kept_table)?;
+    // The form shows a table's every row, so what it shows is the table: none kept from
+    // the tag (a table whose rows were all removed is no table).
+    let scale = range_form_of(form).parse(None)?;
     let mut tag = match base {
         Some(b) => {
             let mut t = b.clone();

@@ -305,22 +305,58 @@ pub fn parse_table(text: &str, output_unit: &str) -> Result<CharTable, FormError
             output: number(b, "output")?,
         });
     }
-    CharTable::new(points.clone(), output_unit).map_err(|e| {
-        let row = breaking_row(&points);
-        FormError {
+    // The table's faults are worded here, by the rows as typed and numbered on the
+    // screen (the core numbers its points in input order, which may differ).
+    let (min, max) = crate::scale::TABLE_POINTS;
+    if points.len() < min || points.len() > max {
+        return Err(FormError::new(
+            Field::Table,
+            format!("needs {min} to {max} rows, got {}", points.len()),
+        ));
+    }
+    if let Some(fault) = breaking_row(&points) {
+        let (row, p) = (fault.row, points[fault.row]);
+        let reason = if fault.shared_input {
+            format!(
+                "row {}: rows {} and {} share the input {}; give each input once",
+                row + 1,
+                fault.other + 1,
+                row + 1,
+                crate::display::trimmed(p.input)
+            )
+        } else {
+            format!(
+                "row {}: outputs must rise (or fall) steadily with input; {} → {} breaks that (against row {})",
+                row + 1,
+                crate::display::trimmed(p.input),
+                crate::display::trimmed(p.output),
+                fault.other + 1
+            )
+        };
+        return Err(FormError {
             field: Field::Table,
-            row,
-            reason: match row {
-                Some(r) => format!("row {}: {}", r + 1, e.reason),
-                None => e.reason,
-            },
-        }
-    })
+            row: Some(row),
+            reason,
+        });
+    }
+    CharTable::new(points, output_unit).map_err(FormError::at(Field::Table))
 }
 
-/// The row (as typed, from 0) that breaks a table's order: the later of two rows sharing
-/// an input, or the first whose output does not keep rising (or falling) with input.
-fn breaking_row(points: &[TablePoint]) -> Option<usize> {
+/// A row that breaks a table's order, and the row it clashes with (both as typed, from 0).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+struct OrderFault {
+    /// The row named: the later of the two as typed.
+    row: usize,
+    /// The row it clashes with (its neighbour by input).
+    other: usize,
+    /// True when the two share an input; false when the output turns back.
+    shared_input: bool,
+}
+
+/// The row (as typed) that breaks a table's order: the later of two rows sharing an input,
+/// or the later of the first two neighbours (by input) whose outputs do not keep rising
+/// (or falling) with input.
+fn breaking_row(points: &[TablePoint]) -> Option<OrderFault> {
     let mut order: Vec<usize> = (0..points.len()).collect();
     order.sort_by(|&a, &b| points[a].input.total_cmp(&points[b].input));
     let rising = order.len() > 1 && points[order[1]].output > points[order[0]].output;
@@ -331,7 +367,12 @@ fn breaking_row(points: &[TablePoint]) -> Option<usize> {
         } else {
             b.output < a.output
         };
-        (a.input == b.input || !steady).then(|| pair[0].max(pair[1]))
+        let shared_input = a.input == b.input;
+        (shared_input || !steady).then(|| OrderFault {
+            row: pair[0].max(pair[1]),
+            other: pair[0].min(pair[1]),
+            shared_input,
+        })
     })
 }
 
@@ -475,10 +516,20 @@ mod tests {
         f.table = "0:0; 1:5; 1:6; 2:12".into();
         let e = f.parse(None).unwrap_err();
         assert_eq!(e.row, Some(2));
-        assert!(
-            e.reason.starts_with("row 3: two points share"),
-            "{}",
-            e.reason
+        assert_eq!(
+            e.reason,
+            "row 3: rows 2 and 3 share the input 1; give each input once"
+        );
+        // The order fault is told by rows as typed, never by the table's sorted points.
+        f.table = "0:0; 1:5,1; 2:12; 1,5:4".into();
+        assert_eq!(
+            f.parse(None).unwrap_err().reason,
+            "row 4: outputs must rise (or fall) steadily with input; 1.5 → 4 breaks that (against row 2)"
+        );
+        f.table = "0:0".into();
+        assert_eq!(
+            f.parse(None).unwrap_err().reason,
+            "needs 2 to 32 rows, got 1"
         );
     }
 
