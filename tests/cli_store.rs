@@ -636,3 +636,66 @@ fn a_new_range_keeps_the_tags_signal_span_and_unit() {
     assert_eq!(t["tag"]["scale"]["unit"], "bar");
     assert_eq!(t["tag"]["scale"]["signal"]["low_ma"], 0.0, "{t}");
 }
+
+/// The range flags a `--help` text lists (`--range`, `--unit`, `--sqrt` …), in order.
+fn range_flags(help: &str) -> Vec<String> {
+    const RANGE: [&str; 9] = [
+        "--range",
+        "--unit",
+        "--sqrt",
+        "--cutoff",
+        "--cutoff-dp",
+        "--root-in",
+        "--table",
+        "--table-unit",
+        "--signal",
+    ];
+    help.lines()
+        .filter_map(|l| l.split_whitespace().next())
+        .filter(|w| RANGE.contains(w))
+        .map(str::to_string)
+        .collect()
+}
+
+#[test]
+fn tag_add_and_tag_edit_take_the_same_range_flags() {
+    // One declaration of the range flags: `tag add` must have a range and a unit, `tag
+    // edit` may leave both out (the tag's own are kept), and every other range flag
+    // needs --range in both.
+    let help = |sub: &str| {
+        let out = loopside(&["tag", sub, "--help"]);
+        assert!(out.status.success());
+        String::from_utf8(out.stdout).unwrap()
+    };
+    let (add, edit) = (help("add"), help("edit"));
+    assert_eq!(range_flags(&add).len(), 9, "{add}");
+    assert_eq!(range_flags(&add), range_flags(&edit));
+    let dir = TempDir::new("range-flags");
+    let d = dir.arg();
+    assert!(loopside(&["--data-dir", &d, "demo"]).status.success());
+    // A usage error from the command line's parser: exit code 2, the flag named.
+    let refuses = |args: &[&str]| {
+        let out = loopside(args);
+        assert_eq!(out.status.code(), Some(2), "{args:?}");
+        String::from_utf8(out.stderr).unwrap()
+    };
+    let refused = refuses(&["--data-dir", &d, "tag", "add", "PT-990", "--unit", "bar"]);
+    assert!(refused.contains("--range"), "{refused}");
+    let refused = refuses(&["--data-dir", &d, "tag", "add", "PT-990", "--range", "0..10"]);
+    assert!(refused.contains("--unit"), "{refused}");
+    for lone in [
+        ["--unit", "ft"],
+        ["--signal", "0..20"],
+        ["--table", "0:0;1:1"],
+    ] {
+        let mut args = vec!["--data-dir", d.as_str(), "tag", "edit", "LT-101"];
+        args.extend(lone);
+        let refused = refuses(&args);
+        assert!(refused.contains("--range"), "{lone:?}: {refused}");
+    }
+    assert!(
+        loopside(&["--data-dir", &d, "tag", "edit", "LT-101", "--range", "0..5"])
+            .status
+            .success()
+    );
+}

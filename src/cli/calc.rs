@@ -17,24 +17,21 @@ use clap::Args;
 use serde_json::json;
 use std::io::Write;
 
-/// How a tag's range and transfer are given on the command line (shared with `tag add`).
-#[derive(Debug, Clone, Args)]
+/// How a tag's range and transfer are given on the command line: the one declaration of
+/// these flags, shared by `convert`, `check`, `diagnose`, `tag add` and `tag edit`. Every
+/// flag is optional here and needs `--range`; a command that must have a range says so
+/// with [`RANGE_REQUIRED`] and [`UNIT_REQUIRED`] (`tag edit` does not: without `--range`
+/// the tag's range is kept, and without `--unit` its unit).
+#[derive(Debug, Clone, Default, Args)]
 pub struct RangeArgs {
     /// Range as LRV..URV in the engineering unit (LRV > URV for a reversed range).
-    // Not marked required, so that `check` and `diagnose` can make the whole group
-    // optional (a flattened `Option<RangeArgs>`); clap still refuses a missing one.
-    #[arg(
-        long,
-        allow_hyphen_values = true,
-        value_name = "LRV..URV",
-        required = false
-    )]
-    pub range: String,
+    #[arg(long, allow_hyphen_values = true, value_name = "LRV..URV")]
+    pub range: Option<String>,
     /// Engineering unit of the range (bar, m, °C, m³/h … or free text such as pH).
-    #[arg(long, value_name = "U", required = false)]
-    pub unit: String,
+    #[arg(long, value_name = "U", requires = "range")]
+    pub unit: Option<String>,
     /// Square-root (DP flow) transfer.
-    #[arg(long)]
+    #[arg(long, requires = "range")]
     pub sqrt: bool,
     /// Low-flow cutoff for --sqrt, % of flow (0–100); 1 % of flow is 0.01 % of DP.
     #[arg(
@@ -61,15 +58,47 @@ pub struct RangeArgs {
         long,
         allow_hyphen_values = true,
         value_name = "IN:OUT;…",
-        conflicts_with = "sqrt"
+        conflicts_with = "sqrt",
+        requires = "range"
     )]
     pub table: Option<String>,
     /// Unit of the table's output (e.g. m³).
     #[arg(long, value_name = "U", requires = "table")]
     pub table_unit: Option<String>,
     /// Signal span in mA, default 4..20.
-    #[arg(long, allow_hyphen_values = true, value_name = "LOW..HIGH")]
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "LOW..HIGH",
+        requires = "range"
+    )]
     pub signal: Option<String>,
+}
+
+/// For a command that must have a range: `--range` is required
+/// (`#[command(group = RANGE_REQUIRED())]`).
+#[allow(non_snake_case)]
+pub fn RANGE_REQUIRED() -> clap::ArgGroup {
+    clap::ArgGroup::new("range-required")
+        .arg("range")
+        .required(true)
+}
+
+/// For a command that must have a range: `--unit` is required too.
+#[allow(non_snake_case)]
+pub fn UNIT_REQUIRED() -> clap::ArgGroup {
+    clap::ArgGroup::new("unit-required")
+        .arg("unit")
+        .required(true)
+}
+
+/// For a command where the range may be left out (the tag's own is used): when `--range`
+/// is given, `--unit` is required with it.
+#[allow(non_snake_case)]
+pub fn UNIT_WITH_RANGE() -> clap::ArgGroup {
+    clap::ArgGroup::new("unit-with-range")
+        .arg("range")
+        .requires("unit")
 }
 
 impl RangeArgs {
@@ -87,8 +116,8 @@ impl RangeArgs {
             TransferChoice::Linear
         };
         RangeForm {
-            bounds: Bounds::Together(self.range.clone()),
-            unit: self.unit.clone(),
+            bounds: Bounds::Together(self.range.clone().unwrap_or_default()),
+            unit: self.unit.clone().unwrap_or_default(),
             transfer,
             cutoff: self
                 .cutoff
@@ -110,6 +139,20 @@ impl RangeArgs {
     pub fn scale(&self) -> Result<Scale, FieldError> {
         self.form().parse(None).map_err(FormError::on_command_line)
     }
+
+    /// The scale for `tag edit`: `None` when no `--range` is given (the tag's is kept);
+    /// else the new range and transfer, with the tag's own unit and signal span where
+    /// `--unit` and `--signal` are not given, as on the tag form.
+    pub fn edited_scale(&self, current: &Scale) -> Result<Option<Scale>, FieldError> {
+        if self.range.is_none() {
+            return Ok(None);
+        }
+        let mut args = self.clone();
+        args.unit.get_or_insert_with(|| current.unit.clone());
+        args.signal
+            .get_or_insert_with(|| crate::form::range::signal_text(&current.signal));
+        args.scale().map(Some)
+    }
 }
 
 /// `loopside convert`
@@ -118,6 +161,7 @@ impl RangeArgs {
     loopside convert --range 0..10 --unit bar --ma 12\n  \
     loopside convert --range 0..3000 --unit m3/h --sqrt --cutoff 1 --percent 25\n  \
     loopside convert --range 0..4,5 --unit m --volts 3,2 --ohms 250 --to ft --json")]
+#[command(group = RANGE_REQUIRED(), group = UNIT_REQUIRED())]
 pub struct ConvertArgs {
     #[command(flatten)]
     range: RangeArgs,

@@ -27,6 +27,7 @@ use std::io::{BufRead, Write};
 
 /// Which tag to work on: a number from the register, or a range (and loop) given inline.
 #[derive(Debug, Args)]
+#[command(group = super::calc::UNIT_WITH_RANGE())]
 pub struct TagArgs {
     /// Tag number, e.g. LT-101: read from the register unless --range is given.
     #[arg(long, value_name = "NUMBER")]

@@ -1,6 +1,6 @@
 //! `loopside tag …`: keep the tag register (add, edit, list, show, rename, archive).
 
-use super::calc::{LoopArgs, RangeArgs};
+use super::calc::{LoopArgs, RangeArgs, RANGE_REQUIRED, UNIT_REQUIRED};
 use super::data::{store_error, DataArgs};
 use super::note::{entry_json, entry_line};
 use super::{print_json, print_lines, CliError, CliResult};
@@ -163,6 +163,7 @@ impl DescribeArgs {
     loopside tag add PT-204 --range 0..10 --unit bar --hart --supply 24 --min-volts 10,5 --load \"HART resistor=250\"\n  \
     loopside tag add FT-310 --range 0..3000 --unit m3/h --sqrt --cutoff 1 --service \"Aeration air header flow\"\n  \
     loopside tag add TT-415 --range 0..150 --unit °C --rtd pt100 --wires 3")]
+#[command(group = RANGE_REQUIRED(), group = UNIT_REQUIRED())]
 pub struct TagAddArgs {
     /// Tag number, e.g. LT-101 (any text; never used as a file name).
     number: String,
@@ -184,8 +185,10 @@ pub struct TagAddArgs {
 pub struct TagEditArgs {
     /// Tag number.
     number: String,
+    /// All optional: giving `--range` replaces the range and transfer, keeping the unit
+    /// and the signal span unless `--unit` or `--signal` is given.
     #[command(flatten)]
-    range: EditRangeArgs,
+    range: RangeArgs,
     #[command(flatten)]
     describe: DescribeArgs,
     #[command(flatten)]
@@ -193,86 +196,6 @@ pub struct TagEditArgs {
     /// Forget the loop configuration.
     #[arg(long)]
     no_loop: bool,
-}
-
-/// A new range for `tag edit`: the same options as `tag add`, all optional; giving
-/// `--range` replaces the range and transfer, keeping the unit unless `--unit` is given.
-#[derive(Debug, Args)]
-pub struct EditRangeArgs {
-    /// New range as LRV..URV in the engineering unit.
-    #[arg(long, allow_hyphen_values = true, value_name = "LRV..URV")]
-    range: Option<String>,
-    /// Engineering unit of the new range.
-    #[arg(long, value_name = "U", requires = "range")]
-    unit: Option<String>,
-    /// Square-root (DP flow) transfer.
-    #[arg(long, requires = "range")]
-    sqrt: bool,
-    /// Low-flow cutoff for --sqrt, % of flow (0–100).
-    #[arg(
-        long,
-        allow_hyphen_values = true,
-        value_name = "PCT",
-        requires = "sqrt"
-    )]
-    cutoff: Option<String>,
-    /// The same cutoff in % of DP span instead (0.01 % of DP is 1 % of flow).
-    #[arg(
-        long,
-        allow_hyphen_values = true,
-        value_name = "PCT",
-        requires = "sqrt",
-        conflicts_with = "cutoff"
-    )]
-    cutoff_dp: Option<String>,
-    /// Where the square root is taken: receiver (default) or transmitter.
-    #[arg(long, value_name = "WHERE", requires = "sqrt", value_parser = ["receiver", "transmitter"])]
-    root_in: Option<String>,
-    /// Characterization table as IN:OUT pairs.
-    #[arg(
-        long,
-        allow_hyphen_values = true,
-        value_name = "IN:OUT;…",
-        conflicts_with = "sqrt",
-        requires = "range"
-    )]
-    table: Option<String>,
-    /// Unit of the table's output.
-    #[arg(long, value_name = "U", requires = "table")]
-    table_unit: Option<String>,
-    /// Signal span in mA, default 4..20.
-    #[arg(
-        long,
-        allow_hyphen_values = true,
-        value_name = "LOW..HIGH",
-        requires = "range"
-    )]
-    signal: Option<String>,
-}
-
-impl EditRangeArgs {
-    /// The new range, if one was given, as the same flags `tag add` takes (so it is read
-    /// by the same range form); the unit and the signal span not given are the tag's own,
-    /// as on the tag form.
-    fn range_args(&self, current: &crate::scale::Scale) -> Option<RangeArgs> {
-        let range = self.range.clone()?;
-        Some(RangeArgs {
-            range,
-            unit: self.unit.clone().unwrap_or_else(|| current.unit.clone()),
-            sqrt: self.sqrt,
-            cutoff: self.cutoff.clone(),
-            cutoff_dp: self.cutoff_dp.clone(),
-            root_in: self.root_in.clone(),
-            table: self.table.clone(),
-            table_unit: self.table_unit.clone(),
-            signal: self.signal.clone().or_else(|| {
-                Some(format!(
-                    "{}..{}",
-                    current.signal.low_ma, current.signal.high_ma
-                ))
-            }),
-        })
-    }
 }
 
 /// `loopside tag list`
@@ -340,8 +263,8 @@ pub(super) fn tag(args: TagArgs, out: &mut dyn Write) -> CliResult {
                 .map_err(store_error)?
                 .tag
                 .clone();
-            if let Some(r) = a.range.range_args(&tag.scale) {
-                tag.scale = r.scale()?;
+            if let Some(scale) = a.range.edited_scale(&tag.scale)? {
+                tag.scale = scale;
             }
             a.describe.apply(&mut tag)?;
             if a.no_loop {

@@ -99,13 +99,10 @@ pub fn signal_label(low_ma: f64, high_ma: f64) -> String {
     )
 }
 
-/// A signal span as the range form's signal text: `4..20`.
+/// A signal span as the range form's signal text, every digit kept so it reads back the
+/// same: `4..20`.
 pub fn signal_text(span: &SignalSpan) -> String {
-    format!(
-        "{}..{}",
-        crate::display::trimmed(span.low_ma),
-        crate::display::trimmed(span.high_ma)
-    )
+    format!("{}..{}", span.low_ma, span.high_ma)
 }
 
 /// The picker for a signal span as the form holds it (`LOW..HIGH`; empty is 4–20 mA). A
