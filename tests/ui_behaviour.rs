@@ -73,12 +73,7 @@ fn volts_across_the_resistor_give_the_current() {
     let app = app();
     app.show_screen(Screen::Convert);
     // 250 Ω sense resistor: 1–5 V over 4–20 mA (common practice).
-    // The volts field sits below the fold; the testing backend's element search does not
-    // reach it (i-slint-backend-testing 1.18), so the field's callback is invoked as the
-    // field itself would, and the result is read back from the screen.
-    app.window
-        .global::<ConvertAdapter>()
-        .invoke_edited(loopside::app::FormField::Volts, "3".into());
+    field(&app, "Volts measured").set_accessible_value("3");
     assert_eq!(value_of(&app, "Loop current"), "12.000");
 }
 

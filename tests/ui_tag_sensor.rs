@@ -124,3 +124,40 @@ fn a_pt100_on_a_zero_to_twenty_card_is_picked_not_typed() {
         })
     );
 }
+
+#[test]
+fn on_a_400_px_phone_every_field_of_the_tag_form_is_reached() {
+    // The window's preferred width: the phone layout (the form over the list), with the
+    // fields that sit side by side (URV beside LRV, the supply's sag beside the supply,
+    // the fault current beside the transmitter minimum) each in reach. PT-990, a spare
+    // pressure loop: 0–16 bar, 24 V that may sag 10 %, 12 V transmitter, 21 mA fault.
+    let app = util::ui::app_sized(AppState::demo(), 400.0, 6000.0);
+    app.show_screen(Screen::Tags);
+    tap(&app, "New tag");
+    assert!(
+        all(&app, "Search tags", AccessibleRole::TextInput).is_empty(),
+        "the form covers the list on a phone"
+    );
+    type_into(&app, "Tag number", "PT-990");
+    type_into(&app, "URV", "16");
+    type_into(&app, "Unit", "bar");
+    type_into(&app, "Supply may sag", "10");
+    type_into(&app, "Transmitter minimum", "12");
+    type_into(&app, "Fault current", "21");
+    tap(&app, "Save");
+    let tags = app.window.global::<TagsAdapter>();
+    assert_eq!(
+        tags.get_error_field(),
+        FormField::None,
+        "{}",
+        tags.get_error_text()
+    );
+    let state = app.state.borrow();
+    let tag = &state.store.tag("PT-990").expect("saved").tag;
+    assert_eq!((tag.scale.urv, tag.scale.unit.as_str()), (16.0, "bar"));
+    let c = tag.loop_config.as_ref().expect("a loop");
+    assert_eq!(
+        (c.supply_tolerance_percent, c.tx_min_volts, c.fault_ma),
+        (10.0, 12.0, Some(21.0))
+    );
+}

@@ -207,6 +207,10 @@ pub mod ui {
         app.window
             .window()
             .set_size(slint::LogicalSize::new(width, height));
+        // The window picks its phone or desktop layout in a `changed width` handler, which
+        // an event loop runs; the testing backend has none, so it is run here (without it
+        // the layout chosen for the backend's default size stays, whatever the width).
+        slint::platform::update_timers_and_animations();
         app
     }
 
