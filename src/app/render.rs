@@ -253,11 +253,20 @@ impl Headless {
         }
     }
 
+    /// Open the tag `number` (the tag every screen works on), as a tap on it in the list.
+    pub fn open_tag(&self, number: &str) {
+        super::tags::open(&self.app.window, &self.app.state, number);
+    }
+
     /// Show a screen.
     pub fn show(&self, screen: Screen) {
         self.app.show_screen(screen);
     }
 }
+
+/// How far the tag form is scrolled for the picture of its table editor: past the tag's
+/// number, service, area and range, to the transfer picked (logical px).
+const TABLE_SCROLL_PX: f32 = 540.0;
 
 /// Render every screen at `size` in light and dark, writing `OUT/<size>-<screen>-<theme>.png`.
 /// Returns the files written.
@@ -302,6 +311,19 @@ pub fn render_all(
         headless.tag_form(true);
         shoot(Screen::Tags, "-work", dark)?;
         headless.tag_form(false);
+        // The form of LT-605, whose volume is read through its tank's table: the table
+        // editor and its curve.
+        let open = headless.app.state.borrow().ui.open_tag.clone();
+        headless.open_tag("LT-605");
+        headless.show(Screen::Tags);
+        headless.tag_form(true);
+        slint::ComponentHandle::global::<super::TagsAdapter>(&headless.app.window)
+            .set_form_scroll(-TABLE_SCROLL_PX);
+        shoot(Screen::Tags, "-table", dark)?;
+        headless.tag_form(false);
+        if let Some(number) = open {
+            headless.open_tag(&number);
+        }
     }
     Ok(written)
 }

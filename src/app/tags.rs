@@ -48,6 +48,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let Some(w) = weak.upgrade() else { return };
         let a = w.global::<TagsAdapter>();
         a.set_form(empty_form());
+        a.set_form_scroll(0.0);
         a.set_is_new(true);
         a.set_editing(true);
         clear_error(&a);
@@ -60,6 +61,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         if let Some(tag) = st.borrow().open_tag() {
             let a = w.global::<TagsAdapter>();
             a.set_form(form_of(tag));
+            a.set_form_scroll(0.0);
             a.set_is_new(false);
             a.set_editing(true);
             clear_error(&a);
