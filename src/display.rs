@@ -35,6 +35,11 @@ pub fn ohms(value: f64) -> String {
     }
 }
 
+/// Kilohms, one decimal: a leakage path of `55.0 kΩ`.
+pub fn kilohms(value: f64) -> String {
+    format!("{} kΩ", fixed(value, 1))
+}
+
 /// Metres of cable, no decimals above 10 m: `1432 m`.
 pub fn metres(value: f64) -> String {
     if value.abs() >= 10.0 {
@@ -194,6 +199,7 @@ mod tests {
             ("volts", 2, volts),
             ("volts_spare", 2, volts_spare),
             ("ohms", 1, ohms),
+            ("kilohms", 1, kilohms),
             ("metres", 2, metres),
             ("trimmed", 6, trimmed),
             ("ma_setting", 1, ma_setting),

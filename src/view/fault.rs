@@ -179,7 +179,7 @@ pub fn view(procedure: &Procedure, session: &Session, tag: &Tag, inputs: &Inputs
         .findings
         .iter()
         .map(|f| FindingLine {
-            text: f.text.clone(),
+            text: crate::view::wording::finding::text(f),
             tone: finding_tone(&f.code),
         })
         .collect();
