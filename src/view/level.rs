@@ -329,7 +329,7 @@ pub fn result(input: &LevelInput<'_>) -> Result<LevelResult> {
         row("zero", zero_words(&ranging.zero, unit, span)?),
     ];
     if let Some(h) = level_m {
-        rows.push(row("level", format!("{} m", display::fixed(h, 3))));
+        rows.push(row("level", display::height(h)));
     }
     Ok(LevelResult {
         mount: setup.mount.name().to_string(),
@@ -556,7 +556,7 @@ const TX_H: f64 = 0.08;
 
 /// Metres and fractions formatted as words for the labels.
 fn metres(v: f64) -> String {
-    display::fixed(v.abs(), 2)
+    display::height_label(v)
 }
 
 /// The sketch for a setup that reads. Elevations map onto the picture's height with a
