@@ -243,13 +243,35 @@ pub fn temperature(value_c: f64) -> String {
 
 /// A number with an explicit sign, for errors and deviations: `+0.010`, `-0.020`, `0.000`
 /// (zero has no sign).
-pub fn signed(value: f64, decimals: usize) -> String {
+fn signed(value: f64, decimals: usize) -> String {
     let s = fixed(value, decimals);
     if s.starts_with('-') || s.chars().all(|c| c == '0' || c == '.') {
         s
     } else {
         format!("+{s}")
     }
+}
+
+/// A current error with its sign, three decimals: `+0.010 mA`, `-0.020 mA`.
+pub fn signed_ma(value: f64) -> String {
+    format!("{} mA", signed(value, 3))
+}
+
+/// An engineering-value error with its sign, rounded for the span, with its unit when it
+/// has one: `+0.012 bar`, `-1.5`.
+pub fn signed_value(value: f64, unit: &str, span: f64) -> String {
+    let n = signed(value, decimals_for_span(span));
+    if unit.is_empty() {
+        n
+    } else {
+        format!("{n} {unit}")
+    }
+}
+
+/// An error in % of span with its sign, two decimals, in a column headed `% of span`:
+/// `+0.75`.
+pub fn signed_percent_number(value: f64) -> String {
+    signed(value, 2)
 }
 
 /// A number to `digits` significant digits, trailing zeros dropped: unit conversions
@@ -431,6 +453,11 @@ mod tests {
             ("sensor_input (Ω)", 3, |v| sensor_input(v, "Ω")),
             ("sensor_input (Pa)", 0, |v| sensor_input(v, "Pa")),
             ("signed 3", 3, |v| signed(v, 3)),
+            ("signed_ma", 3, signed_ma),
+            ("signed_value (span 10)", 3, |v| {
+                signed_value(v, "bar", 10.0)
+            }),
+            ("signed_percent_number", 2, signed_percent_number),
             ("quoted_fixed 2", 2, |v| quoted_fixed(v, 2)),
         ]
     }

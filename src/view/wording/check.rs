@@ -56,15 +56,8 @@ fn output_text(r: &CheckResult, value: f64) -> String {
 
 fn output_error_text(r: &CheckResult, error: f64) -> String {
     match r.device {
-        Device::Transmitter => format!("{} mA", display::signed(error, 3)),
-        Device::Receiver => {
-            let d = display::decimals_for_span(r.output_span);
-            if r.output_unit.is_empty() {
-                display::signed(error, d)
-            } else {
-                format!("{} {}", display::signed(error, d), r.output_unit)
-            }
-        }
+        Device::Transmitter => display::signed_ma(error),
+        Device::Receiver => display::signed_value(error, &r.output_unit, r.output_span),
     }
 }
 
@@ -173,7 +166,7 @@ pub fn markdown(r: &CheckResult) -> String {
             cell(&output_text(r, p.expected)),
             cell(&output_text(r, p.measured)),
             cell(&output_error_text(r, p.error)),
-            display::signed(p.error_pct, 2),
+            display::signed_percent_number(p.error_pct),
             if p.pass { "pass" } else { "**FAIL**" }
         ));
     }
