@@ -14,6 +14,7 @@
 pub mod bundle;
 mod file;
 pub mod record;
+pub mod saved;
 mod snapshot;
 
 pub use file::{FileStore, Recovery, RecoveryKind, JOURNAL_FILE, LOCK_FILE};
