@@ -522,11 +522,16 @@ pub trait Store {
         let mut report = ImportReport::default();
         let mut records = Vec::new();
         let mut map: HashMap<TagId, TagId> = HashMap::new();
-        for incoming in &bundle.tags {
+        for (i, incoming) in bundle.tags.iter().enumerate() {
             incoming.tag.validate().map_err(|e| {
                 FieldError::new(
                     "bundle",
-                    format!("tag '{}' is not valid: {e}", incoming.tag.number),
+                    format!(
+                        "tag {} (id {}, number '{}') is not valid: {e}",
+                        i + 1,
+                        incoming.id,
+                        incoming.tag.number
+                    ),
                 )
             })?;
             let here = self
@@ -555,7 +560,7 @@ pub trait Store {
             }
         }
         let mut seen = HashSet::new();
-        for e in &bundle.entries {
+        for (i, e) in bundle.entries.iter().enumerate() {
             if self.entry(&e.id).is_some() || !seen.insert(e.id.clone()) {
                 report.entries_already_here += 1;
                 continue;
@@ -567,13 +572,22 @@ pub trait Store {
                 None => {
                     return Err(FieldError::new(
                         "bundle",
-                        format!("entry {} refers to a tag the bundle does not define", e.id),
+                        format!(
+                            "entry {} (id {}), field tag: {} is not a tag the bundle defines or this register holds",
+                            i + 1,
+                            e.id,
+                            e.tag
+                        ),
                     )
                     .into())
                 }
             }
-            e.validate()
-                .map_err(|err| FieldError::new("bundle", format!("entry {}: {err}", e.id)))?;
+            e.validate().map_err(|err| {
+                FieldError::new(
+                    "bundle",
+                    format!("entry {} (id {}), field {err}", i + 1, e.id),
+                )
+            })?;
             records.push(Record::Entry(e));
             report.entries_added += 1;
         }
