@@ -38,6 +38,7 @@ pub mod display;
 pub mod journal;
 pub mod leave;
 pub mod level;
+pub mod licence;
 pub mod report;
 pub mod resistor;
 pub mod rtd;
