@@ -74,7 +74,7 @@ fn a_tag_with_a_range_typed_as_words_is_named_with_its_number() {
     b["tags"][1]["tag"]["scale"]["urv"] = Value::from("four and a half");
     let message = refusal(&b);
     assert!(
-        message.contains(&format!("tag 2 (id ")) && message.contains(&format!("number '{number}'")),
+        message.contains("tag 2 (id ") && message.contains(&format!("number '{number}'")),
         "{message}"
     );
     assert!(message.contains("field tag.scale.urv"), "{message}");
