@@ -137,3 +137,20 @@ fn a_file_cut_short_names_where_the_reading_stopped() {
     assert!(e.reason.contains("entry 1"), "{e}");
     assert!(e.reason.contains("EOF"), "{e}");
 }
+
+#[test]
+fn two_tags_with_one_number_are_refused_naming_both() {
+    // A hand-edited bundle defines LT-101 twice under two ids. Merging both would leave two
+    // tags answering to one number in the register.
+    let mut b = brindlemoor_bundle();
+    let mut twin = b["tags"][0].clone();
+    twin["id"] = Value::from("0190aaaaaaaa-1111111111111111");
+    let number = twin["tag"]["number"].as_str().unwrap().to_string();
+    b["tags"].as_array_mut().unwrap().push(twin);
+    let count = b["tags"].as_array().unwrap().len();
+    let message = refusal(&b);
+    assert!(
+        message.contains(&format!("tags 1 and {count} are both numbered '{number}'")),
+        "{message}"
+    );
+}

@@ -522,6 +522,23 @@ pub trait Store {
         let mut report = ImportReport::default();
         let mut records = Vec::new();
         let mut map: HashMap<TagId, TagId> = HashMap::new();
+        // A bundle defines each tag once: two definitions of one id, or two ids under one
+        // number, would leave the register unsure which tag a number or id means.
+        let mut first_id: HashMap<&TagId, usize> = HashMap::new();
+        let mut first_number: HashMap<&str, usize> = HashMap::new();
+        for (i, t) in bundle.tags.iter().enumerate() {
+            let twice = |first: usize, what: String| {
+                FieldError::new("bundle", format!("tags {} and {} {what}", first + 1, i + 1))
+            };
+            if let Some(&first) = first_id.get(&t.id) {
+                return Err(twice(first, format!("both have id {}", t.id)).into());
+            }
+            if let Some(&first) = first_number.get(t.tag.number.as_str()) {
+                return Err(twice(first, format!("are both numbered '{}'", t.tag.number)).into());
+            }
+            first_id.insert(&t.id, i);
+            first_number.insert(&t.tag.number, i);
+        }
         for (i, incoming) in bundle.tags.iter().enumerate() {
             incoming.tag.validate().map_err(|e| {
                 FieldError::new(
