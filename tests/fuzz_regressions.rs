@@ -66,3 +66,35 @@ fn an_old_journal_with_a_torn_last_record_is_upgraded_on_the_same_open() {
         files_under(dir.path())
     );
 }
+
+/// fuzz target `period`: `-26-1- 1` typed as the start of a hand-over was read as 1 January
+/// of the year 26 BC (the date reader takes a signed, unpadded year), a moment no log holds
+/// and that cannot even be written out as a time with its offset. Typed dates now lie in
+/// 1970 to 2999 and anything else is refused naming the field.
+#[test]
+fn a_typed_date_outside_1970_to_2999_is_refused_not_read_as_an_ancient_year() {
+    use loopside::journal::{parse_period, Bound};
+    let now = chrono::DateTime::parse_from_rfc3339("2026-12-01T18:30:00+01:00").unwrap();
+    for typed in [
+        "-26-1- 1",
+        "0001-01-01",
+        "1969-12-31",
+        "3000-01-01 06:00",
+        "0999-05-05T00:00:00Z",
+    ] {
+        for bound in [Bound::Since, Bound::Until] {
+            let e = parse_period("since", typed, bound, now, now.offset()).unwrap_err();
+            assert_eq!(e.field, "since");
+            assert!(e.reason.contains("1970 to 2999"), "{typed}: {e}");
+        }
+    }
+    // The night shift's own dates still read.
+    let start = parse_period("since", "2026-11-30", Bound::Since, now, now.offset()).unwrap();
+    assert_eq!(
+        start.unwrap().to_rfc3339(),
+        "2026-11-29T23:00:00+00:00",
+        "local midnight at UTC+1"
+    );
+    assert!(parse_period("since", "1970-01-02", Bound::Since, now, now.offset()).is_ok());
+    assert!(parse_period("since", "2999-12-31", Bound::Until, now, now.offset()).is_ok());
+}
