@@ -8,11 +8,12 @@
 //! Invariant: the snapshot is only a cache, the journal is the record. Whatever the
 //! snapshot holds, opening never panics, never changes the journal, and its log can be
 //! read; a snapshot that is not sealed after damage (one an accident made) gives exactly
-//! the store the journal alone gives, and so does a snapshot loopside set aside.
+//! the store the journal alone gives (its tags, its entries, and what a first text search
+//! finds, which the snapshot's aid section answers).
 #![no_main]
 
 use libfuzzer_sys::fuzz_target;
-use loopside::journal::Entry;
+use loopside::journal::{Entry, EntryId, Query};
 use loopside::store::{FileStore, Store, TagRecord, JOURNAL_FILE, SNAPSHOT_FILE};
 use std::sync::OnceLock;
 
@@ -20,6 +21,8 @@ const MAGIC: &[u8; 16] = b"loopside-snap\n\0\0";
 
 struct Genuine {
     journal: Vec<u8>,
+    /// Ids of the entries a text search finds (answered from the snapshot's aid section).
+    found: Vec<EntryId>,
     snapshot: Vec<u8>,
     tags: Vec<TagRecord>,
     entries: Vec<Entry>,
@@ -35,8 +38,10 @@ fn genuine() -> &'static Genuine {
             .expect("import the demo plant");
         store.write_snapshot().expect("write the snapshot");
         let (tags, entries) = loopside_fuzz::contents(&store);
+        let found = ids(&store);
         drop(store);
         let g = Genuine {
+            found,
             journal: std::fs::read(dir.join(JOURNAL_FILE)).unwrap(),
             snapshot: std::fs::read(dir.join(SNAPSHOT_FILE)).unwrap(),
             tags,
@@ -45,6 +50,19 @@ fn genuine() -> &'static Genuine {
         let _ = std::fs::remove_dir_all(&dir);
         g
     })
+}
+
+/// What a search of the log for "loop" finds, as the first thing asked of the store.
+fn ids(store: &FileStore) -> Vec<EntryId> {
+    let query = Query {
+        text: Some("loop".into()),
+        ..Query::default()
+    };
+    store
+        .search(&query)
+        .into_iter()
+        .map(|e| e.id.clone())
+        .collect()
 }
 
 fuzz_target!(|input: &[u8]| {
@@ -66,6 +84,7 @@ fuzz_target!(|input: &[u8]| {
         store.recoveries().is_empty(),
         "the journal needed no repair"
     );
+    let found = ids(&store);
     let (tags, entries) = loopside_fuzz::contents(&store);
     assert!(
         store.register().load_failure().is_none(),
@@ -75,6 +94,10 @@ fuzz_target!(|input: &[u8]| {
     if !seal || !store.opened_from_snapshot() || snapshot == g.snapshot {
         assert_eq!(tags, g.tags, "tags differ from the journal's");
         assert_eq!(entries, g.entries, "entries differ from the journal's");
+        assert_eq!(
+            found, g.found,
+            "a search finds other entries than the journal's"
+        );
     }
     drop(store);
     assert_eq!(

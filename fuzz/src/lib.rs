@@ -58,13 +58,16 @@ pub fn sealed_journal(input: &[u8]) -> Vec<u8> {
     out
 }
 
-/// Layout of a snapshot file's start (see `store::snapshot`): 16 bytes of magic, thirteen
-/// little-endian `u64` fields, then the check value of all of that.
+/// Layout of a snapshot file's start (see `store::snapshot`, format 2): 16 bytes of magic,
+/// fifteen little-endian `u64` fields, then the check value of all of that; then the tags,
+/// entries and aid sections.
 pub mod snapshot_layout {
     /// Length of the magic.
     pub const MAGIC_LEN: usize = 16;
     /// Number of `u64` fields after it.
-    pub const FIELDS: usize = 13;
+    pub const FIELDS: usize = 15;
+    /// The snapshot format these offsets describe.
+    pub const FORMAT_VERSION: u64 = 2;
     /// Length of the fixed start, check value included.
     pub const HEADER_LEN: usize = MAGIC_LEN + FIELDS * 8 + 8;
     /// Field numbers.
@@ -89,6 +92,10 @@ pub mod snapshot_layout {
     pub const ENTRIES_LEN: usize = 11;
     /// Its check.
     pub const ENTRIES_CHECK: usize = 12;
+    /// Length of the aid section.
+    pub const AID_LEN: usize = 13;
+    /// Its check.
+    pub const AID_CHECK: usize = 14;
     /// How many journal bytes at each end the snapshot checks.
     pub const EDGE: u64 = 4096;
 }
@@ -115,7 +122,7 @@ pub fn seal_snapshot(bytes: &mut Vec<u8>, journal: &[u8], magic: &[u8; 16]) {
         bytes.resize(HEADER_LEN, 0);
     }
     bytes[..MAGIC_LEN].copy_from_slice(magic);
-    set_field(bytes, FORMAT, 1);
+    set_field(bytes, FORMAT, FORMAT_VERSION);
     set_field(bytes, SCHEMA, 1);
     let journal_len = journal.len() as u64;
     let covered = match field(bytes, COVERED) {
@@ -135,13 +142,18 @@ pub fn seal_snapshot(bytes: &mut Vec<u8>, journal: &[u8], magic: &[u8; 16]) {
     );
     let body = (bytes.len() - HEADER_LEN) as u64;
     let tags_len = field(bytes, TAGS_LEN).min(body);
+    let entries_len = field(bytes, ENTRIES_LEN).min(body - tags_len);
     set_field(bytes, TAGS_LEN, tags_len);
-    set_field(bytes, ENTRIES_LEN, body - tags_len);
+    set_field(bytes, ENTRIES_LEN, entries_len);
+    set_field(bytes, AID_LEN, body - tags_len - entries_len);
     let tags_end = HEADER_LEN + tags_len as usize;
+    let entries_end = tags_end + entries_len as usize;
     let tags_check = check(&bytes[HEADER_LEN..tags_end]);
-    let entries_check = check(&bytes[tags_end..]);
+    let entries_check = check(&bytes[tags_end..entries_end]);
+    let aid_check = check(&bytes[entries_end..]);
     set_field(bytes, TAGS_CHECK, tags_check);
     set_field(bytes, ENTRIES_CHECK, entries_check);
+    set_field(bytes, AID_CHECK, aid_check);
     let head_check = check(&bytes[..HEADER_LEN - 8]);
     bytes[HEADER_LEN - 8..HEADER_LEN].copy_from_slice(&head_check.to_le_bytes());
 }
