@@ -22,6 +22,7 @@
 //! the element taking most of the supply), the HART verdict a [`HartVerdict`]; the words
 //! are written once in `crate::view::wording::power`.
 
+use crate::display;
 use crate::error::{finite, non_negative, within, FieldError, Result};
 use crate::wire::{self, Conductor};
 use serde::{Deserialize, Serialize};
@@ -255,7 +256,11 @@ impl LoopConfig {
         if hi <= lo {
             return Err(FieldError::new(
                 "hart_max_ohms",
-                format!("{hi} Ω must be above the HART minimum {lo} Ω"),
+                format!(
+                    "{} Ω must be above the HART minimum {} Ω",
+                    display::quoted(hi),
+                    display::quoted(lo)
+                ),
             ));
         }
         Ok(())

@@ -35,6 +35,11 @@ pub fn ohms(value: f64) -> String {
     }
 }
 
+/// Kilohms, one decimal: a leakage path of `55.0 kΩ`.
+pub fn kilohms(value: f64) -> String {
+    format!("{} kΩ", fixed(value, 1))
+}
+
 /// Metres of cable, no decimals above 10 m: `1432 m`.
 pub fn metres(value: f64) -> String {
     if value.abs() >= 10.0 {
@@ -42,6 +47,160 @@ pub fn metres(value: f64) -> String {
     } else {
         format!("{} m", fixed(value, 2))
     }
+}
+
+/// A loop current as typed in a field beside its `mA` label, three decimals: `12.000`.
+pub fn ma_number(value: f64) -> String {
+    fixed(value, 3)
+}
+
+/// A current precise to a tenth of a microampere, for a reference's accuracy: `0.0040 mA`.
+pub fn ma_fine(value: f64) -> String {
+    format!("{} mA", fixed(value, 4))
+}
+
+/// A current on a band bar's scale, one decimal with a whole number bare: `4`, `3.6`,
+/// `20.5`.
+pub fn ma_label(value: f64) -> String {
+    let s = fixed(value, 1);
+    s.strip_suffix(".0").map(str::to_string).unwrap_or(s)
+}
+
+/// A percent of span in a field beside its `%` label, two decimals: `50.00`.
+pub fn percent_number(value: f64) -> String {
+    fixed(value, 2)
+}
+
+/// A small percent of span, three decimals: a resistor's reading error or a reference's
+/// accuracy, `0.013 %`.
+pub fn percent_fine(value: f64) -> String {
+    format!("{} %", fixed(value, 3))
+}
+
+/// A check's test point, whole percent of span without the sign: `25`.
+pub fn test_point(percent: f64) -> String {
+    fixed(percent, 0)
+}
+
+/// A ratio such as a test uncertainty ratio, one decimal, written before `:1`: `4.2`.
+pub fn ratio(value: f64) -> String {
+    fixed(value, 1)
+}
+
+/// A whole number: a limit quoted as a round figure (`4`:1, `230`–`1100` Ω).
+pub fn whole(value: f64) -> String {
+    fixed(value, 0)
+}
+
+/// A setting typed in a form, one decimal, for a supply or a fault current beside its
+/// unit: `24.0`, `22.0`.
+pub fn setting_number(value: f64) -> String {
+    fixed(value, 1)
+}
+
+/// Volts across a sense resistor, three decimals (1 mV): `3.000 V`.
+pub fn sense_volts(value: f64) -> String {
+    format!("{} V", sense_volts_number(value))
+}
+
+/// [`sense_volts`] in a field beside its `V` label: `3.000`.
+pub fn sense_volts_number(value: f64) -> String {
+    fixed(value, 3)
+}
+
+/// Watts dissipated in a resistor, three decimals: `0.144 W`.
+pub fn watts(value: f64) -> String {
+    format!("{} W", fixed(value, 3))
+}
+
+/// Small resistances (leads, their error), three decimals: `0.360 Ω`.
+pub fn ohms_fine(value: f64) -> String {
+    format!("{} Ω", fixed(value, 3))
+}
+
+/// A platinum RTD's resistance, four decimals (0.1 mΩ, about 0.00026 °C on a Pt100):
+/// `109.7351 Ω`.
+pub fn sensor_ohms(value: f64) -> String {
+    format!("{} Ω", fixed(value, 4))
+}
+
+/// An RTD's resistance in the sensor calculator's field beside its `Ω` label, three
+/// decimals: `109.735`.
+pub fn sensor_ohms_number(value: f64) -> String {
+    fixed(value, 3)
+}
+
+/// An RTD's sensitivity, five decimals: `0.38506 Ω/°C`.
+pub fn ohms_per_degree(value: f64) -> String {
+    format!("{} Ω/°C", fixed(value, 5))
+}
+
+/// A thermocouple's EMF, three decimals (1 µV): `4.096 mV`.
+pub fn millivolts(value: f64) -> String {
+    format!("{} mV", millivolts_number(value))
+}
+
+/// [`millivolts`] in a field beside its `mV` label: `4.096`.
+pub fn millivolts_number(value: f64) -> String {
+    fixed(value, 3)
+}
+
+/// A thermocouple's sensitivity, two decimals: `40.96 µV/°C`.
+pub fn microvolts_per_degree(value: f64) -> String {
+    format!("{} µV/°C", fixed(value, 2))
+}
+
+/// A temperature in the sensor calculator's field beside its `°C` label, two decimals:
+/// `21.50`.
+pub fn temperature_number(value_c: f64) -> String {
+    fixed(value_c, 2)
+}
+
+/// A temperature given as a condition (a cold junction, a cable's), one decimal: `20.0 °C`.
+pub fn temperature_setting(value_c: f64) -> String {
+    format!("{} °C", fixed(value_c, 1))
+}
+
+/// A temperature worked out from an RTD or its error, three decimals: `21.500 °C`.
+pub fn temperature_fine(value_c: f64) -> String {
+    format!("{} °C", fixed(value_c, 3))
+}
+
+/// A conductor's cross-section, three decimals: `1.000 mm²`.
+pub fn square_millimetres(value: f64) -> String {
+    format!("{} mm²", fixed(value, 3))
+}
+
+/// A conductor's diameter, three decimals: `1.128 mm`.
+pub fn millimetres(value: f64) -> String {
+    format!("{} mm", fixed(value, 3))
+}
+
+/// A conductor's resistance per kilometre, three decimals: `18.100 Ω/km`.
+pub fn ohms_per_km(value: f64) -> String {
+    format!("{} Ω/km", fixed(value, 3))
+}
+
+/// A liquid level or height worked out from a DP, three decimals (1 mm): `2.250 m`.
+pub fn height(value_m: f64) -> String {
+    format!("{} m", fixed(value_m, 3))
+}
+
+/// A height on a sketch's label, two decimals, no sign and no unit: `0.60`.
+pub fn height_label(value_m: f64) -> String {
+    fixed(value_m.abs(), 2)
+}
+
+/// An engineering value in a field beside its unit, rounded for its span: `2.2500`.
+pub fn value_number(value: f64, span: f64) -> String {
+    fixed(value, decimals_for_span(span))
+}
+
+/// A value applied to a sensor's input in the sensor's own unit: whole pascals, else three
+/// decimals: `109.735 Ω`, `4.096 mV`, `2500 Pa`.
+pub fn sensor_input(value: f64, unit: &str) -> String {
+    let decimals = if unit == "Pa" { 0 } else { 3 };
+    format!("{} {unit}", fixed(value, decimals))
 }
 
 /// How many decimals an engineering value of this span needs for 0.01 % resolution
@@ -84,13 +243,35 @@ pub fn temperature(value_c: f64) -> String {
 
 /// A number with an explicit sign, for errors and deviations: `+0.010`, `-0.020`, `0.000`
 /// (zero has no sign).
-pub fn signed(value: f64, decimals: usize) -> String {
+fn signed(value: f64, decimals: usize) -> String {
     let s = fixed(value, decimals);
     if s.starts_with('-') || s.chars().all(|c| c == '0' || c == '.') {
         s
     } else {
         format!("+{s}")
     }
+}
+
+/// A current error with its sign, three decimals: `+0.010 mA`, `-0.020 mA`.
+pub fn signed_ma(value: f64) -> String {
+    format!("{} mA", signed(value, 3))
+}
+
+/// An engineering-value error with its sign, rounded for the span, with its unit when it
+/// has one: `+0.012 bar`, `-1.5`.
+pub fn signed_value(value: f64, unit: &str, span: f64) -> String {
+    let n = signed(value, decimals_for_span(span));
+    if unit.is_empty() {
+        n
+    } else {
+        format!("{n} {unit}")
+    }
+}
+
+/// An error in % of span with its sign, two decimals, in a column headed `% of span`:
+/// `+0.75`.
+pub fn signed_percent_number(value: f64) -> String {
+    signed(value, 2)
 }
 
 /// A number to `digits` significant digits, trailing zeros dropped: unit conversions
@@ -132,8 +313,9 @@ fn trim_zeros(s: String) -> String {
     }
 }
 
-/// A number with a fixed count of decimals, never showing `-0.00`.
-pub fn fixed(value: f64, decimals: usize) -> String {
+/// A number with a fixed count of decimals, never showing `-0.00`: the rounding every
+/// named format above uses (private, so a call site says which quantity it shows).
+fn fixed(value: f64, decimals: usize) -> String {
     let s = format!("{value:.decimals$}");
     if s.starts_with('-') && s[1..].chars().all(|c| c == '0' || c == '.') {
         s[1..].to_string()
@@ -162,6 +344,44 @@ mod tests {
         assert_eq!(temperature(21.5), "21.50 °C");
         assert_eq!(volts_spare(-0.4), "\u{2212}0.40 V");
         assert_eq!(volts_spare(-0.001), "0.00 V");
+    }
+
+    #[test]
+    fn named_formats_for_the_quantities_on_the_screens() {
+        // 12 mA through a 250 Ω sense resistor: 12 mA × 250 Ω = 3 V, 0.036 W (Ohm's law).
+        assert_eq!(sense_volts(0.012 * 250.0), "3.000 V");
+        assert_eq!(sense_volts_number(0.012 * 250.0), "3.000");
+        assert_eq!(watts(0.012 * 0.012 * 250.0), "0.036 W");
+        // A Pt100 at 100 °C is 138.5055 Ω (IEC 60751 table), 0.38 Ω/°C near there.
+        assert_eq!(sensor_ohms(138.5055), "138.5055 Ω");
+        assert_eq!(sensor_ohms_number(138.5055), "138.506");
+        assert_eq!(ohms_per_degree(0.379), "0.37900 Ω/°C");
+        // A type K thermocouple at 100 °C gives 4.096 mV (NIST ITS-90 table), about
+        // 41 µV/°C.
+        assert_eq!(millivolts(4.096), "4.096 mV");
+        assert_eq!(microvolts_per_degree(41.37), "41.37 µV/°C");
+        // NE 43 limits on the band bar: whole numbers bare.
+        assert_eq!(ma_label(4.0), "4");
+        assert_eq!(ma_label(3.6), "3.6");
+        assert_eq!(ma_label(20.5), "20.5");
+        // A 1.0 mm² conductor is 1.128 mm across (d = 2·√(A/π)).
+        assert_eq!(square_millimetres(1.0), "1.000 mm²");
+        assert_eq!(
+            millimetres(2.0 * (1.0 / std::f64::consts::PI).sqrt()),
+            "1.128 mm"
+        );
+        assert_eq!(ohms_per_km(18.1), "18.100 Ω/km");
+        // LT-101 (0–4.5 m): a value to 0.01 % of span, four decimals.
+        assert_eq!(value_number(2.25, 4.5), "2.2500");
+        assert_eq!(height(2.25), "2.250 m");
+        assert_eq!(height_label(-0.6), "0.60");
+        assert_eq!(test_point(25.0), "25");
+        assert_eq!(ratio(4.23), "4.2");
+        assert_eq!(whole(230.4), "230");
+        assert_eq!(setting_number(24.0), "24.0");
+        assert_eq!(temperature_setting(20.0), "20.0 °C");
+        assert_eq!(sensor_input(2500.4, "Pa"), "2500 Pa");
+        assert_eq!(sensor_input(138.5055, "Ω"), "138.506 Ω");
     }
 
     #[test]
@@ -194,6 +414,7 @@ mod tests {
             ("volts", 2, volts),
             ("volts_spare", 2, volts_spare),
             ("ohms", 1, ohms),
+            ("kilohms", 1, kilohms),
             ("metres", 2, metres),
             ("trimmed", 6, trimmed),
             ("ma_setting", 1, ma_setting),
@@ -203,7 +424,40 @@ mod tests {
             ("value (span 10)", 3, |v| value(v, "bar", 10.0)),
             ("value (span 3000)", 1, |v| value(v, "m³/h", 3000.0)),
             ("fixed 4", 4, |v| fixed(v, 4)),
+            ("ma_number", 3, ma_number),
+            ("ma_fine", 4, ma_fine),
+            ("ma_label", 1, ma_label),
+            ("percent_number", 2, percent_number),
+            ("percent_fine", 3, percent_fine),
+            ("test_point", 0, test_point),
+            ("ratio", 1, ratio),
+            ("whole", 0, whole),
+            ("setting_number", 1, setting_number),
+            ("sense_volts", 3, sense_volts),
+            ("watts", 3, watts),
+            ("ohms_fine", 3, ohms_fine),
+            ("sensor_ohms", 4, sensor_ohms),
+            ("sensor_ohms_number", 3, sensor_ohms_number),
+            ("ohms_per_degree", 5, ohms_per_degree),
+            ("millivolts", 3, millivolts),
+            ("microvolts_per_degree", 2, microvolts_per_degree),
+            ("temperature_number", 2, temperature_number),
+            ("temperature_setting", 1, temperature_setting),
+            ("temperature_fine", 3, temperature_fine),
+            ("square_millimetres", 3, square_millimetres),
+            ("millimetres", 3, millimetres),
+            ("ohms_per_km", 3, ohms_per_km),
+            ("height", 3, height),
+            ("height_label", 2, height_label),
+            ("value_number (span 10)", 3, |v| value_number(v, 10.0)),
+            ("sensor_input (Ω)", 3, |v| sensor_input(v, "Ω")),
+            ("sensor_input (Pa)", 0, |v| sensor_input(v, "Pa")),
             ("signed 3", 3, |v| signed(v, 3)),
+            ("signed_ma", 3, signed_ma),
+            ("signed_value (span 10)", 3, |v| {
+                signed_value(v, "bar", 10.0)
+            }),
+            ("signed_percent_number", 2, signed_percent_number),
             ("quoted_fixed 2", 2, |v| quoted_fixed(v, 2)),
         ]
     }

@@ -4,6 +4,7 @@
 //! and what would have been accepted ("supply_volts: must be a finite number, got NaN").
 //! Nothing in the core panics on bad input; it returns a [`FieldError`] instead.
 
+use crate::display::quoted;
 use std::fmt;
 
 /// One input that could not be used, with the field's name and the reason in plain words.
@@ -48,7 +49,7 @@ pub fn finite(field: &str, value: f64) -> Result<f64> {
     } else {
         Err(FieldError::new(
             field,
-            format!("must be a finite number, got {value}"),
+            format!("must be a finite number, got {}", quoted(value)),
         ))
     }
 }
@@ -61,7 +62,7 @@ pub fn positive(field: &str, value: f64) -> Result<f64> {
     } else {
         Err(FieldError::new(
             field,
-            format!("must be greater than 0, got {v}"),
+            format!("must be greater than 0, got {}", quoted(v)),
         ))
     }
 }
@@ -74,7 +75,7 @@ pub fn non_negative(field: &str, value: f64) -> Result<f64> {
     } else {
         Err(FieldError::new(
             field,
-            format!("must be 0 or more, got {v}"),
+            format!("must be 0 or more, got {}", quoted(v)),
         ))
     }
 }
@@ -87,7 +88,12 @@ pub fn within(field: &str, value: f64, low: f64, high: f64) -> Result<f64> {
     } else {
         Err(FieldError::new(
             field,
-            format!("must be between {low} and {high}, got {v}"),
+            format!(
+                "must be between {} and {}, got {}",
+                quoted(low),
+                quoted(high),
+                quoted(v)
+            ),
         ))
     }
 }
@@ -99,7 +105,17 @@ mod tests {
     #[test]
     fn messages_name_the_field_and_the_rule() {
         let e = positive("loop_ohms", -3.0).unwrap_err();
-        assert_eq!(e.to_string(), "loop_ohms: must be greater than 0, got -3");
+        // A negative number is quoted with the minus sign, not a dash.
+        assert_eq!(
+            e.to_string(),
+            "loop_ohms: must be greater than 0, got \u{2212}3"
+        );
+        // A number is quoted as typed, not with the float's last digits: 0.1 + 0.2 V.
+        let e = within("tx_min_volts", 0.1 + 0.2 + 1000.0, 0.0, 1000.0).unwrap_err();
+        assert_eq!(
+            e.to_string(),
+            "tx_min_volts: must be between 0 and 1000, got 1000.3"
+        );
         let e = finite("supply_volts", f64::NAN).unwrap_err();
         assert!(e
             .to_string()

@@ -151,7 +151,8 @@ pub struct LevelSetup {
     pub ports_swapped: bool,
 }
 
-/// Where the zero of differential pressure lies relative to the calibrated range.
+/// Where the zero of differential pressure lies relative to the calibrated range (in words:
+/// [`crate::view::level::zero_words`]).
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum ZeroShift {
     /// LRV = 0: a zero-based range.
@@ -166,23 +167,6 @@ pub enum ZeroShift {
         /// How far zero DP sits below the LRV (Pa).
         by_pa: f64,
     },
-}
-
-impl ZeroShift {
-    /// Plain words for a report, with the amount in `unit`.
-    pub fn describe(&self, unit: &str) -> Result<String> {
-        Ok(match self {
-            ZeroShift::None => "zero-based (LRV = 0)".to_string(),
-            ZeroShift::Elevated { by_pa } => format!(
-                "elevated zero by {} {unit} (LRV below 0)",
-                display::quoted_fixed(units::difference_from_pa(*by_pa, unit, "unit")?, 2)
-            ),
-            ZeroShift::Suppressed { by_pa } => format!(
-                "suppressed zero by {} {unit} (LRV above 0)",
-                display::quoted_fixed(units::difference_from_pa(*by_pa, unit, "unit")?, 2)
-            ),
-        })
-    }
 }
 
 /// The range values a DP level transmitter must be configured with.

@@ -234,7 +234,7 @@ pub fn parse_atmosphere(field: &str, text: &str) -> Result<f64> {
             field,
             format!(
                 "{} kPa is outside 30 to 110 kPa, the atmospheric pressures at which plants stand",
-                crate::display::fixed(pa / 1000.0, 3)
+                crate::display::quoted_fixed(pa / 1000.0, 3)
             ),
         ));
     }

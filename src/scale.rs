@@ -18,6 +18,7 @@
 //! Currents are carried in mA (`_ma`), the unit the trade reads and writes; they are turned
 //! into amperes only where Ohm's law needs it.
 
+use crate::display;
 use crate::error::{finite, FieldError, Result};
 use serde::{Deserialize, Serialize};
 
@@ -47,7 +48,11 @@ impl SignalSpan {
         if high <= low {
             return Err(FieldError::new(
                 "signal",
-                format!("the high end ({high} mA) must be above the low end ({low} mA)"),
+                format!(
+                    "the high end ({} mA) must be above the low end ({} mA)",
+                    display::quoted(high),
+                    display::quoted(low)
+                ),
             ));
         }
         Ok(SignalSpan {
@@ -124,7 +129,10 @@ impl CharTable {
             if pair[1].input == pair[0].input {
                 return Err(FieldError::new(
                     "table",
-                    format!("two points share the input {}", pair[0].input),
+                    format!(
+                        "two points share the input {}",
+                        display::quoted(pair[0].input)
+                    ),
                 ));
             }
             let ok = if rising {
@@ -138,8 +146,8 @@ impl CharTable {
                     format!(
                         "outputs must rise (or fall) steadily with input; point {} ({} → {}) breaks that",
                         i + 2,
-                        pair[1].input,
-                        pair[1].output
+                        display::quoted(pair[1].input),
+                        display::quoted(pair[1].output)
                     ),
                 ));
             }
@@ -303,7 +311,10 @@ impl Scale {
         if lrv == urv {
             return Err(FieldError::new(
                 "range",
-                format!("LRV and URV are both {lrv}; the span must not be zero"),
+                format!(
+                    "LRV and URV are both {}; the span must not be zero",
+                    display::quoted(lrv)
+                ),
             ));
         }
         let signal = SignalSpan::new(signal.low_ma, signal.high_ma)?;
@@ -373,8 +384,11 @@ impl Scale {
                     return Err(FieldError::new(
                         "value",
                         format!(
-                            "{value} {} is beyond the zero-flow end of the range ({} {}); square-root flow has no values there",
-                            self.unit, self.lrv, self.unit
+                            "{} {} is beyond the zero-flow end of the range ({} {}); square-root flow has no values there",
+                            display::quoted(value),
+                            self.unit,
+                            display::quoted(self.lrv),
+                            self.unit
                         ),
                     ));
                 }

@@ -12,6 +12,7 @@
 //! gets only "under the span", "within" and "over the span", with no failure or
 //! no-current bands, unless the tag sets its own limits ([`BandLimits::for_span`]).
 
+use crate::display;
 use crate::error::{finite, FieldError, Result};
 use crate::scale::SignalSpan;
 use serde::{Deserialize, Serialize};
@@ -120,12 +121,14 @@ impl BandLimits {
                 return Err(FieldError::new(
                     b_name,
                     format!(
-                        "{b} mA must be {} {a_name} ({a} mA)",
+                        "{} mA must be {} {a_name} ({} mA)",
+                        display::quoted(b),
                         if may_equal_next {
                             "at or above"
                         } else {
                             "above"
-                        }
+                        },
+                        display::quoted(a)
                     ),
                 ));
             }

@@ -7,7 +7,7 @@ mod util;
 use loopside::action::check::{
     payload, save_check, sensor_inputs_of, sensor_of, NewCheck, SensorInputs, PAYLOAD_VERSION,
 };
-use loopside::action::session::save_session;
+use loopside::action::session::{findings_of, save_session, session_of};
 use loopside::check::Stage;
 use loopside::diagnose::{procedure, session::AnswerSheet, Session};
 use loopside::journal::Kind;
@@ -186,6 +186,100 @@ fn a_fault_session_keeps_the_technicians_conclusion() {
     );
     assert!(e.text.ends_with("operations told)."), "{}", e.text);
     let payload = e.payload.as_ref().unwrap();
-    assert_eq!(payload["payload_version"], 2);
+    assert_eq!(payload["payload_version"], 3);
     assert_eq!(payload["technician_conclusion"], "re-terminated JB-01/4");
+    // Version 3 keeps each finding as its code and numbers; the words are written when
+    // it is shown.
+    let findings = payload["findings"].as_array().unwrap();
+    let codes: Vec<&str> = findings
+        .iter()
+        .map(|f| f["code"].as_str().unwrap())
+        .collect();
+    assert_eq!(
+        codes,
+        vec![
+            "band-no-loop-current",
+            "supply-ok",
+            "no-voltage-at-transmitter"
+        ]
+    );
+    for f in findings {
+        assert!(f.get("text").is_none(), "no stored words: {f}");
+    }
+    assert_eq!(findings[2]["detail"]["terminal_v"], 0.1);
+    let words = findings_of(payload);
+    assert_eq!(words[2].0, "terminals-open");
+    assert!(
+        words[2]
+            .1
+            .starts_with("Only 0.10 V reaches the transmitter terminals"),
+        "{}",
+        words[2].1
+    );
+}
+
+/// The same LT-101 session as saved by loopside before version 3: each finding with its
+/// words, which said the supply "measures" rather than "reads"; and one finding under a
+/// code this loopside does not make (as a plant's own procedure might have left).
+fn version_2_record() -> serde_json::Value {
+    let mut store = brindlemoor();
+    let tag = store.tag("LT-101").unwrap().tag.clone();
+    let p = procedure::find("stuck-low", &[]).unwrap();
+    let mut s = Session::start(&p, &tag);
+    let sheet =
+        AnswerSheet::from_json(r#"{"tx_ma": 0, "supply_v": 24, "terminal_v": 0.1}"#, &tag).unwrap();
+    s.run_sheet(&p, &tag, &sheet).unwrap();
+    let saved = save_session(&mut store, now(), &s, "cd").unwrap();
+    let mut payload = store.entry(&saved.id).unwrap().payload.clone().unwrap();
+    payload["payload_version"] = serde_json::json!(2);
+    let findings = payload["findings"].as_array_mut().unwrap();
+    findings[1]["text"] = serde_json::json!("The supply measures 24.00 V: enough for the loop.");
+    findings.push(serde_json::json!({
+        "step": "terminals-open",
+        "code": "polarity-reversed",
+        "text": "The pair is reversed at JB-01: +24 V on the transmitter's negative terminal.",
+        "detail": {"terminal_v": -23.9}
+    }));
+    for f in findings.iter_mut().filter(|f| f.get("text").is_none()) {
+        f["text"] = serde_json::json!("(words as stored)");
+    }
+    payload
+}
+
+#[test]
+fn a_version_2_record_is_reworded_where_its_code_is_known_and_kept_where_not() {
+    let old = version_2_record();
+    let words = findings_of(&old);
+    assert_eq!(words.len(), 4);
+    // A known code with the numbers its words need: today's words, from the record's own
+    // numbers (24 V measured; LT-101's 24 V supply has no sag set, and the loop needs
+    // 10.5 V + 256.2 Ω × 22 mA = 16.14 V at its fault current: Ohm's law).
+    assert_eq!(
+        words[1].1,
+        "The supply reads 24.00 V: at or above the 24.00 V it should hold and the 16.14 V the loop needs."
+    );
+    // A code this loopside does not make: the words the record kept.
+    assert_eq!(
+        words[3],
+        (
+            "terminals-open".to_string(),
+            "The pair is reversed at JB-01: +24 V on the transmitter's negative terminal."
+                .to_string()
+        )
+    );
+    // The record reads back as a session; saved again it is written as version 3, the
+    // words kept only where nothing else can give them.
+    let session = session_of(&old).unwrap();
+    assert_eq!(session.findings[1].saved_text, None);
+    assert_eq!(
+        session.findings[3].saved_text.as_deref(),
+        Some("The pair is reversed at JB-01: +24 V on the transmitter's negative terminal.")
+    );
+    let again = loopside::action::session::payload(&session).unwrap();
+    assert_eq!(again["payload_version"], 3);
+    assert!(again["findings"][1].get("text").is_none());
+    assert_eq!(
+        again["findings"][3]["text"],
+        "The pair is reversed at JB-01: +24 V on the transmitter's negative terminal."
+    );
 }

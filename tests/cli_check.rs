@@ -280,6 +280,12 @@ fn diagnose_from_an_answers_file() {
         1e-12,
         "minimum",
     );
+    // The JSON carries each finding's words too, from the same wording as the screen.
+    let words = f["text"].as_str().expect("words with the finding");
+    assert!(
+        words.starts_with("Not enough voltage: the transmitter gets"),
+        "{words}"
+    );
     assert_eq!(j["cautions"].as_array().unwrap().len(), 5);
     assert!(j["cautions"][3]
         .as_str()

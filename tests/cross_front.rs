@@ -311,7 +311,16 @@ fn a_shift_at_brindlemoor_is_recorded_alike_from_the_desk_and_the_phone() {
     state.ui.fault.technician = "re-terminated JB-01/4".into();
     state.ui.fault.leave_ticked = Item::ALL.iter().map(|i| i.id().to_string()).collect();
     app::fault::save(&mut state, "cd").unwrap();
-    same_record(&desk.last(), &last(&state));
+    let (d, a) = (desk.last(), last(&state));
+    same_record(&d, &a);
+    // Version 3 on both: each finding as its code and numbers, no stored words.
+    for e in [&d, &a] {
+        let p = e.payload.as_ref().unwrap();
+        assert_eq!(p["payload_version"], 3);
+        let findings = p["findings"].as_array().unwrap();
+        assert_eq!(findings.len(), 3, "band, supply and terminal volts");
+        assert!(findings.iter().all(|f| f.get("text").is_none()), "{p}");
+    }
 
     // The hand-over: the same entries, in the same words, from both.
     let out = TempDir::new("cross-out");

@@ -5,14 +5,18 @@ mod util;
 
 use loopside::budget::{Cable, LoopConfig, SeriesElement};
 use loopside::diagnose::evaluate::{self, Evaluation, Settings};
+use loopside::diagnose::evaluate::{ExplanationFinding, Reader};
 use loopside::diagnose::measure::Measurement;
-use loopside::diagnose::mismatch::{explain_display, explain_transmitter, Hypothesis, KeptEnd};
+use loopside::diagnose::mismatch::{
+    explain_display, explain_transmitter, Explanation, Hypothesis, KeptEnd, Mismatch,
+};
 use loopside::diagnose::procedure::{self, Procedure, StepKind, BUILTIN_SOURCES};
 use loopside::diagnose::session::{Answer, AnswerSheet, Progress, Session, LOG_KIND};
 use loopside::diagnose::SYMPTOMS;
 use loopside::scale::{RootLocation, Scale, SignalSpan, Transfer};
 use loopside::signal::SignalStatus;
 use loopside::tag::Tag;
+use loopside::view::wording::finding;
 use loopside::wire::Conductor;
 use std::collections::BTreeMap;
 use util::close;
@@ -54,6 +58,15 @@ fn flow(root_in: RootLocation) -> Scale {
 
 fn kinds(m: &loopside::diagnose::mismatch::Mismatch) -> Vec<&'static str> {
     m.explanations.iter().map(|e| e.hypothesis.code()).collect()
+}
+
+/// An explanation of a receiver's reading in the words every front shows.
+fn words(m: &Mismatch, e: &Explanation) -> String {
+    finding::explanation(&ExplanationFinding {
+        who: Reader::Receiver,
+        explanation: e.clone(),
+        reading: m.reading.clone(),
+    })
 }
 
 // ---------------------------------------------------------------- procedure files
@@ -234,10 +247,18 @@ fn currents_are_classified_by_ne43_band_with_what_it_implies() {
     for (ma, status) in cases {
         let f = evaluate::signal_band(&tag, ma, "transmitter").unwrap();
         assert_eq!(f.status, status, "{ma} mA");
-        assert!(f.text.contains(status.as_str()), "{}", f.text);
+        assert!(
+            finding::band(&f).contains(status.as_str()),
+            "{}",
+            finding::band(&f)
+        );
     }
     let f = evaluate::signal_band(&tag, 0.0, "transmitter").unwrap();
-    assert!(f.text.contains("supply"), "{}", f.text);
+    assert!(
+        finding::band(&f).contains("supply"),
+        "{}",
+        finding::band(&f)
+    );
 }
 
 // ---------------------------------------------------------------- voltage
@@ -266,9 +287,21 @@ fn terminal_volts_9_against_a_10_5_minimum_with_the_supply_measured() {
     close(f.raise_supply_to_v.unwrap(), 27.0, 1e-9, "raise to");
     close(f.raise_supply_by_v.unwrap(), 3.0, 1e-9, "raise by");
     assert_eq!(f.largest_element.as_ref().unwrap().0, "PLC input");
-    assert!(f.text.contains("Not enough voltage"), "{}", f.text);
-    assert!(f.text.contains("136 Ω"), "{}", f.text);
-    assert!(f.text.contains("27.00 V"), "{}", f.text);
+    assert!(
+        finding::terminal_volts(&f).contains("Not enough voltage"),
+        "{}",
+        finding::terminal_volts(&f)
+    );
+    assert!(
+        finding::terminal_volts(&f).contains("136 Ω"),
+        "{}",
+        finding::terminal_volts(&f)
+    );
+    assert!(
+        finding::terminal_volts(&f).contains("27.00 V"),
+        "{}",
+        finding::terminal_volts(&f)
+    );
 }
 
 #[test]
@@ -352,25 +385,24 @@ fn a_path_across_the_pair_makes_the_receiver_read_more() {
     // Back from the meters (Ohm's law): 22 V / (12.40 − 12.00) mA = 22 V / 0.40 mA
     // = 55 kΩ; 0.40 mA is 0.40 / 16 = 2.5 % of the 16 mA span.
     let f = evaluate::leakage(&tag, 12.0, 12.4, 0.05, Some(22.0)).unwrap();
+    let text = finding::leakage(&f);
     assert_eq!(f.outcome, "across-pair");
     close(f.difference_ma, -0.4, 1e-9, "tx − rx");
     close(f.difference_pct, -2.5, 1e-9, "% of span");
     close(f.leak_path_kohm.unwrap(), 55.0, 1e-9, "path, kΩ");
     assert_eq!(f.terminal_v, Some(22.0));
-    assert!(f
-        .text
-        .starts_with("The receiver reads more than the transmitter sends"));
-    assert!(f.text.contains("path across the pair"), "{}", f.text);
-    assert!(f.text.contains("roughly 55.0 kΩ"), "{}", f.text);
+    assert!(text.starts_with("The receiver reads more than the transmitter sends"));
+    assert!(text.contains("path across the pair"), "{}", text);
+    assert!(text.contains("roughly 55.0 kΩ"), "{}", text);
     assert!(
-        f.text.contains("loop-powered two-wire transmitter") && f.text.contains("negative earthed"),
+        text.contains("loop-powered two-wire transmitter") && text.contains("negative earthed"),
         "the assumed loop is stated: {}",
-        f.text
+        text
     );
     assert!(
-        f.text.contains("supply's positive output") && f.text.contains("lift the shield"),
+        text.contains("supply's positive output") && text.contains("lift the shield"),
         "how to tell the two apart: {}",
-        f.text
+        text
     );
 
     // A second case: 18.0 V at the terminals, 12.00 mA sent, 12.20 mA received:
@@ -382,10 +414,9 @@ fn a_path_across_the_pair_makes_the_receiver_read_more() {
     // Without the terminal volts the path is not sized, and the finding says what to
     // measure.
     let f = evaluate::leakage(&tag, 12.0, 12.4, 0.05, None).unwrap();
+    let text = finding::leakage(&f);
     assert_eq!(f.leak_path_kohm, None);
-    assert!(f
-        .text
-        .contains("Measure the DC volts across the transmitter's terminals"));
+    assert!(text.contains("Measure the DC volts across the transmitter's terminals"));
 
     // The receiver current from the volts across its 250 Ω resistor: 3.10 V / 250 Ω
     // = 12.40 mA (Ohm's law), so the same path across the pair.
@@ -419,6 +450,7 @@ fn current_leaving_the_loop_to_earth_makes_the_receiver_read_less() {
     let rx = 12.0 * 10_000.0 / (10_000.0 + 250.0);
     close(rx, 11.707_317, 1e-6, "worked receiver current");
     let f = evaluate::leakage(&tag, 12.0, rx, 0.05, Some(22.0)).unwrap();
+    let text = finding::leakage(&f);
     assert_eq!(f.outcome, "to-earth");
     close(f.difference_ma, 12.0 - rx, 1e-9, "tx − rx");
     // 0.293 mA of the 16 mA span is 1.83 %.
@@ -432,17 +464,15 @@ fn current_leaving_the_loop_to_earth_makes_the_receiver_read_less() {
     // (here 11.707 mA × 250 Ω = 2.93 V), which the leakage step does not measure: the
     // terminal volts do not size a path to earth, so nothing is worked out.
     assert_eq!(f.leak_path_kohm, None);
-    assert!(f
-        .text
-        .starts_with("The receiver reads less than the transmitter sends"));
-    assert!(f.text.contains("to earth"), "{}", f.text);
+    assert!(text.starts_with("The receiver reads less than the transmitter sends"));
+    assert!(text.contains("to earth"), "{}", text);
     assert!(
-        f.text.contains("is not worked out") && f.text.contains("not measured here"),
+        text.contains("is not worked out") && text.contains("not measured here"),
         "{}",
-        f.text
+        text
     );
-    assert!(f.text.contains("negative earthed"), "{}", f.text);
-    assert!(!f.text.contains("kΩ"), "{}", f.text);
+    assert!(text.contains("negative earthed"), "{}", text);
+    assert!(!text.contains("kΩ"), "{}", text);
     let done = Evaluation::Leakage
         .evaluate(
             &tag,
@@ -505,7 +535,7 @@ fn the_shield_advice_tells_a_floating_end_from_a_double_bond() {
     // 6 V AC at the floating end, over the 1 V default limit (rule of thumb).
     let noisy = run(6.0);
     assert_eq!(noisy.outcome, "noisy");
-    let text = &noisy.findings[0].text;
+    let text = &finding::text(&noisy.findings[0]);
     assert!(text.contains("close to 0 V at either end"), "{text}");
     assert!(text.contains("not a double bond"), "{text}");
     assert!(text.contains("difference in earth potential"), "{text}");
@@ -516,7 +546,7 @@ fn the_shield_advice_tells_a_floating_end_from_a_double_bond() {
     // 0.2 V: quiet, and a shield bonded at both ends would read as little.
     let quiet = run(0.2);
     assert_eq!(quiet.outcome, "quiet");
-    let text = &quiet.findings[0].text;
+    let text = &finding::text(&quiet.findings[0]);
     assert!(text.contains("does not rule out a ground loop"), "{text}");
     assert!(
         text.contains("clamp an AC current meter on the shield") && text.contains("lift one end"),
@@ -531,8 +561,8 @@ fn receiver_ranged_0_10_bar_on_a_0_16_bar_transmitter() {
     // 12 mA is 8 bar on 0–16; a receiver ranged 0–10 bar shows 5 bar. Solve: with the
     // LRV kept, URV = 0 + (5 − 0)/0.5 = 10 bar.
     let m = explain_display(&bar16(), 12.0, 5.0, 0.5, &[]).unwrap();
-    assert!(!m.agrees);
-    close(m.expected, 8.0, 1e-12, "expected");
+    assert!(!m.reading.agrees);
+    close(m.reading.expected, 8.0, 1e-12, "expected");
     let e = m
         .explanations
         .iter()
@@ -557,7 +587,8 @@ fn receiver_ranged_0_10_bar_on_a_0_16_bar_transmitter() {
         _ => unreachable!(),
     }
     assert!(m.explained());
-    assert!(e.text.contains("10.000 bar"), "{}", e.text);
+    let text = words(&m, e);
+    assert!(text.contains("10.000 bar"), "{text}");
     // The same receiver at 8 mA (4 bar expected) shows 2.5 bar: again 0–10.
     let m = explain_display(&bar16(), 8.0, 2.5, 0.5, &[]).unwrap();
     assert!(m.explanations.iter().any(|e| matches!(
@@ -606,9 +637,9 @@ fn square_root_taken_twice_or_not_at_all_at_the_receiver() {
     // Root in the transmitter: 8 mA is 25 % of flow = 750 m³/h. A receiver that roots
     // again shows √0.25 = 50 % = 1500 m³/h (ISO 5167 relation).
     let m = explain_display(&flow(RootLocation::Transmitter), 8.0, 1500.0, 0.5, &[]).unwrap();
-    close(m.expected, 750.0, 1e-9, "expected");
+    close(m.reading.expected, 750.0, 1e-9, "expected");
     assert_eq!(kinds(&m)[0], "extra-square-root");
-    assert!(m.explanations[0].text.contains("twice"));
+    assert!(words(&m, &m.explanations[0]).contains("twice"));
     // FT-310, root in the receiver: 8 mA is 25 % ΔP → 1500 m³/h. A receiver that does not
     // root shows 750 m³/h.
     let m = explain_display(&flow(RootLocation::Receiver), 8.0, 750.0, 0.5, &[]).unwrap();
@@ -633,7 +664,7 @@ fn square_root_taken_twice_seen_at_the_transmitter() {
     // FT-310 roots in the receiver, so 1500 m³/h (25 % ΔP) should give 8 mA. A transmitter
     // also set to square root sends 12 mA.
     let m = explain_transmitter(&flow(RootLocation::Receiver), 1500.0, 12.0, 0.5).unwrap();
-    close(m.expected, 8.0, 1e-9, "expected mA");
+    close(m.reading.expected, 8.0, 1e-9, "expected mA");
     assert_eq!(kinds(&m)[0], "extra-square-root");
     // Root in the transmitter but it sends linear ΔP: 1500 m³/h → 8 mA instead of 12.
     let m = explain_transmitter(&flow(RootLocation::Transmitter), 1500.0, 8.0, 0.5).unwrap();
@@ -671,10 +702,10 @@ fn reversed_action_and_a_different_input_resistor() {
 #[test]
 fn a_reading_that_agrees_needs_no_explanation() {
     let m = explain_display(&bar16(), 12.0, 8.02, 0.5, &[]).unwrap();
-    assert!(m.agrees);
+    assert!(m.reading.agrees);
     assert!(m.explanations.is_empty());
     let m = explain_transmitter(&bar16(), 8.0, 12.01, 0.5).unwrap();
-    assert!(m.agrees);
+    assert!(m.reading.agrees);
     let e = explain_display(&bar16(), f64::NAN, 8.0, 0.5, &[]).unwrap_err();
     assert_eq!(e.field, "tx_ma");
 }
@@ -698,8 +729,16 @@ fn loop_resistance_outside_the_hart_window() {
         1e-9,
         "spare",
     );
-    assert!(f.text.contains("357 Ω spare at 22.000 mA"), "{}", f.text);
-    assert!(f.text.contains("still leaves"), "{}", f.text);
+    assert!(
+        finding::hart(&f).contains("357 Ω spare at 22.000 mA"),
+        "{}",
+        finding::hart(&f)
+    );
+    assert!(
+        finding::hart(&f).contains("still leaves"),
+        "{}",
+        finding::hart(&f)
+    );
     assert_eq!(
         evaluate::hart_window(&tag, 256.0).unwrap().outcome,
         "in-window"
@@ -781,7 +820,7 @@ fn a_session_resumes_where_it_was_left() {
     assert!(resumed
         .findings()
         .iter()
-        .any(|f| f.code == "different-range" && f.text.contains("5.0000 m")));
+        .any(|f| f.code == "different-range" && finding::text(f).contains("5.0000 m")));
     resumed.conclude("Receiver range corrected to 0–4.5 m; checked at three points.");
     let back: Session = serde_json::from_str(&resumed.to_json().unwrap()).unwrap();
     assert_eq!(back.technician_conclusion, resumed.technician_conclusion);
@@ -892,7 +931,7 @@ fn indicator_and_control_system_disagree() {
     assert!(done
         .findings
         .iter()
-        .any(|f| f.code == "different-range" && f.text.contains("16.000 bar")));
+        .any(|f| f.code == "different-range" && finding::text(f).contains("16.000 bar")));
 }
 
 // ---------------------------------------------------------------- leakage in the procedures
@@ -956,7 +995,11 @@ fn control_system_reads_high_through_a_wet_junction_box() {
         1e-9,
         "path, kΩ",
     );
-    assert!(sized.text.contains("roughly 55.0 kΩ"), "{}", sized.text);
+    assert!(
+        finding::text(sized).contains("roughly 55.0 kΩ"),
+        "{}",
+        finding::text(sized)
+    );
     // The saved record keeps the cautions each step showed.
     let json: serde_json::Value = serde_json::from_str(&s.to_json().unwrap()).unwrap();
     assert!(json["steps"][3]["cautions"][0]
@@ -1077,19 +1120,17 @@ fn an_old_session_is_read_by_the_direction_it_measured() {
     assert_eq!(f.detail["tx_ma"], 12.0);
     assert_eq!(f.detail["rx_ma"], 11.8);
     // … and so is what the technician was shown, with a marked note after it.
-    assert!(f
-        .text
-        .starts_with("Leakage: the transmitter sends 12.000 mA"));
+    let text = finding::text(f);
+    assert!(text.starts_with("Leakage: the transmitter sends 12.000 mA"));
     assert!(
-        f.text.contains("[Note added when this record was read"),
-        "{}",
-        f.text
+        text.contains("[Note added when this record was read"),
+        "{text}"
     );
-    assert!(f.text.contains("receiver read less"), "{}", f.text);
+    assert!(text.contains("receiver read less"), "{text}");
     // The 90 kΩ was worked out as if the path were across the pair: it is not kept as
     // a path resistance, only quoted in the note.
     assert!(f.detail["leak_path_kohm"].is_null());
-    assert!(f.text.contains("The 90.0 kΩ worked out then"), "{}", f.text);
+    assert!(text.contains("The 90.0 kΩ worked out then"), "{text}");
     assert_eq!(
         s.technician_conclusion,
         "Water in JB-02; dried and resealed."
@@ -1114,7 +1155,8 @@ fn an_old_session_is_read_by_the_direction_it_measured() {
     assert_eq!(f.detail["outcome"], "across-pair");
     assert_eq!(f.detail["rx_ma"], 12.3);
     assert!(f.detail["leak_path_kohm"].is_null());
-    assert!(f.text.contains("receiver read more"), "{}", f.text);
+    let text = finding::text(f);
+    assert!(text.contains("receiver read more"), "{text}");
 }
 
 // ---------------------------------------------------------------- safe wording

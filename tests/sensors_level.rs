@@ -6,6 +6,7 @@ use loopside::level::{
     dp_at_level, head_in, head_pa, height_m_from_pa, level_from_dp, range, LevelSetup, Mount,
     ZeroShift,
 };
+use loopside::view::level::zero_words;
 
 const FT: f64 = 0.3048;
 
@@ -64,18 +65,17 @@ fn open_tank_transmitter_below_the_tap_is_a_suppressed_zero() {
     // SG 0.9, 40 ft of level, transmitter 6 ft below the tank base → 64.8 to 496.8 "W.C.
     let s = setup(0.9, 0.0, 40.0 * FT, Mount::OpenTank { tx_m: -6.0 * FT });
     let r = range(&s).unwrap();
-    let (lrv, urv, _) = r.in_unit("inH2O(conv)").unwrap();
+    let (lrv, urv, span) = r.in_unit("inH2O(conv)").unwrap();
     assert!(close(lrv, 64.8, 0.005));
     assert!(close(urv, 496.8, 0.005));
     match r.zero {
         ZeroShift::Suppressed { by_pa } => assert!(close(by_pa, r.lrv_pa, 1e-9)),
         other => panic!("expected a suppressed zero, got {other:?}"),
     }
-    assert!(r
-        .zero
-        .describe("inH2O(conv)")
-        .unwrap()
-        .contains("suppressed zero by 64.80"));
+    assert_eq!(
+        zero_words(&r.zero, "inH2O(conv)", span).unwrap(),
+        "suppressed zero by 64.80 inH2O(conv) (LRV above 0)"
+    );
 }
 
 #[test]

@@ -560,3 +560,37 @@ fn nested_groups_give_each_first_name_on_its_own_line() {
         vec![(2, "budget".to_string()), (3, "scale".to_string())]
     );
 }
+
+#[test]
+fn fault_finding_evaluations_give_numbers_and_leave_the_words_above_the_core() {
+    // Issue 12: the core returns codes and typed details; the sentences (and the numbers
+    // rounded for people in them) are written once in src/view/wording/finding.rs. An
+    // evaluation that reaches for crate::display is writing words again.
+    let mut bad = Vec::new();
+    for (path, text) in sources() {
+        let file = format!("src/{}", path.to_string_lossy().replace('\\', "/"));
+        if !(file.starts_with("src/diagnose/evaluate/") || file == "src/diagnose/mismatch.rs") {
+            continue;
+        }
+        for (line, module) in crate_paths(&text) {
+            if module == "display" {
+                bad.push(format!("{file}:{line}: rounds for people (crate::display)"));
+            }
+        }
+    }
+    assert!(
+        bad.is_empty(),
+        "words in the fault-finding core; word the finding in view::wording::finding:\n  {}",
+        bad.join("\n  ")
+    );
+}
+
+#[test]
+fn the_words_guard_sees_display_used_by_an_evaluation() {
+    let text =
+        "use crate::error::Result;\nfn t(v: f64) -> String {\n    crate::display::volts(v)\n}\n";
+    assert_eq!(
+        crate_paths(text),
+        vec![(1, "error".to_string()), (3, "display".to_string())]
+    );
+}

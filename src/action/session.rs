@@ -1,8 +1,19 @@
-//! Save a fault-finding session to a tag's log.
+//! Save a fault-finding session to a tag's log, and read one back.
 //!
 //! The payload of the `fault-finding` kind is the [`Session`] as serialized, with
 //! `payload_version` ([`PAYLOAD_VERSION`]); the text is [`crate::view::wording::fault::log_text`],
 //! which keeps the technician's own conclusion.
+//!
+//! Versions:
+//! - **3** (written now): each finding is `step`, `code` and `detail` — no words. Its words
+//!   are written when it is shown, by [`crate::view::wording::finding::text`], so every
+//!   front words it alike and a correction to the words reaches old records too.
+//! - **2**: the same fields, each finding with its words as `text` too.
+//! - **1** (no `payload_version`): as version 2.
+//!
+//! A version 1 or 2 finding is read with its words kept aside: it is worded from its code
+//! and detail when this loopside knows the code (and the detail holds what the words
+//! need), else its stored words are shown ([`findings_of`]).
 
 use super::initials;
 use crate::diagnose::Session;
@@ -12,9 +23,9 @@ use crate::store::{Store, StoreError};
 use chrono::{DateTime, FixedOffset};
 use std::fmt;
 
-/// The version of the fault-finding payload written now (records without the key are
-/// version 1, the same fields).
-pub const PAYLOAD_VERSION: u64 = 2;
+/// The version of the fault-finding payload written now (see the module for the older
+/// ones; records without the key are version 1).
+pub const PAYLOAD_VERSION: u64 = 3;
 
 /// A session saved.
 #[derive(Debug, Clone, PartialEq)]
@@ -53,14 +64,39 @@ pub fn save_session(
         Kind::FaultFinding,
         &crate::view::wording::fault::log_text(session),
     )?;
-    let mut payload = serde_json::to_value(session)
-        .map_err(|e| FieldError::new("session", format!("cannot be written: {e}")))?;
-    payload["payload_version"] = serde_json::json!(PAYLOAD_VERSION);
-    entry.payload = Some(payload);
+    entry.payload = Some(payload(session)?);
     let id = store.append(entry)?;
     Ok(SessionSaved {
         id,
         tag: number,
         initials: who,
     })
+}
+
+/// The payload of a fault-finding entry (version [`PAYLOAD_VERSION`]): the session with
+/// its findings as code and detail.
+pub fn payload(session: &Session) -> Result<serde_json::Value, FieldError> {
+    let mut payload = serde_json::to_value(session)
+        .map_err(|e| FieldError::new("session", format!("cannot be written: {e}")))?;
+    payload["payload_version"] = serde_json::json!(PAYLOAD_VERSION);
+    Ok(payload)
+}
+
+/// The session a fault-finding payload of any version holds; `None` when it holds none (a
+/// hand-written record).
+pub fn session_of(payload: &serde_json::Value) -> Option<Session> {
+    serde_json::from_value(payload.clone()).ok()
+}
+
+/// The findings of a fault-finding payload of any version, each as `(step, words)`: worded
+/// from its code and detail where this loopside can, else the words the record kept.
+pub fn findings_of(payload: &serde_json::Value) -> Vec<(String, String)> {
+    session_of(payload)
+        .map(|s| {
+            s.findings
+                .iter()
+                .map(|f| (f.step.clone(), crate::view::wording::finding::text(f)))
+                .collect()
+        })
+        .unwrap_or_default()
 }

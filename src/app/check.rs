@@ -342,7 +342,7 @@ fn update(window: &AppWindow, state: &AppState, table: &VecModel<super::CheckRow
             .iter()
             .map(|p: &f64| super::AxisLabel {
                 pos: (0.05 + 0.9 * p / 100.0) as f32,
-                label: crate::display::fixed(*p, 0).into(),
+                label: crate::display::test_point(*p).into(),
             })
             .collect(),
     ));

@@ -171,7 +171,7 @@ pub fn elements_of(rows: &slint::ModelRc<super::ElementRow>) -> Vec<(String, Str
 pub fn form_from(tag: &str, c: &LoopConfig) -> PowerForm {
     PowerForm {
         tag: tag.to_string(),
-        supply: display::fixed(c.supply_volts, 1),
+        supply: display::setting_number(c.supply_volts),
         tolerance: display::trimmed(c.supply_tolerance_percent),
         tx_min: display::trimmed(c.tx_min_volts),
         // Empty when the device's configured fault current was not given: the field then
@@ -246,8 +246,9 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     adapter.set_tolerance_text(f.tolerance.clone().into());
     adapter.set_tx_min_text(f.tx_min.clone().into());
     adapter.set_fault_text(f.fault.clone().into());
-    adapter
-        .set_fault_placeholder(format!("{} (default)", display::fixed(DEFAULT_FAULT_MA, 1)).into());
+    adapter.set_fault_placeholder(
+        format!("{} (default)", display::setting_number(DEFAULT_FAULT_MA)).into(),
+    );
     adapter.set_cable_m_text(f.cable_m.clone().into());
     let sizes = conductor::choices(&f.cable_size);
     adapter.set_cable_sizes(model(sizes.options.into_iter().map(Into::into).collect()));

@@ -384,7 +384,7 @@ pub fn empty_form() -> super::TagForm {
             urv: "100".into(),
             unit: "%".into(),
             transfer: TransferChoice::Linear.index(),
-            tolerance: display::fixed(crate::tag::DEFAULT_TOLERANCE_PERCENT, 2).into(),
+            tolerance: display::percent_number(crate::tag::DEFAULT_TOLERANCE_PERCENT).into(),
             ..Default::default()
         },
         &loop_part,
@@ -615,7 +615,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     window.global::<TagsAdapter>().set_fault_placeholder(
         format!(
             "{} (default)",
-            display::fixed(crate::budget::DEFAULT_FAULT_MA, 1)
+            display::setting_number(crate::budget::DEFAULT_FAULT_MA)
         )
         .into(),
     );

@@ -460,8 +460,10 @@ impl LoopCheck {
             return Err(FieldError::new(
                 field,
                 format!(
-                    "{} % of span is outside the {lo} to {hi} % a check may use",
-                    display::fixed(percent, 2)
+                    "{} of span is outside the {} to {} % a check may use",
+                    display::percent(percent),
+                    display::quoted(lo),
+                    display::quoted(hi)
                 ),
             ));
         }
@@ -550,9 +552,12 @@ impl LoopCheck {
             return Err(FieldError::new(
                 field,
                 format!(
-                    "{applied} {} is {} % of span, outside the {lo} to {hi} % a check may use",
+                    "{} {} is {} of span, outside the {} to {} % a check may use",
+                    display::quoted(applied),
                     self.input_unit(),
-                    display::fixed(percent, 2)
+                    display::percent(percent),
+                    display::quoted(lo),
+                    display::quoted(hi)
                 ),
             ));
         }

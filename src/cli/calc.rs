@@ -477,8 +477,8 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
         ),
     ] {
         let mut line = format!(
-            "limits at {} mA: max loop resistance {} (spare {}), supply needed {}",
-            display::fixed(at_ma, 1),
+            "limits at {}: max loop resistance {} (spare {}), supply needed {}",
+            display::ma_setting(at_ma),
             display::ohms(max_load),
             display::ohms(spare),
             display::volts(supply)
@@ -565,12 +565,12 @@ pub(super) fn wire(args: WireArgs, out: &mut dyn Write) -> CliResult {
         out,
         &[
             format!(
-                "{}: {} mm², {} mm diameter, {} Ω/km per conductor at {} °C",
+                "{}: {}, {} diameter, {} per conductor at {}",
                 conductor.label(),
-                display::fixed(conductor.area_mm2(), 3),
-                display::fixed(conductor.diameter_mm(), 3),
-                display::fixed(per_km, 3),
-                display::fixed(temp_c, 1)
+                display::square_millimetres(conductor.area_mm2()),
+                display::millimetres(conductor.diameter_mm()),
+                display::ohms_per_km(per_km),
+                display::temperature_setting(temp_c)
             ),
             format!(
                 "{} of pair: {} round trip ({} each conductor)",
@@ -727,18 +727,18 @@ pub(super) fn resistor(args: ResistorArgs, out: &mut dyn Write) -> CliResult {
         );
     }
     let mut lines = vec![format!(
-        "{} ± {} %",
+        "{} ± {}",
         display::ohms(r.ohms),
-        display::fixed(r.tolerance_percent, 2)
+        display::percent(r.tolerance_percent)
     )];
     for p in &r.points {
         lines.push(format!(
-            "{:>10}  {:>8}  {} W  reading error up to {} ({} % of span)",
+            "{:>10}  {:>8}  {}  reading error up to {} ({} of span)",
             display::ma(p.current_ma),
-            display::fixed(p.volts, 3) + " V",
-            display::fixed(p.watts, 3),
+            display::sense_volts(p.volts),
+            display::watts(p.watts),
             display::ma(p.error_ma),
-            display::fixed(p.error_percent_of_span, 3)
+            display::percent_fine(p.error_percent_of_span)
         ));
     }
     print_lines(out, &lines)

@@ -22,6 +22,7 @@ use crate::sensor::Sensor;
 use crate::store::Store;
 use crate::tag::Tag;
 use crate::thermocouple::TcType;
+use crate::view::wording::finding;
 use clap::Args;
 use std::io::{BufRead, Write};
 
@@ -421,6 +422,18 @@ pub(super) fn diagnose(
         None
     };
     if args.json {
+        // Each finding with its words (the payload keeps the code and detail only).
+        if let Some(list) = value["findings"].as_array_mut() {
+            for (json, f) in list.iter_mut().zip(&session.findings) {
+                json["text"] = serde_json::json!(finding::text(f));
+            }
+        }
+        // Each finding with its words (the payload keeps the code and detail only).
+        if let Some(list) = value["findings"].as_array_mut() {
+            for (json, f) in list.iter_mut().zip(&session.findings) {
+                json["text"] = serde_json::json!(finding::text(f));
+            }
+        }
         if let Some(saved) = &saved {
             value["saved"] = serde_json::json!(saved.id);
         }
@@ -461,7 +474,7 @@ fn missing_answer(session: &Session, procedure: &Procedure, id: &str, tag: &Tag)
 fn report_lines(session: &Session) -> Vec<String> {
     let mut lines = vec!["Findings:".to_string()];
     for f in &session.findings {
-        lines.push(format!("- [{}] {}", f.step, f.text));
+        lines.push(format!("- [{}] {}", f.step, finding::text(f)));
     }
     if let Some(c) = &session.conclusion {
         lines.push(String::new());
@@ -579,7 +592,7 @@ fn interactive(
         if show_findings {
             let new: Vec<String> = session.findings[shown..]
                 .iter()
-                .map(|f| format!("  → {}", f.text))
+                .map(|f| format!("  → {}", finding::text(f)))
                 .collect();
             print_lines(out, &new)?;
         }

@@ -202,23 +202,23 @@ pub(super) fn rtd(args: RtdArgs, out: &mut dyn Write) -> CliResult {
     }
     let mut lines = vec![
         format!("element      {} (IEC 60751)", element.name()),
-        format!("temperature  {} °C", display::fixed(temp_c, 3)),
-        format!("resistance   {} Ω", display::fixed(ohms, 4)),
-        format!("sensitivity  {} Ω/°C", display::fixed(slope, 5)),
+        format!("temperature  {}", display::temperature_fine(temp_c)),
+        format!("resistance   {}", display::sensor_ohms(ohms)),
+        format!("sensitivity  {}", display::ohms_per_degree(slope)),
     ];
     if let Some((c, t)) = class {
         lines.push(format!(
-            "class {:<3}    ±{} °C at this temperature",
+            "class {:<3}    ±{} at this temperature",
             c.name(),
-            display::fixed(t, 3)
+            display::temperature_fine(t)
         ));
     }
     if let Some(l) = &lead {
         lines.push(format!(
-            "leads        {} Ω → error {} Ω, {} °C",
-            display::fixed(l.lead_ohms, 3),
-            display::fixed(l.error_ohms, 3),
-            display::fixed(l.error_c, 3)
+            "leads        {} → error {}, {}",
+            display::ohms_fine(l.lead_ohms),
+            display::ohms_fine(l.error_ohms),
+            display::temperature_fine(l.error_c)
         ));
         lines.push(format!("             {}", l.note));
     }
@@ -308,21 +308,24 @@ pub(super) fn tc(args: TcArgs, out: &mut dyn Write) -> CliResult {
         format!("thermocouple {} (NIST ITS-90)", tc),
         format!("temperature  {}", display::temperature(temp_c)),
         format!(
-            "EMF          {} mV with the cold junction at {} °C",
-            display::fixed(mv, 3),
-            display::fixed(cj_c, 1)
+            "EMF          {} with the cold junction at {}",
+            display::millivolts(mv),
+            display::temperature_setting(cj_c)
         ),
         format!(
-            "             {} mV referred to 0 °C",
-            display::fixed(mv + mv_cj, 3)
+            "             {} referred to 0 °C",
+            display::millivolts(mv + mv_cj)
         ),
-        format!("sensitivity  {} µV/°C", display::fixed(seebeck * 1000.0, 2)),
+        format!(
+            "sensitivity  {}",
+            display::microvolts_per_degree(seebeck * 1000.0)
+        ),
     ];
     if let Some((c, t)) = class {
         lines.push(format!(
-            "class {}      ±{} °C at this temperature (IEC 60584-1)",
+            "class {}      ±{} at this temperature (IEC 60584-1)",
             c.number(),
-            display::fixed(t, 2)
+            display::temperature(t)
         ));
     }
     print_lines(out, &lines)

@@ -5,6 +5,7 @@
 //! Rust, so that every procedure asks for the same quantity the same way and every
 //! evaluation knows what it receives.
 
+use crate::display;
 use crate::error::{FieldError, Result};
 use crate::number::parse_in;
 use crate::tag::Tag;
@@ -148,7 +149,12 @@ impl Measurement {
                 };
                 return Err(FieldError::new(
                     self.key(),
-                    format!("must be between {lo} and {hi}, got {v}{hint}"),
+                    format!(
+                        "must be between {} and {}, got {}{hint}",
+                        display::quoted(lo),
+                        display::quoted(hi),
+                        display::quoted(v)
+                    ),
                 ));
             }
         }

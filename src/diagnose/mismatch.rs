@@ -22,7 +22,6 @@
 //!   significant digits) is the likely one. This hypothesis always "fits", so it is listed
 //!   after the others.
 
-use crate::display;
 use crate::error::{finite, FieldError, Result};
 use crate::scale::{RootLocation, Scale, Transfer};
 use crate::units;
@@ -123,13 +122,13 @@ pub struct Explanation {
     pub predicted: f64,
     /// |observed − predicted| as % of span.
     pub residual_pct: f64,
-    /// The explanation in plain words, with the numbers.
-    pub text: String,
 }
 
-/// The worked comparison.
+/// One reading compared with what the tag's range says it should be, with what the words
+/// of its explanations need from the tag (the spans values are rounded for, the range and
+/// where a square root is taken).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-pub struct Mismatch {
+pub struct Reading {
     /// Where.
     pub at: MismatchAt,
     /// The loop current, mA.
@@ -148,6 +147,27 @@ pub struct Mismatch {
     pub fit_tolerance_pct: f64,
     /// Observed agrees with expected within the tolerance.
     pub agrees: bool,
+    /// The span `expected` and `observed` are rounded for (the displayed range's at the
+    /// receiver, the tag's range at the transmitter), in `unit` at the receiver and in
+    /// `range_unit` at the transmitter.
+    pub value_span: f64,
+    /// The tag's LRV, in `range_unit`.
+    pub range_lrv: f64,
+    /// The tag's URV, in `range_unit`.
+    pub range_urv: f64,
+    /// The unit of the tag's range (the measured variable's, for a table).
+    pub range_unit: String,
+    /// Where the tag takes the square root of a DP flow signal (`None`: no root).
+    #[serde(default)]
+    pub root_in: Option<RootLocation>,
+}
+
+/// The worked comparison: the reading and the hypotheses that fit it.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Mismatch {
+    /// The reading compared.
+    #[serde(flatten)]
+    pub reading: Reading,
     /// The hypotheses that fit, most specific and closest first.
     pub explanations: Vec<Explanation>,
 }
@@ -170,8 +190,9 @@ fn display_span(scale: &Scale) -> Result<f64> {
     Ok((hi - lo).abs())
 }
 
-/// Round to two significant digits.
-fn round2(v: f64) -> f64 {
+/// Round to two significant digits: the round number a solved range end is likely meant
+/// to be.
+pub fn round2(v: f64) -> f64 {
     if v == 0.0 || !v.is_finite() {
         return v;
     }
@@ -180,8 +201,12 @@ fn round2(v: f64) -> f64 {
     (v / step).round() * step
 }
 
-fn fmt_value(v: f64, unit: &str, span: f64) -> String {
-    display::value(v, unit, span)
+/// Where the tag takes the square root (`None` for a linear loop or a table).
+fn root_location(scale: &Scale) -> Option<RootLocation> {
+    match &scale.transfer {
+        Transfer::SquareRoot { root_in, .. } => Some(*root_in),
+        _ => None,
+    }
 }
 
 /// Receiver roots configured: 1 when the receiver extracts the root.
@@ -236,30 +261,35 @@ pub fn explain_display(
     let difference_pct = (shown - expected) / span_v * 100.0;
     let agrees = difference_pct.abs() <= tol;
     let mut out = Mismatch {
-        at: MismatchAt::Receiver,
-        current_ma: current,
-        process_value: None,
-        expected,
-        observed: shown,
-        unit: unit.clone(),
-        difference_pct,
-        fit_tolerance_pct: tol,
-        agrees,
+        reading: Reading {
+            at: MismatchAt::Receiver,
+            current_ma: current,
+            process_value: None,
+            expected,
+            observed: shown,
+            unit: unit.clone(),
+            difference_pct,
+            fit_tolerance_pct: tol,
+            agrees,
+            value_span: span_v,
+            range_lrv: scale.lrv,
+            range_urv: scale.urv,
+            range_unit: scale.unit.clone(),
+            root_in: root_location(scale),
+        },
         explanations: Vec::new(),
     };
     if agrees {
         return Ok(out);
     }
-    let show = |v: f64| fmt_value(v, &unit, span_v);
     let mut found: Vec<Explanation> = Vec::new();
-    let push = |found: &mut Vec<Explanation>, h: Hypothesis, predicted: f64, text: String| {
+    let push = |found: &mut Vec<Explanation>, h: Hypothesis, predicted: f64| {
         let r = residual(predicted);
         if r <= tol {
             found.push(Explanation {
                 hypothesis: h,
                 predicted,
                 residual_pct: r,
-                text,
             });
         }
     };
@@ -269,31 +299,13 @@ pub fn explain_display(
         let span_x = unit_span(&unit, &shown_unit, scale)?;
         let r = (shown - predicted).abs() / span_x * 100.0;
         if r <= tol {
-            found_units(
-                &mut found,
-                &unit,
-                &shown_unit,
-                predicted,
-                factor,
-                r,
-                expected,
-            );
+            found_units(&mut found, &unit, &shown_unit, predicted, factor, r);
         }
     }
 
     // Reversed action.
     let reversed = scale.from_percent(100.0 - pct)?.value;
-    push(
-        &mut found,
-        Hypothesis::Reversed,
-        reversed,
-        format!(
-            "Reversed action: at {} the receiver shows {}, which is what it would show if 4 and 20 mA were swapped (expected {}). Check the receiver's range direction or the transmitter's output action.",
-            display::ma(current),
-            show(shown),
-            show(expected)
-        ),
-    );
+    push(&mut found, Hypothesis::Reversed, reversed);
 
     // Square root taken twice or not at all.
     if let Some(r0) = receiver_roots(scale) {
@@ -302,30 +314,12 @@ pub fn explain_display(
         for &r in candidates {
             let fraction = c.powf(0.5f64.powi(r as i32));
             let predicted = scale.lrv + fraction * scale.span();
-            let (h, what) = if r > r0 {
-                let text = match (&scale.transfer, r0) {
-                    (Transfer::SquareRoot { .. }, 0) => "the square root is taken twice: the transmitter already extracts it and the receiver takes it again",
-                    (Transfer::SquareRoot { .. }, _) => "the square root is taken twice in the receiver (input scaling and a function block both extract it)",
-                    _ => "the receiver takes a square root this linear loop does not call for",
-                };
-                (Hypothesis::ExtraSquareRoot { roots: r - r0 }, text)
+            let h = if r > r0 {
+                Hypothesis::ExtraSquareRoot { roots: r - r0 }
             } else {
-                (
-                    Hypothesis::MissingSquareRoot,
-                    "the receiver does not take the square root: it shows ΔP as if it were flow",
-                )
+                Hypothesis::MissingSquareRoot
             };
-            push(
-                &mut found,
-                h,
-                predicted,
-                format!(
-                    "Square root: {what}. At {} that shows {} instead of {}.",
-                    display::ma(current),
-                    show(predicted),
-                    show(expected)
-                ),
-            );
+            push(&mut found, h, predicted);
         }
     }
 
@@ -357,14 +351,6 @@ pub fn explain_display(
                             assumed_ohms: assumed,
                         },
                         predicted,
-                        format!(
-                            "Input resistor: the card reads volts across {} but scales them as if across {}, so it sees {} instead of {} and shows {}. Check the resistor fitted and the card's input setting.",
-                            display::ohms(actual),
-                            display::ohms(assumed),
-                            display::ma(current * k),
-                            display::ma(current),
-                            show(predicted)
-                        ),
                     );
                 }
             }
@@ -380,11 +366,6 @@ pub fn explain_display(
                 hypothesis: Hypothesis::TableNotApplied,
                 predicted: measured,
                 residual_pct: r,
-                text: format!(
-                    "Table not applied: the receiver shows {}, the measured variable, instead of {} from the characterization table.",
-                    fmt_value(measured, &scale.unit, scale.span()),
-                    show(expected)
-                ),
             });
         }
     }
@@ -396,7 +377,7 @@ pub fn explain_display(
     };
     let t = (to_domain(expected) - scale.lrv) / scale.span();
     let a = to_domain(shown);
-    found.extend(solve_ranges(scale, t, a, tol, MismatchAt::Receiver, shown));
+    found.extend(solve_ranges(scale, t, a, tol, shown));
 
     sort_explanations(&mut found);
     out.explanations = found;
@@ -410,7 +391,6 @@ fn found_units(
     predicted: f64,
     factor: f64,
     residual_pct: f64,
-    expected: f64,
 ) {
     found.push(Explanation {
         hypothesis: Hypothesis::UnitsMixedUp {
@@ -420,11 +400,6 @@ fn found_units(
         },
         predicted,
         residual_pct,
-        text: format!(
-            "Units mixed up: {} {unit} is {} {shown_unit}; the numbers shown are in {shown_unit}, not {unit}. Make the ranges agree in one unit.",
-            display::fixed(expected, 4),
-            display::fixed(predicted, 4)
-        ),
     });
 }
 
@@ -461,21 +436,9 @@ fn unit_span(unit: &str, other: &str, scale: &Scale) -> Result<f64> {
 /// the fraction the current stands for and `a` the value shown; at the transmitter `a` is
 /// the process value and `t` the fraction of span its current shows. `predicted` is what
 /// is observed (the solved range reproduces it exactly).
-fn solve_ranges(
-    scale: &Scale,
-    t: f64,
-    a: f64,
-    tol: f64,
-    at: MismatchAt,
-    predicted: f64,
-) -> Vec<Explanation> {
+fn solve_ranges(scale: &Scale, t: f64, a: f64, tol: f64, predicted: f64) -> Vec<Explanation> {
     let (lrv, urv, span) = (scale.lrv, scale.urv, scale.span());
     let unit = scale.unit.clone();
-    let who = match at {
-        MismatchAt::Receiver => "receiver",
-        MismatchAt::Transmitter => "transmitter",
-    };
-    let show = |v: f64| display::fixed(v, display::decimals_for_span(span));
     let mut out = Vec::new();
     if t.abs() > 1e-6 {
         let new_urv = lrv + (a - lrv) / t;
@@ -492,13 +455,6 @@ fn solve_ranges(
                 },
                 predicted,
                 residual_pct: 0.0,
-                text: format!(
-                    "Different range: if the {who}'s LRV is {} {unit} as on the tag, its URV must be {} {unit} (about {} {unit}) instead of {} {unit}.",
-                    show(lrv),
-                    show(new_urv),
-                    show(round2(new_urv)),
-                    show(urv)
-                ),
             });
         }
     }
@@ -518,12 +474,6 @@ fn solve_ranges(
                 },
                 predicted,
                 residual_pct: 0.0,
-                text: format!(
-                    "Different range: if the {who}'s URV is {} {unit} as on the tag, its LRV must be {} {unit} instead of {} {unit}.",
-                    show(urv),
-                    show(new_lrv),
-                    show(lrv)
-                ),
             });
         }
     }
@@ -557,47 +507,42 @@ pub fn explain_transmitter(
     let difference_pct = (current - expected) / width * 100.0;
     let agrees = difference_pct.abs() <= tol;
     let mut out = Mismatch {
-        at: MismatchAt::Transmitter,
-        current_ma: current,
-        process_value: Some(p),
-        expected,
-        observed: current,
-        unit: "mA".to_string(),
-        difference_pct,
-        fit_tolerance_pct: tol,
-        agrees,
+        reading: Reading {
+            at: MismatchAt::Transmitter,
+            current_ma: current,
+            process_value: Some(p),
+            expected,
+            observed: current,
+            unit: "mA".to_string(),
+            difference_pct,
+            fit_tolerance_pct: tol,
+            agrees,
+            value_span: scale.span(),
+            range_lrv: scale.lrv,
+            range_urv: scale.urv,
+            range_unit: scale.unit.clone(),
+            root_in: root_location(scale),
+        },
         explanations: Vec::new(),
     };
     if agrees {
         return Ok(out);
     }
     let unit = scale.unit.clone();
-    let pv = |v: f64| fmt_value(v, &unit, scale.span());
     let mut found: Vec<Explanation> = Vec::new();
-    let push = |found: &mut Vec<Explanation>, h: Hypothesis, predicted: f64, text: String| {
+    let push = |found: &mut Vec<Explanation>, h: Hypothesis, predicted: f64| {
         let r = residual(predicted);
         if r <= tol {
             found.push(Explanation {
                 hypothesis: h,
                 predicted,
                 residual_pct: r,
-                text,
             });
         }
     };
 
     let reversed = scale.signal.ma_at(100.0 - pct_e);
-    push(
-        &mut found,
-        Hypothesis::Reversed,
-        reversed,
-        format!(
-            "Reversed action: at {} the transmitter sends {}, as if its 4 and 20 mA ends were swapped (expected {}). Check its range direction or output action.",
-            pv(p),
-            display::ma(current),
-            display::ma(expected)
-        ),
-    );
+    push(&mut found, Hypothesis::Reversed, reversed);
 
     let linear_domain = !matches!(scale.transfer, Transfer::SquareRoot { .. });
     if let Transfer::Linear | Transfer::SquareRoot { .. } = &scale.transfer {
@@ -611,33 +556,13 @@ pub fn explain_transmitter(
         let c = (pct_e / 100.0).max(0.0);
         if t0 {
             let predicted = scale.signal.ma_at(c * c * 100.0);
-            push(
-                &mut found,
-                Hypothesis::MissingSquareRoot,
-                predicted,
-                format!(
-                    "Square root not taken: the tag has the transmitter extract the root, but it sends a current linear in ΔP ({} instead of {}). Set its output to square root, or move the root to the receiver.",
-                    display::ma(current),
-                    display::ma(expected)
-                ),
-            );
+            push(&mut found, Hypothesis::MissingSquareRoot, predicted);
         } else {
             let predicted = scale.signal.ma_at(c.sqrt() * 100.0);
-            let what = if matches!(scale.transfer, Transfer::SquareRoot { .. }) {
-                "the square root is taken twice: the transmitter extracts it and the receiver takes it again"
-            } else {
-                "the transmitter's output is set to square root on a linear loop"
-            };
             push(
                 &mut found,
                 Hypothesis::ExtraSquareRoot { roots: 1 },
                 predicted,
-                format!(
-                    "Square root: {what}. At {} it sends {} instead of {}.",
-                    pv(p),
-                    display::ma(current),
-                    display::ma(expected)
-                ),
             );
         }
     }
@@ -658,15 +583,6 @@ pub fn explain_transmitter(
                         },
                         predicted,
                         residual_pct: r,
-                        text: format!(
-                            "Units mixed up: the transmitter's range numbers are in {} instead of {unit} ({} is {} {}), so it sends {} instead of {}.",
-                            x.symbol,
-                            pv(p),
-                            display::fixed(px, 4),
-                            x.symbol,
-                            display::ma(current),
-                            display::ma(expected)
-                        ),
                     });
                 }
             }
@@ -678,7 +594,6 @@ pub fn explain_transmitter(
             c,
             p,
             tol,
-            MismatchAt::Transmitter,
             scale.signal.ma_at(c * 100.0),
         ));
     }

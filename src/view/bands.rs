@@ -171,8 +171,7 @@ pub fn band_bar(ma: Option<f64>, limits: &BandLimits, span: &SignalSpan) -> Band
 
 /// `4`, `3.6`, `20.5`: mA without trailing zeros.
 fn tick_label(ma: f64) -> String {
-    let s = crate::display::fixed(ma, 1);
-    s.strip_suffix(".0").map(str::to_string).unwrap_or(s)
+    crate::display::ma_label(ma)
 }
 
 #[cfg(test)]

@@ -78,7 +78,7 @@ fn point_label(p: &PlannedPoint, last_rising: bool) -> String {
         (Direction::Rising, _) => " ↑",
         (Direction::Falling, _) => " ↓",
     };
-    format!("{} %{arrow}", display::fixed(p.percent, 0))
+    format!("{} %{arrow}", display::test_point(p.percent))
 }
 
 /// What to apply for a planned point: the sensor's input if the tag has a sensor.
@@ -86,8 +86,7 @@ fn apply_text(tag: &Tag, check: &LoopCheck, p: &PlannedPoint) -> String {
     if let Some(sensor) = &tag.sensor {
         if let Ok(v) = sensor.applied_for(p.applied, &tag.scale.unit) {
             let unit = sensor.applied_unit();
-            let decimals = if unit == "Pa" { 0 } else { 3 };
-            return format!("{} {unit}", display::fixed(v, decimals));
+            return display::sensor_input(v, unit);
         }
     }
     display::value(p.applied, &check.input_unit(), tag.scale.span().abs())
@@ -184,7 +183,7 @@ pub fn view(tag: &Tag, stage: Stage, readings: &[String], date: NaiveDate) -> Ch
         let mut row = Row {
             point: point_label(p, i == last / 2),
             apply: apply_text(tag, &check, p),
-            expected: display::fixed(p.expected, 3),
+            expected: display::ma_number(p.expected),
             error: String::new(),
             tone: Tone::Neutral,
             verdict: String::new(),
@@ -238,7 +237,7 @@ pub fn view(tag: &Tag, stage: Stage, readings: &[String], date: NaiveDate) -> Ch
                 display::percent(res.max_error_pct),
                 res.points
                     .get(res.max_error_index)
-                    .map(|p| display::fixed(p.percent, 0))
+                    .map(|p| display::test_point(p.percent))
                     .unwrap_or_default()
             );
             if let Some(h) = res.hysteresis_pct {

@@ -89,11 +89,6 @@ pub struct ConvertView {
     pub bar_description: String,
 }
 
-/// Decimals shown for mA, % and volts in the fields (process-meter resolution).
-const MA_DECIMALS: usize = 3;
-const PERCENT_DECIMALS: usize = 2;
-const VOLTS_DECIMALS: usize = 3;
-
 /// Work out the view from the typed field. The error names the field that was wrong.
 pub fn view(input: &ConvertInput) -> Result<ConvertView> {
     let scale = input.scale;
@@ -116,7 +111,7 @@ pub fn view(input: &ConvertInput) -> Result<ConvertView> {
     let status = classify(reading.ma, input.bands, &scale.signal)?;
     let span = value_span(scale);
     let volts = match ohms {
-        Ok(r) if r > 0.0 => display::fixed(reading.ma * r / 1000.0, VOLTS_DECIMALS),
+        Ok(r) if r > 0.0 => display::sense_volts_number(reading.ma * r / 1000.0),
         _ => String::new(),
     };
     let bar = band_bar(Some(reading.ma), input.bands, &scale.signal);
@@ -127,9 +122,9 @@ pub fn view(input: &ConvertInput) -> Result<ConvertView> {
         status_title.to_lowercase()
     );
     Ok(ConvertView {
-        ma: display::fixed(reading.ma, MA_DECIMALS),
-        percent: display::fixed(reading.percent, PERCENT_DECIMALS),
-        value: display::fixed(reading.value, display::decimals_for_span(span)),
+        ma: display::ma_number(reading.ma),
+        percent: display::percent_number(reading.percent),
+        value: display::value_number(reading.value, span),
         volts,
         value_unit: reading.unit.clone(),
         status_title,

@@ -179,7 +179,7 @@ pub fn view(procedure: &Procedure, session: &Session, tag: &Tag, inputs: &Inputs
         .findings
         .iter()
         .map(|f| FindingLine {
-            text: f.text.clone(),
+            text: crate::view::wording::finding::text(f),
             tone: finding_tone(&f.code),
         })
         .collect();
@@ -477,6 +477,14 @@ mod tests {
         assert!(d.points_to_fault);
         assert_eq!(v.findings.len(), 1);
         assert_eq!(v.findings[0].tone, Tone::Dead);
+        // Worded from the finding's code and numbers: 0 mA is (0 − 4)/16 = −25 % of span.
+        assert!(
+            v.findings[0]
+                .text
+                .starts_with("0.000 mA at the transmitter (-25.00 % of span): no-loop-current"),
+            "{}",
+            v.findings[0].text
+        );
         let cur = v.current.unwrap();
         assert_eq!(cur.number, 2);
         assert_eq!(cur.inputs.len(), 1);

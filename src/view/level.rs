@@ -269,6 +269,23 @@ impl LevelResult {
     }
 }
 
+/// The elevation or suppression of zero in words, the amount in `unit` (a pressure unit)
+/// rounded for the range's `span` in that unit: `suppressed zero by 64.80 inH2O(conv)
+/// (LRV above 0)`.
+pub fn zero_words(zero: &ZeroShift, unit: &str, span: f64) -> Result<String> {
+    Ok(match zero {
+        ZeroShift::None => "zero-based (LRV = 0)".to_string(),
+        ZeroShift::Elevated { by_pa } => format!(
+            "elevated zero by {} (LRV below 0)",
+            display::value(units::difference_from_pa(*by_pa, unit, "unit")?, unit, span)
+        ),
+        ZeroShift::Suppressed { by_pa } => format!(
+            "suppressed zero by {} (LRV above 0)",
+            display::value(units::difference_from_pa(*by_pa, unit, "unit")?, unit, span)
+        ),
+    })
+}
+
 /// Range the setup typed. The unit is checked first, so its message comes before any
 /// other field's.
 pub fn result(input: &LevelInput<'_>) -> Result<LevelResult> {
@@ -309,23 +326,10 @@ pub fn result(input: &LevelInput<'_>) -> Result<LevelResult> {
         row("LRV", display::value(lrv, unit, span)),
         row("URV", display::value(urv, unit, span)),
         row("span", display::value(span, unit, span)),
-        row(
-            "zero",
-            match ranging.zero {
-                ZeroShift::None => "zero-based (LRV = 0)".to_string(),
-                ZeroShift::Elevated { .. } => format!(
-                    "elevated zero by {} (LRV below 0)",
-                    display::value(zero_shift, unit, span)
-                ),
-                ZeroShift::Suppressed { .. } => format!(
-                    "suppressed zero by {} (LRV above 0)",
-                    display::value(zero_shift, unit, span)
-                ),
-            },
-        ),
+        row("zero", zero_words(&ranging.zero, unit, span)?),
     ];
     if let Some(h) = level_m {
-        rows.push(row("level", format!("{} m", display::fixed(h, 3))));
+        rows.push(row("level", display::height(h)));
     }
     Ok(LevelResult {
         mount: setup.mount.name().to_string(),
@@ -552,7 +556,7 @@ const TX_H: f64 = 0.08;
 
 /// Metres and fractions formatted as words for the labels.
 fn metres(v: f64) -> String {
-    display::fixed(v.abs(), 2)
+    display::height_label(v)
 }
 
 /// The sketch for a setup that reads. Elevations map onto the picture's height with a

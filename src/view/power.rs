@@ -114,7 +114,7 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
         .max(1e-9);
     let full = slices(config, &b.at_full_scale, b.lowest_supply_volts, total);
     let fault = slices(config, &b.at_fault, b.lowest_supply_volts, total);
-    let fault_ma = display::fixed(b.at_fault.current_ma, 1);
+    let fault_ma = display::ma_setting(b.at_fault.current_ma);
 
     let mut legend = vec![LegendLine {
         kind: SliceKind::Transmitter,
@@ -145,7 +145,7 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
     let verdict_title = if b.ok {
         "Enough voltage at 20 mA and at the fault current".to_string()
     } else if b.ok_full_scale {
-        format!("Reaches 20 mA but not {fault_ma} mA: a fault would be hidden")
+        format!("Reaches 20 mA but not {fault_ma}: a fault would be hidden")
     } else {
         "Not enough voltage at 20 mA".to_string()
     };
@@ -157,7 +157,7 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
             tone: tone_of(b.at_full_scale.ok),
         },
         Figure {
-            label: format!("Headroom at {fault_ma} mA"),
+            label: format!("Headroom at {fault_ma}"),
             value: spare_line(&b.at_fault),
             tone: tone_of(b.at_fault.ok),
         },
@@ -172,19 +172,19 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
             tone: tone_of(b.spare_ohms >= 0.0),
         },
         Figure {
-            label: format!("Load still available at {fault_ma} mA"),
+            label: format!("Load still available at {fault_ma}"),
             value: display::ohms(b.spare_fault_ohms),
             tone: tone_of(b.spare_fault_ohms >= 0.0),
         },
         Figure {
-            label: format!("Lowest supply needed at {fault_ma} mA"),
+            label: format!("Lowest supply needed at {fault_ma}"),
             value: display::volts(b.min_supply_fault_volts),
             tone: tone_of(b.min_supply_fault_volts <= b.lowest_supply_volts + 1e-9),
         },
     ];
     for (at, cable) in [
         ("20 mA".to_string(), b.max_cable_m),
-        (format!("{fault_ma} mA"), b.max_cable_fault_m),
+        (fault_ma.clone(), b.max_cable_fault_m),
     ] {
         if let Some(m) = cable {
             figures.push(Figure {
@@ -220,7 +220,7 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
     };
     Ok(PowerView {
         full_title: "At 20 mA".to_string(),
-        fault_title: format!("At {fault_ma} mA (upscale fault)"),
+        fault_title: format!("At {fault_ma} (upscale fault)"),
         full_description: describe(&b.at_full_scale),
         fault_description: describe(&b.at_fault),
         full,

@@ -161,8 +161,8 @@ pub fn view(check: &LoopCheck, text: ReferenceText<'_>) -> ReferenceView {
             if let Some(tur) = res.tur {
                 v.tur_text = format!(
                     "TUR {}:1 ({}:1 or better asked, common practice)",
-                    display::fixed(tur, 1),
-                    display::fixed(MIN_TUR, 0)
+                    display::ratio(tur),
+                    display::whole(MIN_TUR)
                 );
             }
             v.warnings = warnings(&res.warnings);

@@ -82,11 +82,11 @@ fn fill(input: &CalcInput, from_temp: bool, v: &mut CalcView) -> Result<()> {
             if from_temp {
                 let t = parse_in("temperature", &input.text, "°C")?;
                 let ohms = rtd.ohms_at(t).map_err(|e| e.renamed("temperature"))?;
-                v.signal = display::fixed(ohms, 3);
+                v.signal = display::sensor_ohms_number(ohms);
             } else {
                 let ohms = parse_in("ohms", &input.text, "Ω")?;
                 let t = rtd.temp_c_at(ohms).map_err(|e| e.renamed("ohms"))?;
-                v.temp_c = display::fixed(t, 2);
+                v.temp_c = display::temperature_number(t);
             }
         }
         SensorKind::Thermocouple(tc) => {
@@ -101,8 +101,8 @@ fn fill(input: &CalcInput, from_temp: bool, v: &mut CalcView) -> Result<()> {
             v.note = format!(
                 "Type {}, NIST ITS-90 tables, {} to {} °C; millivolts at the terminals with the cold junction at {} °C",
                 tc.letter(),
-                display::fixed(lo, 0),
-                display::fixed(hi, 0),
+                display::whole(lo),
+                display::whole(hi),
                 crate::display::trimmed(cj)
             );
             if input.text.trim().is_empty() {
@@ -117,7 +117,7 @@ fn fill(input: &CalcInput, from_temp: bool, v: &mut CalcView) -> Result<()> {
                         e.renamed("temperature")
                     }
                 })?;
-                v.signal = display::fixed(mv, 3);
+                v.signal = display::millivolts_number(mv);
             } else {
                 let mv = parse_in("millivolts", &input.text, "mV")?;
                 let t = thermocouple::temp_c_from_measured(tc, mv, cj).map_err(|e| {
@@ -127,7 +127,7 @@ fn fill(input: &CalcInput, from_temp: bool, v: &mut CalcView) -> Result<()> {
                         e.renamed("millivolts")
                     }
                 })?;
-                v.temp_c = display::fixed(t, 2);
+                v.temp_c = display::temperature_number(t);
             }
         }
     }

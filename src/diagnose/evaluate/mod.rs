@@ -12,23 +12,25 @@
 //! settings, the dispatch by name).
 
 pub mod band;
-mod current_swing;
+pub mod current_swing;
 pub mod hart;
 pub mod leakage;
-mod readings;
-mod shield_noise;
+pub mod readings;
+pub mod shield_noise;
 pub mod supply;
 pub mod terminal_volts;
 
 pub use band::{signal_band, BandFinding};
+pub use current_swing::SwingFinding;
 pub use hart::{hart_window, HartFinding};
-pub use leakage::{leakage, LeakageFinding, LEAKAGE_ASSUMED_LOOP};
+pub use leakage::{leakage, LeakageFinding};
+pub use readings::{ExplanationFinding, Reader, ReadingFinding};
+pub use shield_noise::ShieldFinding;
 pub use supply::{supply, SupplyFinding};
 pub use terminal_volts::{terminal_volts, VoltageFinding};
 
 use super::measure::Measurement;
 use super::mismatch;
-use crate::display;
 use crate::error::{FieldError, Result};
 use crate::tag::Tag;
 use serde::{Deserialize, Serialize};
@@ -94,9 +96,16 @@ impl Settings {
     }
 }
 
-/// One finding, ready for the log: a stable code, plain words with numbers, and the typed
-/// detail as JSON. A finding saved under an old leakage code is read with today's code
-/// (see [`OLD_LEAKAGE_CODES`]).
+/// One finding, ready for the log: a stable code and the typed detail as JSON. Its words
+/// are written above the core, from the code and the detail, by
+/// [`crate::view::wording::finding`].
+///
+/// Records saved before payload version 3 kept the words too (`text`): where the code and
+/// detail cannot be worded today they are read into [`Self::saved_text`] and shown (and
+/// saved again with the finding); elsewhere they are dropped on reading, the finding being
+/// worded afresh. A finding saved
+/// under an old leakage code is read with today's code (see [`OLD_LEAKAGE_CODES`]), the
+/// old one kept in [`Self::saved_code`].
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(from = "StoredFinding")]
 pub struct Finding {
@@ -105,10 +114,17 @@ pub struct Finding {
     pub step: String,
     /// Stable machine name, e.g. `not-enough-voltage`.
     pub code: String,
-    /// What it means, in a technician's words, with the numbers.
-    pub text: String,
-    /// The computed values.
+    /// The computed values (a [`Detail`] as JSON; see [`Finding::typed`]).
     pub detail: serde_json::Value,
+    /// The words a record saved before payload version 3 kept, where its code and detail
+    /// cannot be worded today (or it is an old leakage record); `None` for a finding made
+    /// today.
+    #[serde(rename = "text", default, skip_serializing_if = "Option::is_none")]
+    pub saved_text: Option<String>,
+    /// The code the record was saved under, when it is read under today's (an old
+    /// leakage code, [`OLD_LEAKAGE_CODES`]).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub saved_code: Option<String>,
 }
 
 /// A finding as stored, before old leakage codes are mapped.
@@ -117,8 +133,11 @@ struct StoredFinding {
     #[serde(default)]
     step: String,
     code: String,
-    text: String,
+    #[serde(default)]
+    text: Option<String>,
     detail: serde_json::Value,
+    #[serde(default)]
+    saved_code: Option<String>,
 }
 
 /// Leakage outcome ids of records saved before the outcomes said where the path is, with
@@ -141,6 +160,11 @@ pub const OLD_LEAKAGE_CODES: [(&str, &str); 2] = [
     ("extra-current", "leak-across-pair"),
 ];
 
+/// The detail key an old `leakage` record's path resistance is moved to when it is read
+/// (kΩ): it was worked out as if the path were across the pair, which a receiver reading
+/// less does not show, so it is no longer the finding's `leak_path_kohm`.
+pub const OLD_LEAK_PATH_KEY: &str = "old_leak_path_kohm";
+
 /// Today's id for an outcome saved under an old leakage id; any other id as it is.
 pub fn current_outcome_id(outcome: &str) -> &str {
     OLD_LEAKAGE_OUTCOMES
@@ -150,25 +174,32 @@ pub fn current_outcome_id(outcome: &str) -> &str {
 }
 
 impl From<StoredFinding> for Finding {
-    /// Reads an old leakage finding under today's code. The recorded measurements and
-    /// text stay as they were (the text is what the technician was shown); a marked note
-    /// is added that says what the direction measured means. An old `leakage` record's
-    /// path resistance was worked out as if the path were across the pair, which a
-    /// receiver reading less does not show, so it is taken out of the detail and quoted
-    /// in the note instead.
+    /// Reads an old leakage finding under today's code, keeping the old code. The recorded
+    /// measurements and text stay as they were (the text is what the technician was
+    /// shown). An old `leakage` record's path resistance was worked out as if the path
+    /// were across the pair, which a receiver reading less does not show, so it is moved
+    /// out of `leak_path_kohm` to [`OLD_LEAK_PATH_KEY`].
     fn from(stored: StoredFinding) -> Finding {
         let StoredFinding {
             step,
             code,
-            mut text,
+            text,
             mut detail,
+            saved_code,
         } = stored;
-        let Some((_, new_code)) = OLD_LEAKAGE_CODES.iter().find(|(old, _)| *old == code) else {
+        let Some((old, new_code)) = OLD_LEAKAGE_CODES.iter().find(|(old, _)| *old == code) else {
+            // Words are kept only where the code and detail cannot give them today (or
+            // where they are what an old leakage record showed).
+            let saved_text = match (&saved_code, Detail::read(&code, &detail)) {
+                (None, Some(_)) => None,
+                _ => text,
+            };
             return Finding {
                 step,
                 code,
-                text,
                 detail,
+                saved_text,
+                saved_code,
             };
         };
         if let Some(obj) = detail.as_object_mut() {
@@ -176,45 +207,167 @@ impl From<StoredFinding> for Finding {
                 let mapped = current_outcome_id(o).to_string();
                 obj.insert("outcome".to_string(), serde_json::Value::String(mapped));
             }
+            if *new_code == "leak-to-earth" {
+                if let Some(k) = obj.get_mut("leak_path_kohm").map(serde_json::Value::take) {
+                    if !k.is_null() {
+                        obj.insert(OLD_LEAK_PATH_KEY.to_string(), k);
+                    }
+                }
+            }
         }
-        let note = if *new_code == "leak-to-earth" {
-            let old_path = detail
-                .get_mut("leak_path_kohm")
-                .map(serde_json::Value::take)
-                .and_then(|v| v.as_f64());
-            let dropped = match old_path {
-                Some(k) => format!(
-                    " The {} kΩ worked out then assumed a path across the pair and does not apply.",
-                    display::fixed(k, 1)
-                ),
-                None => String::new(),
-            };
-            format!(
-                " [Note added when this record was read: it was saved before loopside corrected the leakage direction. The receiver read less than the transmitter, which points to current leaving the loop to earth between them (or a device fed from the loop), not to a path across the pair.{dropped} {LEAKAGE_ASSUMED_LOOP}]"
-            )
-        } else {
-            format!(
-                " [Note added when this record was read: it was saved before loopside corrected the leakage direction. The receiver read more than the transmitter, which points to a path across the pair in parallel with the transmitter (moisture, a surge protector, damaged insulation), not to an outside source. {LEAKAGE_ASSUMED_LOOP}]"
-            )
-        };
-        text.push_str(&note);
         Finding {
             step,
             code: new_code.to_string(),
-            text,
             detail,
+            saved_text: text,
+            saved_code: Some(old.to_string()),
         }
     }
 }
 
+/// A finding's detail, typed: one variant per evaluation's result.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Detail {
+    /// `band-…`: the NE 43 band of a current.
+    Band(BandFinding),
+    /// `supply-…`: the supply voltage.
+    Supply(SupplyFinding),
+    /// `enough-voltage`, `not-enough-voltage`, `short-at-top`,
+    /// `no-voltage-at-transmitter`: the transmitter's terminal volts.
+    TerminalVolts(VoltageFinding),
+    /// `currents-match`, `leak-across-pair`, `leak-to-earth`.
+    Leakage(LeakageFinding),
+    /// `reading-agrees`, `reading-disagrees`: a reading against the loop.
+    Reading(ReadingFinding),
+    /// A hypothesis's code (`reversed`, `different-range` …): one explanation of a
+    /// reading that disagrees.
+    Explanation(ExplanationFinding),
+    /// `hart-…`: the loop resistance against the HART window.
+    Hart(HartFinding),
+    /// `shield-noise`, `shield-quiet`.
+    ShieldNoise(ShieldFinding),
+    /// `current-swinging`, `current-steady`.
+    CurrentSwing(SwingFinding),
+}
+
+/// The codes of the explanations of a reading (the hypotheses' codes).
+const EXPLANATION_CODES: [&str; 7] = [
+    "units-mixed-up",
+    "extra-square-root",
+    "missing-square-root",
+    "reversed",
+    "input-resistor",
+    "table-not-applied",
+    "different-range",
+];
+
+impl Detail {
+    /// The stable code of a finding with this detail.
+    pub fn code(&self) -> String {
+        match self {
+            Detail::Band(f) => format!("band-{}", f.status.as_str()),
+            Detail::Supply(f) => format!("supply-{}", f.outcome),
+            Detail::TerminalVolts(f) => match f.outcome.as_str() {
+                "enough" => "enough-voltage",
+                "short-at-top" => "short-at-top",
+                "none" => "no-voltage-at-transmitter",
+                _ => "not-enough-voltage",
+            }
+            .to_string(),
+            Detail::Leakage(f) => match f.outcome.as_str() {
+                "across-pair" => "leak-across-pair",
+                "to-earth" => "leak-to-earth",
+                _ => "currents-match",
+            }
+            .to_string(),
+            Detail::Reading(f) => if f.mismatch.reading.agrees {
+                "reading-agrees"
+            } else {
+                "reading-disagrees"
+            }
+            .to_string(),
+            Detail::Explanation(f) => f.explanation.hypothesis.code().to_string(),
+            Detail::Hart(f) => format!("hart-{}", f.outcome),
+            Detail::ShieldNoise(f) => if f.outcome == "noisy" {
+                "shield-noise"
+            } else {
+                "shield-quiet"
+            }
+            .to_string(),
+            Detail::CurrentSwing(f) => if f.outcome == "swinging" {
+                "current-swinging"
+            } else {
+                "current-steady"
+            }
+            .to_string(),
+        }
+    }
+
+    /// Read the detail of a finding coded `code`; `None` when the code is not one loopside
+    /// makes today or the detail lacks what its words need (a record from an older
+    /// loopside).
+    pub fn read(code: &str, detail: &serde_json::Value) -> Option<Detail> {
+        fn take<T: serde::de::DeserializeOwned>(v: &serde_json::Value) -> Option<T> {
+            serde_json::from_value(v.clone()).ok()
+        }
+        let typed = if code.starts_with("band-") {
+            Detail::Band(take(detail)?)
+        } else if code.starts_with("supply-") {
+            Detail::Supply(take(detail)?)
+        } else if code.starts_with("hart-") {
+            Detail::Hart(take(detail)?)
+        } else {
+            match code {
+                "enough-voltage"
+                | "not-enough-voltage"
+                | "short-at-top"
+                | "no-voltage-at-transmitter" => Detail::TerminalVolts(take(detail)?),
+                "currents-match" | "leak-across-pair" | "leak-to-earth" => {
+                    Detail::Leakage(take(detail)?)
+                }
+                "reading-agrees" | "reading-disagrees" => Detail::Reading(take(detail)?),
+                "shield-noise" | "shield-quiet" => Detail::ShieldNoise(take(detail)?),
+                "current-swinging" | "current-steady" => Detail::CurrentSwing(take(detail)?),
+                c if EXPLANATION_CODES.contains(&c) => Detail::Explanation(take(detail)?),
+                _ => return None,
+            }
+        };
+        // The detail must be the one its code names (a band finding's status, a
+        // terminal-volts outcome …), else its words would say something else.
+        (typed.code() == code).then_some(typed)
+    }
+
+    fn to_json(&self) -> serde_json::Value {
+        let value = match self {
+            Detail::Band(f) => serde_json::to_value(f),
+            Detail::Supply(f) => serde_json::to_value(f),
+            Detail::TerminalVolts(f) => serde_json::to_value(f),
+            Detail::Leakage(f) => serde_json::to_value(f),
+            Detail::Reading(f) => serde_json::to_value(f),
+            Detail::Explanation(f) => serde_json::to_value(f),
+            Detail::Hart(f) => serde_json::to_value(f),
+            Detail::ShieldNoise(f) => serde_json::to_value(f),
+            Detail::CurrentSwing(f) => serde_json::to_value(f),
+        };
+        value.unwrap_or(serde_json::Value::Null)
+    }
+}
+
 impl Finding {
-    fn new(code: &str, text: String, detail: impl Serialize) -> Finding {
+    /// A finding made today: its code from its detail, no stored words.
+    pub fn new(detail: Detail) -> Finding {
         Finding {
             step: String::new(),
-            code: code.to_string(),
-            text,
-            detail: serde_json::to_value(detail).unwrap_or(serde_json::Value::Null),
+            code: detail.code(),
+            detail: detail.to_json(),
+            saved_text: None,
+            saved_code: None,
         }
+    }
+
+    /// The detail, typed by the code (see [`Detail::read`]).
+    pub fn typed(&self) -> Option<Detail> {
+        Detail::read(&self.code, &self.detail)
     }
 }
 
@@ -361,6 +514,16 @@ impl Evaluation {
         }
     }
 
+    /// The outcome named `name` as this evaluation lists it (a name it does not list
+    /// reads as `otherwise`, which no evaluation gives).
+    fn outcome(self, name: &str) -> &'static str {
+        self.outcomes()
+            .iter()
+            .find(|o| **o == name)
+            .copied()
+            .unwrap_or("otherwise")
+    }
+
     /// Run it on the measurements known so far.
     pub fn evaluate(
         self,
@@ -390,22 +553,14 @@ impl Evaluation {
                 let f = signal_band(tag, get(m)?, at)?;
                 Ok(Evaluated {
                     outcome: f.status.as_str(),
-                    findings: vec![Finding::new(
-                        &format!("band-{}", f.status.as_str()),
-                        f.text.clone(),
-                        &f,
-                    )],
+                    findings: vec![Finding::new(Detail::Band(f))],
                 })
             }
             Evaluation::Supply => {
                 let f = supply(tag, get(Measurement::SupplyV)?)?;
                 Ok(Evaluated {
-                    outcome: f.outcome,
-                    findings: vec![Finding::new(
-                        &format!("supply-{}", f.outcome),
-                        f.text.clone(),
-                        &f,
-                    )],
+                    outcome: self.outcome(&f.outcome),
+                    findings: vec![Finding::new(Detail::Supply(f))],
                 })
             }
             Evaluation::TerminalVolts => {
@@ -415,15 +570,9 @@ impl Evaluation {
                     values.get(&Measurement::TxMa).copied(),
                     values.get(&Measurement::SupplyV).copied(),
                 )?;
-                let code = match f.outcome {
-                    "enough" => "enough-voltage",
-                    "short-at-top" => "short-at-top",
-                    "none" => "no-voltage-at-transmitter",
-                    _ => "not-enough-voltage",
-                };
                 Ok(Evaluated {
-                    outcome: f.outcome,
-                    findings: vec![Finding::new(code, f.text.clone(), &f)],
+                    outcome: self.outcome(&f.outcome),
+                    findings: vec![Finding::new(Detail::TerminalVolts(f))],
                 })
             }
             Evaluation::Leakage | Evaluation::LeakageFromResistor => {
@@ -440,16 +589,8 @@ impl Evaluation {
                     values.get(&Measurement::TerminalV).copied(),
                 )?;
                 Ok(Evaluated {
-                    outcome: f.outcome,
-                    findings: vec![Finding::new(
-                        match f.outcome {
-                            "across-pair" => "leak-across-pair",
-                            "to-earth" => "leak-to-earth",
-                            _ => "currents-match",
-                        },
-                        f.text.clone(),
-                        &f,
-                    )],
+                    outcome: self.outcome(&f.outcome),
+                    findings: vec![Finding::new(Detail::Leakage(f))],
                 })
             }
             Evaluation::DisplayMismatch => {
@@ -460,7 +601,7 @@ impl Evaluation {
                     settings.fit_tolerance_pct(tag),
                     &readings::input_resistors(tag),
                 )?;
-                Ok(readings::mismatch_evaluated(&m, "receiver"))
+                Ok(readings::mismatch_evaluated(&m, Reader::Receiver))
             }
             Evaluation::TransmitterMismatch => {
                 let m = mismatch::explain_transmitter(
@@ -469,7 +610,7 @@ impl Evaluation {
                     get(Measurement::TxMa)?,
                     settings.fit_tolerance_pct(tag),
                 )?;
-                Ok(readings::mismatch_evaluated(&m, "transmitter"))
+                Ok(readings::mismatch_evaluated(&m, Reader::Transmitter))
             }
             Evaluation::IndicatorVsControl => {
                 let tol = settings.fit_tolerance_pct(tag);
@@ -488,25 +629,21 @@ impl Evaluation {
                     tol,
                     &readings::input_resistors(tag),
                 )?;
-                let outcome = match (ind.agrees, ctl.agrees) {
+                let outcome = match (ind.reading.agrees, ctl.reading.agrees) {
                     (true, true) => "both-agree",
                     (false, true) => "indicator-wrong",
                     (true, false) => "control-wrong",
                     (false, false) => "both-wrong",
                 };
-                let mut findings = readings::mismatch_evaluated(&ind, "indicator").findings;
-                findings.extend(readings::mismatch_evaluated(&ctl, "control system").findings);
+                let mut findings = readings::mismatch_evaluated(&ind, Reader::Indicator).findings;
+                findings.extend(readings::mismatch_evaluated(&ctl, Reader::ControlSystem).findings);
                 Ok(Evaluated { outcome, findings })
             }
             Evaluation::HartWindow => {
                 let f = hart_window(tag, get(Measurement::LoopOhms)?)?;
                 Ok(Evaluated {
-                    outcome: f.outcome,
-                    findings: vec![Finding::new(
-                        &format!("hart-{}", f.outcome),
-                        f.text.clone(),
-                        &f,
-                    )],
+                    outcome: self.outcome(&f.outcome),
+                    findings: vec![Finding::new(Detail::Hart(f))],
                 })
             }
             Evaluation::ShieldNoise => {

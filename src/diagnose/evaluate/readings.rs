@@ -2,61 +2,69 @@
 //! disagrees with the loop current, and the configuration mistakes that explain it
 //! (worked out by [`crate::diagnose::mismatch`]).
 
-use super::{Evaluated, Finding};
+use super::{Detail, Evaluated, Finding};
 use crate::budget::ElementKind;
-use crate::diagnose::mismatch::Mismatch;
-use crate::display;
+use crate::diagnose::mismatch::{Explanation, Mismatch, Reading};
 use crate::tag::Tag;
+use serde::{Deserialize, Serialize};
 
-/// The findings of one reading compared with the loop (`who`: the receiver, the
-/// indicator …).
-pub(super) fn mismatch_evaluated(m: &Mismatch, who: &str) -> Evaluated {
-    let outcome = if m.agrees {
+/// Whose reading was compared with the loop.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum Reader {
+    /// The receiver's display (a display mismatch).
+    Receiver,
+    /// The transmitter's output against the true process value.
+    Transmitter,
+    /// The local indicator (indicator against control system).
+    Indicator,
+    /// The control system (indicator against control system).
+    ControlSystem,
+}
+
+/// One reading compared with the loop: the `reading-agrees` / `reading-disagrees`
+/// finding's detail.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ReadingFinding {
+    /// Whose reading.
+    pub who: Reader,
+    /// The comparison and the explanations that fit.
+    #[serde(flatten)]
+    pub mismatch: Mismatch,
+}
+
+/// One explanation of a reading that disagrees, with the reading it explains: the detail
+/// of a finding coded by its hypothesis (`reversed`, `different-range` …).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ExplanationFinding {
+    /// Whose reading.
+    pub who: Reader,
+    /// The hypothesis, what it predicts and how closely.
+    #[serde(flatten)]
+    pub explanation: Explanation,
+    /// The reading it explains.
+    pub reading: Reading,
+}
+
+/// The findings of one reading compared with the loop.
+pub(super) fn mismatch_evaluated(m: &Mismatch, who: Reader) -> Evaluated {
+    let outcome = if m.reading.agrees {
         "agrees"
     } else if m.explained() {
         "explained"
     } else {
         "unexplained"
     };
-    let unit_value = |v: f64| {
-        if m.unit == "mA" {
-            display::ma(v)
-        } else {
-            format!("{} {}", display::fixed(v, 4), m.unit)
-        }
-    };
-    let head = if m.agrees {
-        format!(
-            "The {who} agrees with the loop: {} observed, {} expected ({} of span apart, within ±{}).",
-            unit_value(m.observed),
-            unit_value(m.expected),
-            display::percent(m.difference_pct),
-            display::percent(m.fit_tolerance_pct)
-        )
-    } else {
-        format!(
-            "The {who} disagrees: {} observed, {} expected ({} of span apart). {}",
-            unit_value(m.observed),
-            unit_value(m.expected),
-            display::percent(m.difference_pct),
-            if m.explanations.is_empty() {
-                "No configuration mistake explains it.".to_string()
-            } else {
-                format!("{} explanation(s) fit:", m.explanations.len())
-            }
-        )
-    };
-    let mut findings = vec![Finding::new(
-        if m.agrees {
-            "reading-agrees"
-        } else {
-            "reading-disagrees"
-        },
-        head,
-        m,
-    )];
+    let mut findings = vec![Finding::new(Detail::Reading(ReadingFinding {
+        who,
+        mismatch: m.clone(),
+    }))];
     for e in &m.explanations {
-        findings.push(Finding::new(e.hypothesis.code(), e.text.clone(), e));
+        findings.push(Finding::new(Detail::Explanation(ExplanationFinding {
+            who,
+            explanation: e.clone(),
+            reading: m.reading.clone(),
+        })));
     }
     Evaluated { outcome, findings }
 }

@@ -5,7 +5,6 @@
 use super::{EXTRA_OHMS_FLOOR, EXTRA_OHMS_FRACTION, NO_VOLTS_BELOW};
 use crate::budget::{Budget, PartRole};
 use crate::diagnose::measure::Measurement;
-use crate::display;
 use crate::error::{FieldError, Result};
 use crate::tag::Tag;
 use serde::{Deserialize, Serialize};
@@ -46,12 +45,11 @@ pub struct VoltageFinding {
     /// The largest element of the budget at the target current, with its volts.
     pub largest_element: Option<(String, f64)>,
     /// `none`, `not-enough`, `short-at-top` or `enough`.
-    pub outcome: &'static str,
-    /// In words.
-    pub text: String,
+    pub outcome: String,
 }
 
-/// Terminal volts against the transmitter minimum, worked with the tag's loop budget.
+/// Terminal volts against the transmitter minimum, worked with the tag's loop budget (the
+/// numbers; the words are [`crate::view::wording::finding::terminal_volts`]).
 pub fn terminal_volts(
     tag: &Tag,
     terminal_v: f64,
@@ -125,87 +123,6 @@ pub fn terminal_volts(
     } else {
         "enough"
     };
-    let at = match current {
-        Some(i) => format!(" at {}", display::ma(i)),
-        None => String::new(),
-    };
-    let mut text = match outcome {
-        "none" => format!(
-            "Only {} reaches the transmitter terminals: the loop is open between the supply and the transmitter, or the supply is off. Measure the supply, then follow the pair through each junction box.",
-            display::volts(terminal)
-        ),
-        "not-enough" => format!(
-            "Not enough voltage: the transmitter gets {}{at}, below its {} minimum (short by {}). It cannot drive the loop current it wants.",
-            display::volts(terminal),
-            display::volts(min),
-            display::volts(min - terminal)
-        ),
-        "short-at-top" => format!(
-            "Enough voltage now ({}{at}, minimum {}), but at {} the transmitter would get only {}: readings near the top clip and the upscale fault signal cannot be reached.",
-            display::volts(terminal),
-            display::volts(min),
-            display::ma(target),
-            display::volts(terminal_at_target)
-        ),
-        _ => format!(
-            "Enough voltage: the transmitter gets {}{at} against its {} minimum, and still {} at {}.",
-            display::volts(terminal),
-            display::volts(min),
-            display::volts(terminal_at_target),
-            display::ma(target)
-        ),
-    };
-    if let Some(m) = measured_ohms {
-        text.push_str(&format!(
-            " From the measurements the loop holds {} against {} on the tag's configuration.",
-            display::ohms(m),
-            display::ohms(budget.loop_ohms)
-        ));
-    }
-    if let Some(extra) = extra_ohms {
-        text.push_str(&format!(
-            " The extra {} is not on the drawing: look for a corroded or loose terminal, a wrong resistor, or a device added to the loop.",
-            display::ohms(extra)
-        ));
-    }
-    if outcome == "not-enough" || outcome == "short-at-top" {
-        let mut fixes = Vec::new();
-        if let Some(ohms) = remove_ohms {
-            let largest = match &largest_element {
-                Some((name, volts)) => format!(
-                    " (the largest part of the budget is {name}, {} at {})",
-                    display::volts(*volts),
-                    display::ma(target)
-                ),
-                None => String::new(),
-            };
-            fixes.push(format!(
-                "remove {} from the loop{largest}",
-                display::ohms(ohms)
-            ));
-        }
-        match (raise_supply_to_v, raise_supply_by_v) {
-            (Some(to), _) => fixes.push(format!(
-                "raise the supply to at least {} (now {}, +{})",
-                display::volts(to),
-                display::volts(supply),
-                display::volts(to - supply)
-            )),
-            (None, Some(by)) => fixes.push(format!(
-                "raise the supply by at least {}",
-                display::volts(by)
-            )),
-            _ => {}
-        }
-        if !fixes.is_empty() {
-            text.push_str(&format!(
-                " To keep {} at the transmitter up to {}: {}.",
-                display::volts(min),
-                display::ma(target),
-                fixes.join(", or ")
-            ));
-        }
-    }
     Ok(VoltageFinding {
         terminal_v: terminal,
         min_v: min,
@@ -222,7 +139,6 @@ pub fn terminal_volts(
         raise_supply_by_v,
         raise_supply_to_v,
         largest_element,
-        outcome,
-        text,
+        outcome: outcome.to_string(),
     })
 }

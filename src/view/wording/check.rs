@@ -21,8 +21,8 @@ pub fn warning(w: &CheckWarning) -> String {
         ),
         CheckWarning::LowTur { tur, minimum } => format!(
             "test uncertainty ratio {}:1 is below {}:1 (common practice): the reference is not accurate enough to judge this tolerance with confidence",
-            display::fixed(*tur, 1),
-            display::fixed(*minimum, 0)
+            display::ratio(*tur),
+            display::whole(*minimum)
         ),
     }
 }
@@ -56,15 +56,8 @@ fn output_text(r: &CheckResult, value: f64) -> String {
 
 fn output_error_text(r: &CheckResult, error: f64) -> String {
     match r.device {
-        Device::Transmitter => format!("{} mA", display::signed(error, 3)),
-        Device::Receiver => {
-            let d = display::decimals_for_span(r.output_span);
-            if r.output_unit.is_empty() {
-                display::signed(error, d)
-            } else {
-                format!("{} {}", display::signed(error, d), r.output_unit)
-            }
-        }
+        Device::Transmitter => display::signed_ma(error),
+        Device::Receiver => display::signed_value(error, &r.output_unit, r.output_span),
     }
 }
 
@@ -80,7 +73,7 @@ pub fn summary(r: &CheckResult) -> String {
         s.push_str(&format!(
             " (point {}, {} {})",
             r.max_error_index + 1,
-            display::fixed(p.percent, 0),
+            display::test_point(p.percent),
             "%"
         ));
     }
@@ -88,7 +81,7 @@ pub fn summary(r: &CheckResult) -> String {
         (Some(h), Some(at)) => s.push_str(&format!(
             "; hysteresis {} of span (at {} %)",
             display::percent(h),
-            display::fixed(at, 0)
+            display::test_point(at)
         )),
         _ => s.push_str("; hysteresis not measured (no input met from both directions)"),
     }
@@ -139,8 +132,8 @@ pub fn markdown(r: &CheckResult) -> String {
     ));
     md.push_str(&format!(
         "Range {} to {} {}",
-        display::fixed(r.scale.lrv, display::decimals_for_span(r.scale.span())),
-        display::fixed(r.scale.urv, display::decimals_for_span(r.scale.span())),
+        display::value_number(r.scale.lrv, r.scale.span()),
+        display::value_number(r.scale.urv, r.scale.span()),
         cell(&r.scale.unit)
     ));
     match &r.scale.transfer {
@@ -173,7 +166,7 @@ pub fn markdown(r: &CheckResult) -> String {
             cell(&output_text(r, p.expected)),
             cell(&output_text(r, p.measured)),
             cell(&output_error_text(r, p.error)),
-            display::signed(p.error_pct, 2),
+            display::signed_percent_number(p.error_pct),
             if p.pass { "pass" } else { "**FAIL**" }
         ));
     }
@@ -187,8 +180,8 @@ pub fn markdown(r: &CheckResult) -> String {
     match &r.reference {
         Some(reference) => {
             let accuracy = match reference.accuracy {
-                Accuracy::PercentOfSpan(v) => format!("±{} % of span", display::fixed(v, 3)),
-                Accuracy::Ma(v) => format!("±{} mA", display::fixed(v, 4)),
+                Accuracy::PercentOfSpan(v) => format!("±{} of span", display::percent_fine(v)),
+                Accuracy::Ma(v) => format!("±{}", display::ma_fine(v)),
                 Accuracy::Units(v) => {
                     format!("±{} {}", display::trimmed(v), cell(&r.input_unit))
                 }
@@ -199,7 +192,7 @@ pub fn markdown(r: &CheckResult) -> String {
                 reference.calibration_due
             ));
             if let Some(tur) = r.tur {
-                md.push_str(&format!(", TUR {}:1", display::fixed(tur, 1)));
+                md.push_str(&format!(", TUR {}:1", display::ratio(tur)));
             }
             md.push_str(".\n");
         }

@@ -81,7 +81,7 @@ pub fn hart(verdict: &HartVerdict) -> String {
         } => format!(
             "loop resistance {} is within the HART window {}–{}",
             display::ohms_whole(loop_ohms),
-            display::fixed(min_ohms, 0),
+            display::whole(min_ohms),
             display::ohms_whole(max_ohms)
         ),
     }
