@@ -13,7 +13,7 @@
 //! tests and the UI with entries of their own.
 
 use crate::error::{FieldError, Result};
-use chrono::{DateTime, FixedOffset, TimeZone, Utc};
+use chrono::{DateTime, Datelike, FixedOffset, TimeZone, Utc};
 use serde::{Deserialize, Serialize};
 use std::collections::HashSet;
 use std::fmt;
@@ -321,6 +321,11 @@ pub struct Query {
     pub open_only: bool,
 }
 
+/// The first year a typed period may name (entry ids count from 1970).
+pub const FIRST_YEAR: i32 = 1970;
+/// The last year a typed period may name.
+pub const LAST_YEAR: i32 = 2999;
+
 /// Which end of a period a typed time is read for.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Bound {
@@ -345,6 +350,8 @@ pub fn parse_since(text: &str, now: DateTime<FixedOffset>) -> Result<Option<Date
 /// - a date `2026-11-30`: likewise, its local midnight (the next one for `Until`);
 /// - a local date and time `2026-11-30 06:00`, or a full time with its offset
 ///   (`2026-11-30T06:00:00+01:00`): that moment.
+///
+/// A typed date lies in the years [`FIRST_YEAR`] to [`LAST_YEAR`].
 ///
 /// "Local" is `zone`: the command line passes the computer's own time zone, so a day
 /// across a daylight-saving change starts at that day's own midnight offset; the app
@@ -421,14 +428,29 @@ pub fn parse_period<Tz: TimeZone>(
         let back = chrono::Duration::milliseconds((hours * 3_600_000.0).round() as i64);
         return Ok(Some((now - back).with_timezone(&Utc)));
     }
+    // A typed date is a day of the log: from 1970 (where entry ids start counting) to 2999,
+    // not a year such as -26 that the date reader would otherwise take.
+    let in_years = |date: chrono::NaiveDate| {
+        if (FIRST_YEAR..=LAST_YEAR).contains(&date.year()) {
+            Ok(())
+        } else {
+            Err(FieldError::new(
+                field,
+                format!("'{t}' is out of range; type a date from {FIRST_YEAR} to {LAST_YEAR}"),
+            ))
+        }
+    };
     if let Ok(dt) = DateTime::parse_from_rfc3339(t) {
+        in_years(dt.date_naive())?;
         return Ok(Some(dt.with_timezone(&Utc)));
     }
     if let Ok(date) = chrono::NaiveDate::parse_from_str(t, "%Y-%m-%d") {
+        in_years(date)?;
         return day_start(date).map(Some);
     }
     for format in ["%Y-%m-%d %H:%M", "%Y-%m-%dT%H:%M", "%Y-%m-%d %H:%M:%S"] {
         if let Ok(local) = chrono::NaiveDateTime::parse_from_str(t, format) {
+            in_years(local.date())?;
             return zone
                 .from_local_datetime(&local)
                 .earliest()

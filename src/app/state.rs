@@ -11,6 +11,7 @@
 use super::{AppState, Screen};
 use crate::check::Stage;
 use crate::store::record::write_atomically;
+use crate::store::saved::{read_or_set_aside, SavedRead};
 use crate::view::convert::Source;
 use serde::{Deserialize, Serialize};
 use std::fs;
@@ -458,48 +459,30 @@ pub fn load(dir: &Path) -> std::io::Result<Option<Saved>> {
     }
 }
 
-/// Where a saved state that cannot be read is kept: `app-state.unreadable.json`, or with
-/// a number when that name is taken (`app-state.unreadable-2.json`).
-fn set_aside_path(dir: &Path) -> std::path::PathBuf {
-    let first = dir.join("app-state.unreadable.json");
-    if !first.exists() {
-        return first;
-    }
-    (2..)
-        .map(|n| dir.join(format!("app-state.unreadable-{n}.json")))
-        .find(|p| !p.exists())
-        .unwrap_or(first)
-}
-
 /// Read the saved state for start-up. A file that cannot be read as state (damaged, or
 /// written by a newer loopside) must not stop the app from starting: on a phone the
-/// technician cannot reach the file to remove it. It is set aside, renamed and never
-/// deleted, and the app starts with its defaults; the second value is the sentence the
-/// screen shows once. An I/O failure other than that (a folder that cannot be read) is
-/// still an error.
+/// technician cannot reach the file to remove it. It is set aside
+/// ([`crate::store::saved::read_or_set_aside`]: renamed to `app-state.unreadable.json`, then
+/// `-2` …, never deleted), and the app starts with its defaults; the second value is the
+/// sentence the screen shows once. An I/O failure other than that (a folder that cannot
+/// be read) is still an error.
 pub fn load_or_set_aside(dir: &Path) -> std::io::Result<(Option<Saved>, Option<String>)> {
-    match load(dir) {
-        Ok(saved) => Ok((saved, None)),
-        Err(e) if e.kind() == std::io::ErrorKind::InvalidData => {
-            let kept = set_aside_path(dir);
-            fs::rename(dir.join(STATE_FILE), &kept)?;
-            if let Ok(folder) = fs::File::open(dir) {
-                // Make the rename itself durable; a failure here loses nothing.
-                let _ = folder.sync_all();
-            }
-            let name = kept
+    Ok(match read_or_set_aside::<Saved>(dir, STATE_FILE)? {
+        SavedRead::Missing => (None, None),
+        SavedRead::Read(saved) => (Some(saved), None),
+        SavedRead::SetAside { kept_as, .. } => {
+            let name = kept_as
                 .file_name()
                 .map(|n| n.to_string_lossy().to_string())
                 .unwrap_or_default();
-            Ok((
+            (
                 None,
                 Some(format!(
                     "The saved screen state could not be read, so the app started with its defaults. The file was kept as {name} in the data folder. Tags, checks and the log are stored apart and are not affected."
                 )),
-            ))
+            )
         }
-        Err(e) => Err(e),
-    }
+    })
 }
 
 /// Write the state crash-safely (see [`write_atomically`]).

@@ -58,12 +58,21 @@ pub fn select(store: &dyn Store, query: &Query, exported: DateTime<FixedOffset>)
     }
 }
 
-/// Read a JSON bundle; the error says what is wrong with the file.
+/// Read a JSON bundle; the error says what is wrong with the file and where: the entry or
+/// tag by its position and id and the field (`entry 4 (id 019a…), field time: …`), then
+/// the line and column.
 pub fn parse_bundle(text: &str) -> Result<Bundle> {
-    let b: Bundle = serde_json::from_str(text).map_err(|e| {
+    let mut de = serde_json::Deserializer::from_str(text);
+    let b: Bundle =
+        serde_path_to_error::deserialize(&mut de).map_err(|e| not_a_bundle(text, &e))?;
+    de.end().map_err(|e| {
         FieldError::new(
             "bundle",
-            format!("is not a loopside JSON bundle (line {}: {e})", e.line()),
+            format!(
+                "is not a loopside JSON bundle: there is more after its end (line {}, column {})",
+                e.line(),
+                e.column()
+            ),
         )
     })?;
     if b.loopside != "bundle" {
@@ -82,4 +91,66 @@ pub fn parse_bundle(text: &str) -> Result<Bundle> {
         ));
     }
     Ok(b)
+}
+
+/// The error for a file that does not read as a bundle, naming the part that is wrong.
+fn not_a_bundle(text: &str, e: &serde_path_to_error::Error<serde_json::Error>) -> FieldError {
+    use serde_path_to_error::Segment;
+    let inner = e.inner();
+    let segments: Vec<&Segment> = e.path().iter().collect();
+    // The list (`tags` or `entries`) and the item's index, then the field inside it.
+    let item = match segments.as_slice() {
+        [Segment::Map { key }, Segment::Seq { index }, rest @ ..]
+            if key == "tags" || key == "entries" =>
+        {
+            Some((key.as_str(), *index, rest))
+        }
+        _ => None,
+    };
+    let field_of = |rest: &[&Segment]| {
+        rest.iter()
+            .filter_map(|s| match s {
+                Segment::Map { key } => Some(key.clone()),
+                Segment::Seq { index } => Some(format!("[{}]", index + 1)),
+                Segment::Enum { variant } => Some(variant.clone()),
+                Segment::Unknown => None,
+            })
+            .collect::<Vec<_>>()
+            .join(".")
+            .replace(".[", "[")
+    };
+    // The item's id (and a tag's number) when the file is at least valid JSON.
+    let whole = || serde_json::from_str::<serde_json::Value>(text).ok();
+    let reason = match item {
+        Some((list, index, rest)) => {
+            let value = whole();
+            let item_value = value.as_ref().and_then(|v| v.get(list)?.get(index));
+            let id = item_value
+                .and_then(|v| v.get("id")?.as_str())
+                .map(|id| format!("id {id}"));
+            let number = item_value
+                .and_then(|v| v.get("tag")?.get("number")?.as_str())
+                .map(|n| format!("number '{n}'"));
+            let names: Vec<String> = id.into_iter().chain(number).collect();
+            let what = if list == "tags" { "tag" } else { "entry" };
+            let mut part = format!("{what} {}", index + 1);
+            if !names.is_empty() {
+                part.push_str(&format!(" ({})", names.join(", ")));
+            }
+            let field = field_of(rest);
+            if !field.is_empty() {
+                part.push_str(&format!(", field {field}"));
+            }
+            format!("{part}: {inner}")
+        }
+        None => {
+            let field = field_of(&segments);
+            if field.is_empty() {
+                inner.to_string()
+            } else {
+                format!("field {field}: {inner}")
+            }
+        }
+    };
+    FieldError::new("bundle", format!("is not a loopside JSON bundle: {reason}"))
 }

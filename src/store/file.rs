@@ -305,46 +305,56 @@ impl FileStore {
                         records_lost: lost,
                         message,
                     });
-                } else if s.bad_tail > 0 {
-                    let aside = write_aside(&journal_path, "torn", &bytes[s.tail_start..])
-                        .map_err(io_err("copy aside", &journal_path))?;
-                    cut(&journal_path, s.tail_start as u64)?;
-                    recoveries.push(Recovery {
-                        kind: RecoveryKind::TornTail,
-                        aside: aside.clone(),
-                        records_kept: kept,
-                        records_lost: s.bad_tail,
-                        message: format!(
-                            "the last record in {} was incomplete (saving was interrupted) and was cut off into {}; all {kept} complete records were kept",
-                            journal_path.display(),
-                            aside.display()
-                        ),
-                    });
-                } else if s.missing_newline {
-                    // A whole record whose newline never reached the disk: finish it.
-                    let mut f = OpenOptions::new()
-                        .append(true)
-                        .open(&journal_path)
-                        .map_err(io_err("open", &journal_path))?;
-                    f.write_all(b"\n")
-                        .and_then(|()| f.sync_data())
-                        .map_err(io_err("write", &journal_path))?;
-                } else if s.header.as_ref().is_some_and(|h| h.schema < SCHEMA_VERSION) {
-                    let old = s.header.as_ref().map_or(0, |h| h.schema);
-                    let aside = write_aside(&journal_path, &format!("v{old}-backup"), &bytes)
+                } else {
+                    if s.bad_tail > 0 {
+                        let aside = write_aside(&journal_path, "torn", &bytes[s.tail_start..])
+                            .map_err(io_err("copy aside", &journal_path))?;
+                        cut(&journal_path, s.tail_start as u64)?;
+                        recoveries.push(Recovery {
+                            kind: RecoveryKind::TornTail,
+                            aside: aside.clone(),
+                            records_kept: kept,
+                            records_lost: s.bad_tail,
+                            message: format!(
+                                "the last record in {} was incomplete (saving was interrupted) and was cut off into {}; all {kept} complete records were kept",
+                                journal_path.display(),
+                                aside.display()
+                            ),
+                        });
+                    } else if s.missing_newline {
+                        // A whole record whose newline never reached the disk: finish it.
+                        let mut f = OpenOptions::new()
+                            .append(true)
+                            .open(&journal_path)
+                            .map_err(io_err("open", &journal_path))?;
+                        f.write_all(b"\n")
+                            .and_then(|()| f.sync_data())
+                            .map_err(io_err("write", &journal_path))?;
+                    }
+                    // An older file is upgraded on the same open, torn tail or not (the
+                    // backup is the file as it stands after the tail was cut off), so the
+                    // next open finds nothing left to do.
+                    if s.header.as_ref().is_some_and(|h| h.schema < SCHEMA_VERSION) {
+                        let old = s.header.as_ref().map_or(0, |h| h.schema);
+                        let aside = write_aside(
+                            &journal_path,
+                            &format!("v{old}-backup"),
+                            &bytes[..s.tail_start],
+                        )
                         .map_err(io_err("back up", &journal_path))?;
-                    rewrite(&journal_path, &bytes, &s.good)?;
-                    recoveries.push(Recovery {
-                        kind: RecoveryKind::Migrated,
-                        aside: aside.clone(),
-                        records_kept: kept,
-                        records_lost: 0,
-                        message: format!(
-                            "{} was upgraded from schema {old} to {SCHEMA_VERSION}; the old file was kept as {}",
-                            journal_path.display(),
-                            aside.display()
-                        ),
-                    });
+                        rewrite(&journal_path, &bytes, &s.good)?;
+                        recoveries.push(Recovery {
+                            kind: RecoveryKind::Migrated,
+                            aside: aside.clone(),
+                            records_kept: kept,
+                            records_lost: 0,
+                            message: format!(
+                                "{} was upgraded from schema {old} to {SCHEMA_VERSION}; the old file was kept as {}",
+                                journal_path.display(),
+                                aside.display()
+                            ),
+                        });
+                    }
                 }
                 for r in s.records {
                     register.apply(r);

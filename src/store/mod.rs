@@ -14,6 +14,7 @@
 pub mod bundle;
 mod file;
 pub mod record;
+pub mod saved;
 mod snapshot;
 
 pub use file::{FileStore, Recovery, RecoveryKind, JOURNAL_FILE, LOCK_FILE};
@@ -660,11 +661,33 @@ pub trait Store {
         let mut report = ImportReport::default();
         let mut records = Vec::new();
         let mut map: HashMap<TagId, TagId> = HashMap::new();
-        for incoming in &bundle.tags {
+        // A bundle defines each tag once: two definitions of one id, or two ids under one
+        // number, would leave the register unsure which tag a number or id means.
+        let mut first_id: HashMap<&TagId, usize> = HashMap::new();
+        let mut first_number: HashMap<&str, usize> = HashMap::new();
+        for (i, t) in bundle.tags.iter().enumerate() {
+            let twice = |first: usize, what: String| {
+                FieldError::new("bundle", format!("tags {} and {} {what}", first + 1, i + 1))
+            };
+            if let Some(&first) = first_id.get(&t.id) {
+                return Err(twice(first, format!("both have id {}", t.id)).into());
+            }
+            if let Some(&first) = first_number.get(t.tag.number.as_str()) {
+                return Err(twice(first, format!("are both numbered '{}'", t.tag.number)).into());
+            }
+            first_id.insert(&t.id, i);
+            first_number.insert(&t.tag.number, i);
+        }
+        for (i, incoming) in bundle.tags.iter().enumerate() {
             incoming.tag.validate().map_err(|e| {
                 FieldError::new(
                     "bundle",
-                    format!("tag '{}' is not valid: {e}", incoming.tag.number),
+                    format!(
+                        "tag {} (id {}, number '{}') is not valid: {e}",
+                        i + 1,
+                        incoming.id,
+                        incoming.tag.number
+                    ),
                 )
             })?;
             let here = self
@@ -693,7 +716,7 @@ pub trait Store {
             }
         }
         let mut seen = HashSet::new();
-        for e in &bundle.entries {
+        for (i, e) in bundle.entries.iter().enumerate() {
             if self.entry(&e.id).is_some() || !seen.insert(e.id.clone()) {
                 report.entries_already_here += 1;
                 continue;
@@ -705,13 +728,22 @@ pub trait Store {
                 None => {
                     return Err(FieldError::new(
                         "bundle",
-                        format!("entry {} refers to a tag the bundle does not define", e.id),
+                        format!(
+                            "entry {} (id {}), field tag: {} is not a tag the bundle defines or this register holds",
+                            i + 1,
+                            e.id,
+                            e.tag
+                        ),
                     )
                     .into())
                 }
             }
-            e.validate()
-                .map_err(|err| FieldError::new("bundle", format!("entry {}: {err}", e.id)))?;
+            e.validate().map_err(|err| {
+                FieldError::new(
+                    "bundle",
+                    format!("entry {} (id {}), field {err}", i + 1, e.id),
+                )
+            })?;
             records.push(Record::Entry(e));
             report.entries_added += 1;
         }
