@@ -35,6 +35,7 @@ pub mod data_folder;
 pub mod demo;
 pub mod diagnose;
 pub mod display;
+pub mod intrinsic;
 pub mod journal;
 pub mod leave;
 pub mod level;
