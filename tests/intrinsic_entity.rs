@@ -34,7 +34,7 @@ fn barrier() -> Source {
         co_farads: 83.0 * NF,
         lo_henries: 4.2 * MH,
         lo_ro_henries_per_ohm: Some(55.0 * UH),
-        group: GasGroup::IIC,
+        group: Some(GasGroup::IIC),
     }
 }
 
@@ -359,7 +359,7 @@ fn gas_group_a_iic_device_may_go_where_iib_is_asked_not_the_reverse() {
     assert_eq!(failed, vec![CheckName::DeviceGroup]);
     // A IIB barrier in a IIC area fails on the source's group.
     let mut c = circuit(vec![transmitter(5.0, 10.0)], cable(100.0, 100.0, 0.65));
-    c.source.group = GasGroup::IIB;
+    c.source.group = Some(GasGroup::IIB);
     let v = check(&c).unwrap();
     let failed: Vec<CheckName> = v.checks.iter().filter(|c| !c.ok).map(|c| c.name).collect();
     assert_eq!(failed, vec![CheckName::SourceGroup]);

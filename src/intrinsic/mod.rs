@@ -280,8 +280,10 @@ pub struct Source {
     /// gives one.
     #[serde(default)]
     pub lo_ro_henries_per_ohm: Option<f64>,
-    /// The gas group the source is certified for.
-    pub group: GasGroup,
+    /// The gas group the source is certified for; `None` when not given (then not
+    /// checked, and said so).
+    #[serde(default)]
+    pub group: Option<GasGroup>,
 }
 
 /// What sort of field device.
@@ -491,6 +493,8 @@ pub struct Check {
 #[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(tag = "missing", rename_all = "kebab-case")]
 pub enum NotChecked {
+    /// The source's gas group is not given.
+    SourceGroup,
     /// A device's gas group is not given.
     DeviceGroup {
         /// The device.
@@ -781,16 +785,19 @@ fn check_valid(circuit: &Circuit) -> Verdict {
     let mut checks = Vec::new();
     let mut not_checked = Vec::new();
 
-    checks.push(Check {
-        name: CheckName::SourceGroup,
-        device: None,
-        ok: s.group.covers(area),
-        decides: true,
-        compared: Compared::Groups {
-            required: area,
-            given: s.group,
-        },
-    });
+    match s.group {
+        Some(given) => checks.push(Check {
+            name: CheckName::SourceGroup,
+            device: None,
+            ok: given.covers(area),
+            decides: true,
+            compared: Compared::Groups {
+                required: area,
+                given,
+            },
+        }),
+        None => not_checked.push(NotChecked::SourceGroup),
+    }
 
     // The 1 % rule: the devices' lumped C and L only, the cable not counted.
     let ci_total: f64 = circuit.devices.iter().map(|d| d.ci_farads).sum();
