@@ -39,6 +39,7 @@ pub mod intrinsic;
 pub mod journal;
 pub mod leave;
 pub mod level;
+pub mod licence;
 pub mod report;
 pub mod resistor;
 pub mod rtd;

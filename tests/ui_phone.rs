@@ -236,3 +236,27 @@ fn an_open_tank_with_the_transmitter_below_is_a_suppressed_zero() {
         level.get_problem()
     );
 }
+
+#[test]
+fn the_about_screen_lists_the_toolkit_the_font_and_every_crate() {
+    use loopside::app::AboutAdapter;
+    let app = app();
+    app.show_screen(Screen::About);
+    let lines: Vec<String> = app
+        .window
+        .global::<AboutAdapter>()
+        .get_licences()
+        .iter()
+        .map(|l| l.to_string())
+        .collect();
+    let all = lines.join("\n");
+    assert!(all.contains("Slint"), "{all}");
+    assert!(all.contains("SIL Open Font License 1.1"), "{all}");
+    for c in loopside::licence::third_party() {
+        assert!(
+            all.contains(&format!("{} {}", c.name, c.version)),
+            "{} missing",
+            c.name
+        );
+    }
+}

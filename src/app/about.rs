@@ -3,13 +3,6 @@
 use super::{model, AboutAdapter, AppState, AppWindow, Shared, Theme};
 use slint::ComponentHandle;
 
-/// The licences loopside ships under and with.
-pub const LICENCES: [&str; 3] = [
-    "loopside: MIT licence.",
-    "User interface: Slint, used under the Slint Royalty-free Desktop, Mobile and Web Applications Licence 2.0 (attribution below).",
-    "Font: B612 by Airbus and contributors, SIL Open Font License 1.1 (ui/fonts/B612-LICENSE.txt).",
-];
-
 /// Wire the adapter's callbacks.
 pub fn connect(window: &AppWindow, state: &Shared) {
     let weak = window.as_weak();
@@ -37,7 +30,12 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
             .unwrap_or_else(|| "(not saved: preview)".to_string())
             .into(),
     );
-    a.set_licences(model(LICENCES.iter().map(|l| (*l).into()).collect()));
+    a.set_licences(model(
+        crate::view::about::licence_lines()
+            .into_iter()
+            .map(Into::into)
+            .collect(),
+    ));
     a.set_cautions(model(
         crate::view::CAUTIONS.iter().map(|c| (*c).into()).collect(),
     ));

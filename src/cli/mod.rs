@@ -80,6 +80,16 @@ pub enum Command {
     Intrinsic(intrinsic::IntrinsicArgs),
     /// The same as `intrinsic check`: the entity concept's checks, margins and longest cable.
     Entity(intrinsic::CheckArgs),
+    /// List loopside's licence and every third-party crate and font it ships, with licences.
+    Licences(LicencesArgs),
+}
+
+/// Flags of `loopside licences`.
+#[derive(Debug, clap::Args)]
+pub struct LicencesArgs {
+    /// Print one JSON object: `own`, `font`, `crates` (name, version, licence).
+    #[arg(long)]
+    pub json: bool,
 }
 
 /// An error a subcommand reports: bad input (exit 2) or something else (exit 1).
@@ -127,7 +137,30 @@ pub fn run_command(command: Command, out: &mut dyn Write) -> CliResult {
         Command::Diagnose(args) => check::diagnose(args, &mut std::io::stdin().lock(), out),
         Command::Intrinsic(args) => intrinsic::intrinsic(args, out),
         Command::Entity(args) => intrinsic::check(args, out),
+        Command::Licences(args) => licences(args, out),
     }
+}
+
+/// `loopside licences`: the same list as the About screen.
+fn licences(args: LicencesArgs, out: &mut dyn Write) -> CliResult {
+    if args.json {
+        let crates: Vec<serde_json::Value> = crate::licence::third_party()
+            .into_iter()
+            .map(
+                |c| serde_json::json!({"name": c.name, "version": c.version, "licence": c.licence}),
+            )
+            .collect();
+        let (font, font_licence) = crate::licence::FONT;
+        return print_json(
+            out,
+            &serde_json::json!({
+                "own": crate::licence::OWN,
+                "font": {"name": font, "licence": font_licence},
+                "crates": crates,
+            }),
+        );
+    }
+    print_lines(out, &crate::view::about::licence_listing())
 }
 
 /// Print `value` as one line of JSON.

@@ -5,6 +5,7 @@
 //! only copies these into Slint structs. Numbers go through [`crate::display`]; positions
 //! for the pictures (band bar, budget bar) are fractions of the picture's width.
 
+pub mod about;
 pub mod bands;
 pub mod check;
 pub mod convert;
