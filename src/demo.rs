@@ -391,7 +391,7 @@ fn entries(ids: &[TagId], now: DateTime<FixedOffset>) -> Result<Vec<Entry>> {
     let verdict = crate::intrinsic::check(&circuit)?;
     let mut is_check = Entry::new(
         &tt412,
-        at(1, 9, 30)?,
+        at(1, 15, 30)?,
         "EF",
         Kind::IsCheck,
         "IS check (entity) after the transmitter swap (demo): pass. Barrier to transmitter and Pt100 on 185 m of cable; \
