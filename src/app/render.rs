@@ -302,6 +302,11 @@ pub fn render_all(
         headless.tag_form(true);
         shoot(Screen::Tags, "-work", dark)?;
         headless.tag_form(false);
+        // Intrinsic safety of TT-412, the demo loop through a barrier.
+        super::tags::open(&headless.app.window, &headless.app.state, "TT-412");
+        headless.show(Screen::Intrinsic);
+        shoot(Screen::Intrinsic, "-work", dark)?;
+        super::tags::open(&headless.app.window, &headless.app.state, "LT-101");
     }
     Ok(written)
 }

@@ -16,6 +16,7 @@ use crate::display;
 use crate::error::{FieldError, Result};
 use crate::intrinsic::{Cable, Circuit, Device, DeviceKind, GasGroup, Source, TempClass};
 use crate::number::parse_number;
+use serde::{Deserialize, Serialize};
 
 /// The unit a field is typed in, with the suffixes it accepts.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -146,7 +147,8 @@ fn required(field: &str, text: &str, typed: Typed) -> Result<f64> {
 }
 
 /// The barrier or isolator as typed.
-#[derive(Debug, Clone, Default, PartialEq)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
 pub struct SourceText {
     /// Its name.
     pub name: String,
@@ -169,7 +171,8 @@ pub struct SourceText {
 }
 
 /// One field device as typed.
-#[derive(Debug, Clone, Default, PartialEq)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
 pub struct DeviceText {
     /// Its name.
     pub name: String,
@@ -196,7 +199,8 @@ pub struct DeviceText {
 }
 
 /// The cable as typed.
-#[derive(Debug, Clone, Default, PartialEq)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
 pub struct CableText {
     /// Length.
     pub length: String,
@@ -209,7 +213,8 @@ pub struct CableText {
 }
 
 /// The whole circuit as typed.
-#[derive(Debug, Clone, Default, PartialEq)]
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
 pub struct CircuitText {
     /// The source.
     pub source: SourceText,
