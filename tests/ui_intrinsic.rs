@@ -7,7 +7,7 @@
 mod util;
 
 use i_slint_backend_testing::AccessibleRole;
-use loopside::app::{self, App, AppState, IsAdapter, Screen, Tone};
+use loopside::app::{self, App, AppState, IsAdapter, PowerAdapter, Screen, Tone};
 use loopside::journal::{Entry, Kind};
 use loopside::store::{FileStore, Store};
 use slint::{ComponentHandle, Model};
@@ -188,4 +188,24 @@ fn the_app_and_the_command_line_save_the_same_is_record() {
     assert_eq!(phone.author, cli.author);
     assert_eq!(phone.text, cli.text);
     assert_eq!(phone.payload, cli.payload);
+}
+
+#[test]
+fn power_shows_tt412_is_verdict_beside_its_budget_and_opens_the_is_screen() {
+    let app = tall(AppState::demo());
+    app::tags::open(&app.window, &app.state, "TT-412");
+    app.show_screen(Screen::Power);
+    let p = app.window.global::<PowerAdapter>();
+    assert!(p.get_has_is());
+    assert_eq!(p.get_is_kind(), Tone::Good);
+    assert!(p
+        .get_is_title()
+        .starts_with("Intrinsic safety: Every entity check passes"));
+    // The budget is still there (TT-412's 340 Ω barrier in the loop).
+    assert!(!p.get_verdict_title().is_empty());
+    tap(&app, "Open the IS check of TT-412");
+    assert_eq!(app.state.borrow().ui.screen, Screen::Intrinsic);
+    // LT-101 has no IS data: no card.
+    app::tags::open(&app.window, &app.state, "LT-101");
+    assert!(!p.get_has_is());
 }

@@ -176,6 +176,7 @@ pub fn connect(window: &AppWindow, state: &Shared) {
         let message = save_data(&mut st.borrow_mut());
         let s = st.borrow();
         super::tags::refresh(&w, &s);
+        super::power::refresh(&w, &s);
         show(&w, &s);
         w.global::<IsAdapter>().set_message(message.into());
     });

@@ -181,6 +181,24 @@ pub fn view(text: &CircuitText) -> IsView {
     }
 }
 
+/// The IS card Power shows for a tag with IS data: the verdict of its stored circuit, the
+/// longest cable, and how it stands (`None` for a tag without IS data).
+pub fn power_card(tag: &crate::tag::Tag) -> Option<(String, String, Tone)> {
+    let circuit = tag.intrinsic.as_ref()?;
+    Some(match intrinsic::check(circuit) {
+        Ok(v) => (
+            format!("Intrinsic safety: {}", words::verdict_line(&v)),
+            words::longest_cable(&v),
+            if v.ok { Tone::Good } else { Tone::Bad },
+        ),
+        Err(e) => (
+            "Intrinsic safety: the stored IS data do not read".to_string(),
+            e.to_string(),
+            Tone::Caution,
+        ),
+    })
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -252,12 +252,21 @@ pub fn notes(circuit: &Circuit, v: &Verdict) -> Vec<String> {
         });
     }
     if let Some(t) = v.temporary {
-        out.push(format!(
-            "The temporary device(s) add {} and {}; without them the circuit would {}.",
-            display::is_nanofarads(t.ci_farads),
-            display::is_millihenries(t.li_henries),
-            if t.ok_without { "pass" } else { "still FAIL" }
-        ));
+        let permanent = circuit.devices.iter().any(|d| !d.temporary);
+        out.push(if permanent {
+            format!(
+                "The temporary device(s) add {} and {}; without them the circuit would {}.",
+                display::is_nanofarads(t.ci_farads),
+                display::is_millihenries(t.li_henries),
+                if t.ok_without { "pass" } else { "still FAIL" }
+            )
+        } else {
+            format!(
+                "Only temporary devices are entered; they add {} and {}.",
+                display::is_nanofarads(t.ci_farads),
+                display::is_millihenries(t.li_henries)
+            )
+        });
     }
     out
 }
