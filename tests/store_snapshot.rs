@@ -25,6 +25,10 @@ const TEXTS: [&str; 6] = [
     "condensate drained from the low side",
 ];
 
+/// Bytes in a snapshot's fixed header: the 16-byte magic, fifteen `u64` fields and the
+/// header's check value.
+const HEADER: usize = 16 + 15 * 8 + 8;
+
 fn tag(i: usize) -> TagRecord {
     let mut tag = Tag::new(
         &format!("PT-{}", 100 + i),
@@ -106,20 +110,12 @@ fn full_read(dir: &Path) -> (TempDir, FileStore) {
     (copy, s)
 }
 
-/// The two stores hold the same register: tags, entries (with their local offsets) and
-/// search answers.
+/// The two stores hold the same register: search answers, each tag's newest entry and the
+/// closed follow-ups (asked first, so a store opened from its snapshot answers them from
+/// the snapshot's aid, before its entries are read), then tags and entries (with their
+/// local offsets), then the same searches again over the entries read.
 #[track_caller]
 fn assert_same(got: &FileStore, want: &FileStore, what: &str) {
-    assert_eq!(got.tags(), want.tags(), "{what}: tags");
-    assert_eq!(got.entries(), want.entries(), "{what}: entries");
-    for (a, b) in got.entries().iter().zip(want.entries()) {
-        assert_eq!(
-            a.time.offset(),
-            b.time.offset(),
-            "{what}: offset of {}",
-            a.id
-        );
-    }
     let queries = [
         Query {
             text: Some("impulse".into()),
@@ -131,14 +127,97 @@ fn assert_same(got: &FileStore, want: &FileStore, what: &str) {
             ..Query::default()
         },
         Query {
+            text: Some("TERMINALS".into()),
+            tags: vec![TagId("tag-2".into())],
+            ..Query::default()
+        },
+        Query {
             open_only: true,
             tags: vec![TagId("tag-3".into())],
             ..Query::default()
         },
     ];
+    for q in &queries[..3] {
+        assert_eq!(got.search(q), want.search(q), "{what}: first search {q:?}");
+    }
+    let newest = |s: &FileStore| {
+        let mut v: Vec<(TagId, EntryId)> = s
+            .newest_by_tag()
+            .into_iter()
+            .map(|(t, e)| (t.clone(), e.id.clone()))
+            .collect();
+        v.sort();
+        v
+    };
+    assert_eq!(
+        newest(got),
+        newest(want),
+        "{what}: newest entry of each tag"
+    );
+    let closed = |s: &FileStore| {
+        let mut v: Vec<EntryId> = s.closed_follow_ups().into_iter().cloned().collect();
+        v.sort();
+        v
+    };
+    assert_eq!(closed(got), closed(want), "{what}: closed follow-ups");
+    assert_eq!(got.tags(), want.tags(), "{what}: tags");
+    assert_eq!(got.entries(), want.entries(), "{what}: entries");
+    for (a, b) in got.entries().iter().zip(want.entries()) {
+        assert_eq!(
+            a.time.offset(),
+            b.time.offset(),
+            "{what}: offset of {}",
+            a.id
+        );
+    }
     for q in &queries {
         assert_eq!(got.search(q), want.search(q), "{what}: search {q:?}");
     }
+}
+
+#[test]
+fn the_first_search_and_the_tags_list_do_not_read_the_whole_log() {
+    // A store of 700 entries (#0 … #699), opened from its snapshot, with two entries
+    // (#703 and #704) saved since.
+    let dir = TempDir::new("snapshot-aid");
+    big_store(dir.path());
+    {
+        let mut s = FileStore::open(dir.path()).unwrap();
+        s.persist(entries(703, 2).into_iter().map(Record::Entry).collect())
+            .unwrap();
+    }
+    let s = FileStore::open(dir.path()).unwrap();
+    assert!(s.opened_from_snapshot());
+    let unread = |s: &FileStore| format!("{:?}", s.register()).contains("entries: None");
+    assert!(unread(&s), "nothing read on open");
+    // "impulse" is in every sixth text (#1, #7, … #697) and in #703, saved since.
+    let q = Query {
+        text: Some("IMPULSE".into()),
+        ..Query::default()
+    };
+    let found: Vec<String> = s.search(&q).iter().map(|e| e.id.0.clone()).collect();
+    let want: Vec<String> = (1..704).step_by(6).map(|i| format!("e-{i:06}")).collect();
+    assert_eq!(found, want);
+    assert_eq!(s.newest_by_tag().len(), 5, "every tag has entries");
+    assert!(!s.closed_follow_ups().is_empty());
+    assert!(unread(&s), "answered from the snapshot's aid");
+    // Anything else reads the log, and the answers stay the same.
+    assert_eq!(s.entries().len(), 702);
+    assert!(!unread(&s));
+    let again: Vec<String> = s.search(&q).iter().map(|e| e.id.0.clone()).collect();
+    assert_eq!(again, want);
+}
+
+#[test]
+fn a_damaged_aid_falls_back_to_reading_the_log() {
+    let dir = TempDir::new("snapshot-aid-damaged");
+    big_store(dir.path());
+    let (_copy, full) = full_read(dir.path());
+    let mut bad = fs::read(dir.path().join(SNAPSHOT_FILE)).unwrap();
+    // The last bytes are the aid's list of closed follow-ups.
+    let last = bad.len() - 1;
+    bad[last] ^= 0x20;
+    assert!(opens_as_full_read(dir.path(), &bad, &full, "aid flipped"));
 }
 
 #[test]
@@ -331,7 +410,7 @@ fn a_damaged_snapshot_is_passed_over() {
     let (_copy, full) = full_read(dir.path());
     let mut rng = Rng::from_clock("snapshot bit flips");
     // Every byte of the fixed header, then bytes anywhere.
-    let mut positions: Vec<usize> = (0..136).collect();
+    let mut positions: Vec<usize> = (0..HEADER).collect();
     positions.extend((0..60).map(|_| rng.below(good.len() as u64) as usize));
     for pos in positions {
         let mut bad = good.clone();
@@ -352,11 +431,11 @@ fn a_truncated_snapshot_is_passed_over() {
         15,
         16,
         100,
-        127,
-        128,
-        135,
-        136,
-        137,
+        HEADER - 9,
+        HEADER - 8,
+        HEADER - 1,
+        HEADER,
+        HEADER + 1,
         4096,
         good.len() / 2,
     ];
@@ -391,7 +470,11 @@ fn a_stale_or_foreign_snapshot_is_passed_over() {
         ("empty", Vec::new()),
         ("the journal itself", journal.clone()),
         ("zeros", vec![0; snapshot.len()]),
-        ("newer format", with_field(&snapshot, 0, 2)),
+        ("newer format", with_field(&snapshot, 0, 3)),
+        (
+            "the first format, without the aid",
+            with_field(&snapshot, 0, 1),
+        ),
         ("older journal schema", with_field(&snapshot, 1, 0)),
         ("covers more than the journal", {
             with_field(&snapshot, 2, journal.len() as u64 + 10)
@@ -439,8 +522,8 @@ fn with_field(snapshot: &[u8], i: usize, value: u64) -> Vec<u8> {
     let mut b = snapshot.to_vec();
     let at = 16 + i * 8;
     b[at..at + 8].copy_from_slice(&value.to_le_bytes());
-    let sum = check(&b[..16 + 13 * 8]);
-    b[16 + 13 * 8..16 + 14 * 8].copy_from_slice(&sum.to_le_bytes());
+    let sum = check(&b[..HEADER - 8]);
+    b[HEADER - 8..HEADER].copy_from_slice(&sum.to_le_bytes());
     b
 }
 

@@ -689,18 +689,9 @@ fn map_sheet(adapter: &TagsAdapter, state: &AppState) {
     }
 }
 
-/// Each tag's newest log entry (one pass over the log).
+/// Each tag's newest log entry (from the snapshot's aid when the log is not read yet).
 pub fn last_entries(state: &AppState) -> HashMap<&TagId, &Entry> {
-    let mut last: HashMap<&TagId, &Entry> = HashMap::new();
-    for e in state.store.entries() {
-        match last.get(&e.tag) {
-            Some(seen) if seen.time > e.time => {}
-            _ => {
-                last.insert(&e.tag, e);
-            }
-        }
-    }
-    last
+    state.store.newest_by_tag()
 }
 
 /// One row: number, service, range, and the tag's last log entry (date and kind).

@@ -4,7 +4,7 @@ use super::data::{now_local, query_from, store_error, DataArgs};
 use super::{print_json, print_lines, CliResult};
 use crate::action::note::{self as action, NewNote};
 use crate::error::FieldError;
-use crate::journal::{closed_follow_ups, is_open, Entry, FollowUpStatus, Kind};
+use crate::journal::{is_open, Entry, FollowUpStatus, Kind};
 use crate::store::Store;
 use clap::{Args, Subcommand};
 use serde_json::json;
@@ -190,7 +190,7 @@ pub(super) fn note(args: NoteArgs, out: &mut dyn Write) -> CliResult {
                 q.kinds.push(Kind::parse(k)?);
             }
             let found = store.search(&q);
-            let closed = closed_follow_ups(store.entries());
+            let closed = store.closed_follow_ups();
             if a.json {
                 let v: Vec<serde_json::Value> = found
                     .iter()

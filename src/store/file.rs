@@ -17,7 +17,9 @@
 //!
 //! On open, when the snapshot fits the journal, the tags come from it and only the journal
 //! after the part it covers is read; the entries are read from the snapshot the first
-//! time the log is needed. Otherwise (and whenever that tail is not perfectly clean) the
+//! time the log is needed. Before that, a text search, each tag's newest entry (the Tags
+//! list) and the closed follow-ups are answered from the snapshot's aid section, which
+//! decodes only the entries they return. Otherwise (and whenever that tail is not perfectly clean) the
 //! whole journal is read once. A torn last record (power cut mid-append) is cut
 //! off into a `torn` file and reported; every complete record before it is kept. Damage
 //! elsewhere (unreadable lines, a foreign file) makes a `damaged` copy of the whole file
@@ -29,7 +31,7 @@ use super::record::{
     Record, SCHEMA_VERSION,
 };
 use super::snapshot::{self, SNAPSHOT_FILE, SNAPSHOT_TAIL_BYTES};
-use super::{EntryLoader, Register, Store, StoreError, StoreResult};
+use super::{AidLoader, EntryLoader, Register, Store, StoreError, StoreResult};
 use std::fs::{self, File, OpenOptions, TryLockError};
 use std::io::{self, Read, Seek, SeekFrom, Write};
 use std::path::{Path, PathBuf};
@@ -462,7 +464,10 @@ fn open_from_snapshot(
         return Ok(None);
     };
     let covered = loaded.covered;
-    let pending = loaded.entries;
+    let pending = Arc::new(loaded.entries);
+    let tag_count = loaded.tags.len();
+    let for_aid = pending.clone();
+    let aid: AidLoader = Box::new(move || for_aid.aid(tag_count));
     let path = journal_path.to_path_buf();
     let load: EntryLoader = Box::new(move || {
         if let Some(entries) = pending.read() {
@@ -486,7 +491,7 @@ fn open_from_snapshot(
             })
             .collect())
     });
-    let mut register = Register::deferred(loaded.tags, load);
+    let mut register = Register::deferred(loaded.tags, load, aid);
     for r in records {
         register.apply(r);
     }

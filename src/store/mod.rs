@@ -26,7 +26,7 @@ use bundle::Bundle;
 use chrono::Utc;
 use record::Record;
 use serde::{Deserialize, Serialize};
-use std::cell::{Cell, OnceCell};
+use std::cell::{Cell, OnceCell, Ref, RefCell};
 use std::collections::{HashMap, HashSet};
 use std::path::PathBuf;
 
@@ -80,25 +80,37 @@ pub type StoreResult<T> = std::result::Result<T, StoreError>;
 /// `Err` says why they could not be read at all.
 pub(crate) type EntryLoader = Box<dyn FnOnce() -> Result<Vec<Entry>, String> + Send>;
 
-/// Entries not read yet, and the ones applied since, which follow them.
-struct Deferred {
-    load: EntryLoader,
-    later: Vec<Entry>,
-}
+/// Reads the snapshot's aid (its entries undecoded, their lower-cased text, each tag's
+/// newest entry, the closed follow-ups); `None` when it cannot be read or checked.
+pub(crate) type AidLoader = Box<dyn FnOnce() -> Option<snapshot::Aid> + Send>;
 
 /// The in-memory register both stores share: tags, entries and their indexes.
 ///
 /// A register opened from a snapshot has its tags at once and reads its entries the
 /// first time anything asks for them, so listing tags does not wait for the whole log.
+///
+/// Until then, a text search, each tag's newest entry and the closed follow-ups are
+/// answered from the snapshot's aid section, decoding only the entries asked for.
 #[derive(Default)]
 pub struct Register {
     tags: Vec<TagRecord>,
     tag_pos: OnceCell<HashMap<TagId, usize>>,
     entries: OnceCell<Vec<Entry>>,
-    deferred: Cell<Option<Deferred>>,
+    /// Reads the snapshot's entries; taken when they are read.
+    deferred: Cell<Option<EntryLoader>>,
+    /// Entries applied while the snapshot's were not read yet; they follow them.
+    later: Vec<Entry>,
     load_failure: OnceCell<String>,
     entry_pos: OnceCell<HashMap<EntryId, usize>>,
     folded: OnceCell<Folded>,
+    /// Reads the aid; taken on first use.
+    aid_source: Cell<Option<AidLoader>>,
+    /// The aid once read, until all entries are read (then dropped to save memory).
+    aid: RefCell<Option<snapshot::Aid>>,
+    /// The snapshot entries decoded one by one from the aid, by position.
+    single: OnceCell<Box<[OnceCell<Entry>]>>,
+    /// The follow-ups the snapshot's entries close, from the aid.
+    aid_closed: OnceCell<Vec<EntryId>>,
 }
 
 impl std::fmt::Debug for Register {
@@ -115,14 +127,30 @@ impl std::fmt::Debug for Register {
 /// substring search covers the whole log. A needle without NUL never matches across two
 /// entries.
 #[derive(Debug, Default)]
-struct Folded {
+pub(crate) struct Folded {
     text: Vec<u8>,
     /// Where each entry's text starts in `text`, in entry order.
     starts: Vec<usize>,
 }
 
 impl Folded {
-    fn push(&mut self, text: &str) {
+    /// Positions of the entries whose text holds `needle` (lower case, no NUL), in order,
+    /// each once.
+    pub(crate) fn hits<'a>(&'a self, needle: &'a str) -> impl Iterator<Item = usize> + 'a {
+        let finder = memchr::memmem::Finder::new(needle.as_bytes());
+        let mut from = 0;
+        std::iter::from_fn(move || {
+            let hit = self.text.get(from..).and_then(|t| finder.find(t))?;
+            let at = from + hit;
+            // The entry whose text holds the hit; then go on from the next entry's text.
+            let i = self.starts.partition_point(|&s| s <= at).saturating_sub(1);
+            from = self.starts.get(i + 1).copied().unwrap_or(self.text.len());
+            Some(i)
+        })
+    }
+
+    /// Add one entry's text.
+    pub(crate) fn push(&mut self, text: &str) {
         self.starts.push(self.text.len());
         if text.is_ascii() {
             // The same as `to_lowercase` for ASCII, without a string per entry.
@@ -136,16 +164,44 @@ impl Folded {
 }
 
 impl Register {
-    /// A register with `tags`, whose entries `load` reads when first needed.
-    pub(crate) fn deferred(tags: Vec<TagRecord>, load: EntryLoader) -> Register {
+    /// A register with `tags`, whose entries `load` reads when first needed, and whose
+    /// snapshot aid `aid` reads when a search or a list can be answered without them.
+    pub(crate) fn deferred(tags: Vec<TagRecord>, load: EntryLoader, aid: AidLoader) -> Register {
         Register {
             tags,
-            deferred: Cell::new(Some(Deferred {
-                load,
-                later: Vec::new(),
-            })),
+            deferred: Cell::new(Some(load)),
+            aid_source: Cell::new(Some(aid)),
             ..Register::default()
         }
+    }
+
+    /// The snapshot's aid, read on first use; `None` when the entries are read already,
+    /// there is no snapshot, or its aid could not be read.
+    fn aid(&self) -> Option<Ref<'_, snapshot::Aid>> {
+        if self.entries.get().is_some() {
+            return None;
+        }
+        if let Some(load) = self.aid_source.take() {
+            if let Some(aid) = load() {
+                let _ = self.aid_closed.set(aid.closed.clone());
+                let slots: Box<[OnceCell<Entry>]> =
+                    (0..aid.len()).map(|_| OnceCell::new()).collect();
+                let _ = self.single.set(slots);
+                if let Ok(mut a) = self.aid.try_borrow_mut() {
+                    *a = Some(aid);
+                }
+            }
+        }
+        Ref::filter_map(self.aid.try_borrow().ok()?, Option::as_ref).ok()
+    }
+
+    /// Snapshot entry `i`, decoded from the aid once and kept.
+    fn single_entry(&self, aid: &snapshot::Aid, i: usize) -> Option<&Entry> {
+        let slot = self.single.get()?.get(i)?;
+        if slot.get().is_none() {
+            let _ = slot.set(aid.entry(i)?);
+        }
+        slot.get()
     }
 
     /// Apply one saved record.
@@ -166,8 +222,8 @@ impl Register {
             }
             Record::Entry(e) => {
                 if self.entries.get().is_none() {
-                    if let Some(d) = self.deferred.get_mut() {
-                        d.later.push(e);
+                    if self.deferred.get_mut().is_some() {
+                        self.later.push(e);
                         return;
                     }
                     let _ = self.entries.set(Vec::new());
@@ -196,19 +252,24 @@ impl Register {
 
     /// Every entry in the order it was saved (read now if it was deferred).
     pub fn entries(&self) -> &[Entry] {
-        self.entries.get_or_init(|| match self.deferred.take() {
-            None => Vec::new(),
-            Some(d) => {
-                let mut all = match (d.load)() {
+        self.entries.get_or_init(|| {
+            let mut all = match self.deferred.take() {
+                None => Vec::new(),
+                Some(load) => match load() {
                     Ok(v) => v,
                     Err(why) => {
                         let _ = self.load_failure.set(why);
                         Vec::new()
                     }
-                };
-                all.extend(d.later);
-                all
+                },
+            };
+            all.extend(self.later.iter().cloned());
+            // Everything is decoded now: the aid's copy of the entries is not needed.
+            self.aid_source.take();
+            if let Ok(mut a) = self.aid.try_borrow_mut() {
+                *a = None;
             }
+            all
         })
     }
 
@@ -245,10 +306,15 @@ impl Register {
     /// over [`Register::entries`]. A text query searches a lower-cased copy of every
     /// entry's text, made on first use and kept up to date.
     pub fn search(&self, query: &Query) -> Vec<&Entry> {
-        let entries = self.entries();
         let Some(needle) = journal::needle(query).filter(|n| !n.contains('\0')) else {
-            return journal::search(entries, query);
+            return journal::search(self.entries(), query);
         };
+        if !query.open_only {
+            if let Some(found) = self.search_aid(query, &needle) {
+                return found;
+            }
+        }
+        let entries = self.entries();
         let folded = self.folded.get_or_init(|| {
             let mut f = Folded {
                 text: Vec::with_capacity(entries.iter().map(|e| e.text.len() + 1).sum()),
@@ -264,28 +330,90 @@ impl Register {
         } else {
             HashSet::new()
         };
-        let finder = memchr::memmem::Finder::new(needle.as_bytes());
+        folded
+            .hits(&needle)
+            .filter_map(|i| entries.get(i))
+            .filter(|e| journal::passes_filters(e, query, &closed))
+            .collect()
+    }
+
+    /// A text search (not for open follow-ups) answered from the snapshot's aid and the
+    /// entries saved since, decoding only the entries whose text matches. `None` when
+    /// there is no aid to use (the caller then reads every entry).
+    fn search_aid(&self, query: &Query, needle: &str) -> Option<Vec<&Entry>> {
+        let aid = self.aid()?;
+        let none = HashSet::new();
         let mut found = Vec::new();
-        let mut from = 0;
-        while let Some(hit) = folded.text.get(from..).and_then(|t| finder.find(t)) {
-            let at = from + hit;
-            // The entry whose text holds the hit; then go on from the next entry's text.
-            let i = folded
-                .starts
-                .partition_point(|&s| s <= at)
-                .saturating_sub(1);
-            let Some(e) = entries.get(i) else { break };
-            if journal::passes_filters(e, query, &closed) {
+        for i in aid.folded.hits(needle) {
+            let e = self.single_entry(&aid, i)?;
+            if journal::passes_filters(e, query, &none) {
                 found.push(e);
             }
-            from = folded
-                .starts
-                .get(i + 1)
-                .copied()
-                .unwrap_or(folded.text.len());
         }
-        found
+        found.extend(journal::search(&self.later, query));
+        Some(found)
     }
+
+    /// Each tag's newest entry (latest time; of equal times, the one saved last), for
+    /// every tag that has one. Answered from the snapshot's aid when the entries are not
+    /// read yet.
+    pub fn newest_by_tag(&self) -> HashMap<&TagId, &Entry> {
+        let mut newest: HashMap<&TagId, &Entry> = HashMap::new();
+        let from_aid = self.aid().and_then(|aid| {
+            let mut found = Vec::with_capacity(aid.newest.len());
+            for (t, i) in self.tags.iter().zip(&aid.newest) {
+                if let Some(i) = *i {
+                    found.push((&t.id, self.single_entry(&aid, i)?));
+                }
+            }
+            Some(found)
+        });
+        let rest: &[Entry] = match from_aid {
+            Some(found) => {
+                newest.extend(found);
+                &self.later
+            }
+            None => self.entries(),
+        };
+        for e in rest {
+            match newest.get(&e.tag) {
+                Some(seen) if seen.time > e.time => {}
+                _ => {
+                    newest.insert(&e.tag, e);
+                }
+            }
+        }
+        newest
+    }
+
+    /// Ids of the follow-ups some entry has marked done (see
+    /// [`journal::closed_follow_ups`]). Answered from the snapshot's aid when the entries
+    /// are not read yet.
+    pub fn closed_follow_ups(&self) -> HashSet<&EntryId> {
+        if self.aid().is_some() {
+            if let Some(closed) = self.aid_closed.get() {
+                let mut all: HashSet<&EntryId> = closed.iter().collect();
+                all.extend(journal::closed_follow_ups(&self.later));
+                return all;
+            }
+        }
+        journal::closed_follow_ups(self.entries())
+    }
+}
+
+/// For each of `tags`, in order, the position in `entries` of its newest entry (latest
+/// time; of equal times, the one saved last), as [`Register::newest_by_tag`] gives it.
+pub(crate) fn newest_positions(tags: &[TagRecord], entries: &[Entry]) -> Vec<Option<usize>> {
+    let mut newest: HashMap<&TagId, usize> = HashMap::new();
+    for (i, e) in entries.iter().enumerate() {
+        match newest.get(&e.tag) {
+            Some(&seen) if entries[seen].time > e.time => {}
+            _ => {
+                newest.insert(&e.tag, i);
+            }
+        }
+    }
+    tags.iter().map(|t| newest.get(&t.id).copied()).collect()
 }
 
 /// What an import did.
@@ -511,6 +639,17 @@ pub trait Store {
     /// Entries matching `query`, in log order.
     fn search(&self, query: &Query) -> Vec<&Entry> {
         self.register().search(query)
+    }
+
+    /// Each tag's newest entry (see [`Register::newest_by_tag`]).
+    fn newest_by_tag(&self) -> HashMap<&TagId, &Entry> {
+        self.register().newest_by_tag()
+    }
+
+    /// Ids of the follow-ups some entry has marked done (see
+    /// [`Register::closed_follow_ups`]).
+    fn closed_follow_ups(&self) -> HashSet<&EntryId> {
+        self.register().closed_follow_ups()
     }
 
     /// Merge a bundle from another device. Entries are matched by id: ones already here

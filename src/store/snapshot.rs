@@ -10,23 +10,30 @@
 //!
 //! Layout, all integers little-endian:
 //!
-//! - 16 bytes [`MAGIC`], then thirteen `u64`: format version, journal schema, covered
+//! - 16 bytes [`MAGIC`], then fifteen `u64`: format version, journal schema, covered
 //!   journal length, the length and check value of the journal's first bytes (up to 4
 //!   KiB), the length and check value of the last bytes before `covered` (up to 4 KiB),
 //!   the tag count, the length and check value of the tags section, the entry count, the
-//!   length and check value of the entries section; then a `u64` check value of
-//!   everything before it. Check values are [`check`].
+//!   length and check value of the entries section, the length and check value of the
+//!   aid section; then a `u64` check value of everything before it. Check values are
+//!   [`check`].
 //! - The tags section: for each tag its id, then its definition as JSON, leaving out the
 //!   fields that hold the value they take when missing (each a `u32` byte length and
 //!   UTF-8).
 //! - The entries section: each entry in a compact binary form (see `put_entry`).
+//! - The aid section (format 2): what the first text search, the Tags list and the list of
+//!   open follow-ups need without decoding every entry: every entry's text in lower case,
+//!   each followed by a NUL (a `u64` length first); where each entry starts in the entries
+//!   section (one `u64` each); for each tag, in tag order, the position of its newest
+//!   entry (`u64::MAX` for none); and the ids of the follow-ups some entry has closed (a
+//!   `u64` count, then each id).
 //!
 //! It is written like every whole file here: a temporary file, synced, renamed over the
 //! old one, the folder synced. A crash leaves the old snapshot, the new one, or none (and
 //! perhaps a temporary file, removed on the next open), never half of one.
 
 use super::record::{check, write_atomically, SCHEMA_VERSION};
-use super::TagRecord;
+use super::{Folded, TagRecord};
 use crate::journal::{Entry, EntryId, FollowUpStatus, Kind, TagId};
 use crate::tag::Tag;
 use chrono::{DateTime, FixedOffset};
@@ -45,13 +52,14 @@ pub const SNAPSHOT_TAIL_BYTES: u64 = 64 * 1024;
 /// The first bytes of every snapshot file.
 pub const MAGIC: &[u8; 16] = b"loopside-snap\n\0\0";
 
-/// The snapshot layout this build reads and writes; any other is ignored.
-const FORMAT: u64 = 1;
+/// The snapshot layout this build reads and writes; any other is ignored (a format-1
+/// snapshot, without the aid section, is then rewritten from the journal).
+const FORMAT: u64 = 2;
 
 /// How many journal bytes at each end are checked against the snapshot.
 const EDGE: u64 = 4096;
 
-const FIELDS: usize = 13;
+const FIELDS: usize = 15;
 const HEADER_LEN: usize = MAGIC.len() + FIELDS * 8 + 8;
 
 /// The fixed-size start of the file.
@@ -70,6 +78,8 @@ struct Head {
     entry_count: u64,
     entries_len: u64,
     entries_check: u64,
+    aid_len: u64,
+    aid_check: u64,
 }
 
 impl Head {
@@ -88,6 +98,8 @@ impl Head {
             self.entry_count,
             self.entries_len,
             self.entries_check,
+            self.aid_len,
+            self.aid_check,
         ]
     }
 
@@ -130,12 +142,14 @@ impl Head {
             entry_count: f(10),
             entries_len: f(11),
             entries_check: f(12),
+            aid_len: f(13),
+            aid_check: f(14),
         })
     }
 }
 
 /// Read `len` bytes at `at` from `file`.
-fn read_at(file: &mut File, at: u64, len: u64) -> io::Result<Vec<u8>> {
+fn read_at(mut file: &File, at: u64, len: u64) -> io::Result<Vec<u8>> {
     let len = usize::try_from(len).map_err(io::Error::other)?;
     let mut buf = vec![0u8; len];
     file.seek(SeekFrom::Start(at))?;
@@ -145,7 +159,7 @@ fn read_at(file: &mut File, at: u64, len: u64) -> io::Result<Vec<u8>> {
 
 /// The check values of the journal's first bytes and of the last bytes before
 /// `covered`: (first_len, first_check, last_len, last_check).
-fn journal_edges(journal: &mut File, covered: u64) -> io::Result<(u64, u64, u64, u64)> {
+fn journal_edges(journal: &File, covered: u64) -> io::Result<(u64, u64, u64, u64)> {
     let first_len = covered.min(EDGE);
     let first = read_at(journal, 0, first_len)?;
     let last_len = covered.min(EDGE);
@@ -163,22 +177,153 @@ pub(super) struct Loaded {
     pub entries: Pending,
 }
 
-/// The entries section of a snapshot that was found to fit, not read yet.
-pub(super) struct Pending {
+/// The entries and aid sections of a snapshot that was found to fit, not read yet.
+pub(crate) struct Pending {
     file: File,
     at: u64,
     head: Head,
 }
 
 impl Pending {
+    /// Read and check the entries section's bytes.
+    fn entry_bytes(&self) -> Option<Vec<u8>> {
+        let bytes = read_at(&self.file, self.at, self.head.entries_len).ok()?;
+        (check(&bytes) == self.head.entries_check).then_some(bytes)
+    }
+
     /// Read and check the entries. `None` when they cannot be read or fail their check.
-    pub fn read(mut self) -> Option<Vec<Entry>> {
-        let bytes = read_at(&mut self.file, self.at, self.head.entries_len).ok()?;
-        if check(&bytes) != self.head.entries_check {
+    pub fn read(&self) -> Option<Vec<Entry>> {
+        decode_entries(&self.entry_bytes()?, self.head.entry_count)
+    }
+
+    /// Read and check the entries section and the aid section, for reading single
+    /// entries and searching without decoding them all. `None` when either cannot be read
+    /// or fails its check, or the aid does not fit the entries.
+    pub fn aid(&self, tag_count: usize) -> Option<Aid> {
+        let entries = self.entry_bytes()?;
+        let bytes = read_at(
+            &self.file,
+            self.at + self.head.entries_len,
+            self.head.aid_len,
+        )
+        .ok()?;
+        if check(&bytes) != self.head.aid_check {
             return None;
         }
-        decode_entries(&bytes, self.head.entry_count)
+        decode_aid(&bytes, entries, self.head.entry_count, tag_count)
     }
+}
+
+/// A snapshot's entries, undecoded, with what finds and reads one of them.
+pub(crate) struct Aid {
+    /// The entries section.
+    entries: Vec<u8>,
+    /// Where each entry starts in `entries`.
+    offsets: Vec<usize>,
+    /// Every entry's lower-cased text, NUL after each.
+    pub folded: Folded,
+    /// For each snapshot tag, in tag order, the position of its newest entry.
+    pub newest: Vec<Option<usize>>,
+    /// Ids of the follow-ups some snapshot entry has closed.
+    pub closed: Vec<EntryId>,
+}
+
+impl Aid {
+    /// How many entries the snapshot holds.
+    pub fn len(&self) -> usize {
+        self.offsets.len()
+    }
+
+    /// Decode entry `i`; `None` if there is no such entry or it does not decode.
+    pub fn entry(&self, i: usize) -> Option<Entry> {
+        let pos = *self.offsets.get(i)?;
+        let mut r = Reader {
+            bytes: &self.entries,
+            pos,
+        };
+        r.entry()
+    }
+}
+
+/// The aid section for `entries` (whose section starts are `offsets`) and `tags`.
+fn encode_aid(tags: &[TagRecord], entries: &[Entry], offsets: &[usize]) -> Vec<u8> {
+    let mut folded = Folded::default();
+    for e in entries {
+        folded.push(&e.text);
+    }
+    let mut out = Vec::with_capacity(folded.text.len() + entries.len() * 8 + tags.len() * 8 + 64);
+    out.extend_from_slice(&(folded.text.len() as u64).to_le_bytes());
+    out.extend_from_slice(&folded.text);
+    for &o in offsets {
+        out.extend_from_slice(&(o as u64).to_le_bytes());
+    }
+    let newest = super::newest_positions(tags, entries);
+    for n in newest {
+        let v = n.map_or(u64::MAX, |i| i as u64);
+        out.extend_from_slice(&v.to_le_bytes());
+    }
+    let closed = crate::journal::closed_follow_ups(entries);
+    let mut closed: Vec<&EntryId> = closed.into_iter().collect();
+    closed.sort();
+    out.extend_from_slice(&(closed.len() as u64).to_le_bytes());
+    for id in closed {
+        put_str(&mut out, &id.0);
+    }
+    out
+}
+
+/// Read an aid section made for `count` entries and `tag_count` tags; `None` unless it
+/// holds exactly that and every position fits.
+fn decode_aid(bytes: &[u8], entries: Vec<u8>, count: u64, tag_count: usize) -> Option<Aid> {
+    let count = usize::try_from(count).ok()?;
+    let mut r = Reader { bytes, pos: 0 };
+    let folded_len = usize::try_from(u64::from_le_bytes(r.array()?)).ok()?;
+    let text = r.take(folded_len)?.to_vec();
+    let mut starts = Vec::with_capacity(count.min(text.len() + 1));
+    let mut at = 0;
+    for end in memchr::memchr_iter(0, &text) {
+        starts.push(at);
+        at = end + 1;
+    }
+    if starts.len() != count || at != text.len() {
+        return None;
+    }
+    let mut offsets = Vec::with_capacity(count);
+    for _ in 0..count {
+        let o = usize::try_from(u64::from_le_bytes(r.array()?)).ok()?;
+        if o >= entries.len() || offsets.last().is_some_and(|&p| p >= o) {
+            return None;
+        }
+        offsets.push(o);
+    }
+    let mut newest = Vec::with_capacity(tag_count);
+    for _ in 0..tag_count {
+        let v = u64::from_le_bytes(r.array()?);
+        newest.push(if v == u64::MAX {
+            None
+        } else {
+            let i = usize::try_from(v).ok()?;
+            if i >= count {
+                return None;
+            }
+            Some(i)
+        });
+    }
+    let closed_count = u64::from_le_bytes(r.array()?);
+    let mut closed = Vec::new();
+    for _ in 0..closed_count {
+        closed.push(EntryId(r.str()?.to_owned()));
+    }
+    if r.pos != bytes.len() {
+        return None;
+    }
+    Some(Aid {
+        entries,
+        offsets,
+        folded: Folded { text, starts },
+        newest,
+        closed,
+    })
 }
 
 /// The snapshot in `folder`, if there is one and it fits the journal (open as `journal`,
@@ -197,6 +342,7 @@ pub(super) fn load(folder: &Path, journal: &mut File, journal_len: u64) -> Optio
         && head
             .tags_len
             .checked_add(head.entries_len)
+            .and_then(|n| n.checked_add(head.aid_len))
             .and_then(|n| n.checked_add(HEADER_LEN as u64))
             == Some(file_len);
     if !fits {
@@ -213,7 +359,7 @@ pub(super) fn load(folder: &Path, journal: &mut File, journal_len: u64) -> Optio
     {
         return None;
     }
-    let tags_bytes = read_at(&mut file, HEADER_LEN as u64, head.tags_len).ok()?;
+    let tags_bytes = read_at(&file, HEADER_LEN as u64, head.tags_len).ok()?;
     if check(&tags_bytes) != head.tags_check {
         return None;
     }
@@ -239,18 +385,20 @@ pub(super) fn write(
     tags: &[TagRecord],
     entries: &[Entry],
 ) -> io::Result<PathBuf> {
-    let mut journal = File::open(journal_path)?;
+    let journal = File::open(journal_path)?;
     if journal.metadata()?.len() < covered || covered == 0 {
         return Err(io::Error::other("the journal is shorter than the register"));
     }
-    let (first_len, first_check, last_len, last_check) = journal_edges(&mut journal, covered)?;
+    let (first_len, first_check, last_len, last_check) = journal_edges(&journal, covered)?;
     let tags_part = encode_tags(tags)?;
-    let mut body = encode_entries(entries);
+    let (mut body, offsets) = encode_entries_at(entries);
+    let mut aid = encode_aid(tags, entries, &offsets);
     if decode_tags(&tags_part, tags.len() as u64).as_deref() != Some(tags)
         || !same_entries(
             decode_entries(&body, entries.len() as u64).as_deref(),
             entries,
         )
+        || decode_aid(&aid, body.clone(), entries.len() as u64, tags.len()).is_none()
     {
         return Err(io::Error::other(
             "the register does not read back the same from a snapshot",
@@ -270,11 +418,14 @@ pub(super) fn write(
         entry_count: entries.len() as u64,
         entries_len: body.len() as u64,
         entries_check: check(&body),
+        aid_len: aid.len() as u64,
+        aid_check: check(&aid),
     };
-    let mut out = Vec::with_capacity(HEADER_LEN + tags_part.len() + body.len());
+    let mut out = Vec::with_capacity(HEADER_LEN + tags_part.len() + body.len() + aid.len());
     out.extend_from_slice(&head.encode());
     out.extend_from_slice(&tags_part);
     out.append(&mut body);
+    out.append(&mut aid);
     let path = folder.join(SNAPSHOT_FILE);
     write_atomically(&path, &out)?;
     Ok(path)
@@ -446,12 +597,20 @@ fn decode_tags(bytes: &[u8], count: u64) -> Option<Vec<TagRecord>> {
 }
 
 /// The entries section for `entries`.
+#[cfg(test)]
 fn encode_entries(entries: &[Entry]) -> Vec<u8> {
+    encode_entries_at(entries).0
+}
+
+/// The entries section for `entries`, and where each entry starts in it.
+fn encode_entries_at(entries: &[Entry]) -> (Vec<u8>, Vec<usize>) {
     let mut out = Vec::with_capacity(entries.iter().map(|e| e.text.len() + 96).sum());
+    let mut offsets = Vec::with_capacity(entries.len());
     for e in entries {
+        offsets.push(out.len());
         put_entry(&mut out, e);
     }
-    out
+    (out, offsets)
 }
 
 /// Reads the entries section, failing (`None`) on anything out of place.
@@ -639,6 +798,8 @@ mod tests {
             entry_count: 11,
             entries_len: 12,
             entries_check: 13,
+            aid_len: 14,
+            aid_check: 15,
         };
         let bytes = head.encode();
         assert_eq!(Head::decode(&bytes), Some(head));

@@ -162,7 +162,7 @@ pub fn query(tag: Option<TagId>, search: &str) -> Query {
 /// The entries matching `query`, newest first, at most [`MAX_ROWS`], with a count line.
 pub fn list(store: &dyn Store, query: &Query) -> LogList {
     let found = store.search(query);
-    let closed = journal::closed_follow_ups(store.entries());
+    let closed = store.closed_follow_ups();
     let total = found.len();
     let rows: Vec<Row> = found
         .iter()
