@@ -74,7 +74,7 @@ fn circuit(devices: Vec<Device>, cable: Cable) -> Circuit {
     }
 }
 
-fn find<'a>(checks: &'a [Check], name: CheckName) -> &'a Check {
+fn find(checks: &[Check], name: CheckName) -> &Check {
     checks
         .iter()
         .find(|c| c.name == name)
@@ -512,7 +512,8 @@ proptest! {
         prop_assert!(c_margin(&long) <= c_margin(&short));
         prop_assert!(l_margin(&long) <= l_margin(&short));
         let (vs, vl) = (check(&short).unwrap(), check(&long).unwrap());
-        prop_assert!(!(vl.ok && !vs.ok));
+        // A pass with the longer cable implies a pass with the shorter one.
+        prop_assert!(!vl.ok || vs.ok);
     }
 
     #[test]
@@ -531,6 +532,7 @@ proptest! {
         prop_assert!(c_margin(&two) <= c_margin(&one));
         prop_assert!(l_margin(&two) <= l_margin(&one));
         let (v1, v2) = (check(&one).unwrap(), check(&two).unwrap());
-        prop_assert!(!(v2.ok && !v1.ok));
+        // A pass with both devices implies a pass with one removed.
+        prop_assert!(!v2.ok || v1.ok);
     }
 }

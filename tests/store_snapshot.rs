@@ -70,7 +70,7 @@ fn entries(from: usize, n: usize) -> Vec<Entry> {
             }));
         }
         // Every other follow-up closes the one before (whatever the number of kinds).
-        if kind == Kind::FollowUp && (i / Kind::ALL.len()) % 2 == 0 {
+        if kind == Kind::FollowUp && (i / Kind::ALL.len()).is_multiple_of(2) {
             if let Some(open) = out
                 .iter()
                 .rev()
