@@ -163,6 +163,12 @@ pub struct App {
     _autosave: slint::Timer,
 }
 
+/// Whether number fields ask for the platform's number pad: on Android, where the keyboard
+/// is on the screen. Slint's decimal fields accept only the decimal separator of Slint's
+/// locale (`.`, as loopside bundles no translations); a phone whose number pad offers only
+/// a comma is a case to try on a device (android/README.md).
+pub const NUMBER_PAD: bool = cfg!(target_os = "android");
+
 /// How often the screen state is saved if it changed.
 pub const AUTOSAVE_EVERY: std::time::Duration = std::time::Duration::from_secs(3);
 
@@ -172,6 +178,11 @@ impl App {
     pub fn new(mut state: AppState) -> Result<App, slint::PlatformError> {
         power::sync_form(&mut state);
         let window = AppWindow::new()?;
+        // A phone's number fields open the number pad; a desktop's stay free text, so a
+        // decimal comma types whatever the locale (ui/widgets/kinds.slint, `Keyboard`).
+        window
+            .global::<Keyboard>()
+            .set_number_pad(NUMBER_PAD);
         let state: Shared = Rc::new(RefCell::new(state));
         connect(&window, &state);
         tags::connect(&window, &state);
