@@ -180,9 +180,7 @@ impl App {
         let window = AppWindow::new()?;
         // A phone's number fields open the number pad; a desktop's stay free text, so a
         // decimal comma types whatever the locale (ui/widgets/kinds.slint, `Keyboard`).
-        window
-            .global::<Keyboard>()
-            .set_number_pad(NUMBER_PAD);
+        window.global::<Keyboard>().set_number_pad(NUMBER_PAD);
         let state: Shared = Rc::new(RefCell::new(state));
         connect(&window, &state);
         tags::connect(&window, &state);
