@@ -6,6 +6,11 @@
 //! People appear by initials only. [`fill`] puts it all into an empty store and refuses
 //! a store that already holds anything.
 //!
+//! TT-412 runs through an intrinsic-safety barrier: its IS data ([`tt412_circuit`]) and
+//! one IS check in its log are invented demo values (plausible for a 28 V / 93 mA
+//! barrier channel and a temperature transmitter), marked as demo in their names and
+//! certificate references.
+//!
 //! Where the brief gives no figure, the plant standard assumed here is a 24 V supply and
 //! a 10.5 V transmitter minimum; those are marked in each tag's notes.
 
@@ -72,6 +77,59 @@ fn tag(number: &str, service: &str, area: &str, scale: Scale) -> Result<Tag> {
     Ok(t)
 }
 
+/// TT-412's intrinsically safe circuit: INVENTED demo values, not from any real
+/// certificate. A 28 V / 93 mA / 0.65 W barrier channel with its group IIB output
+/// parameters, the transmitter, its Pt100 (simple apparatus) and 185 m of instrument cable,
+/// in a digester area classified IIB T3 for the demo.
+pub fn tt412_circuit() -> crate::intrinsic::Circuit {
+    use crate::intrinsic::{Cable, Circuit, Device, DeviceKind, GasGroup, Source, TempClass};
+    Circuit {
+        source: Source {
+            name: "IS barrier, MCC-2 rack 3 slot 7 (demo)".to_string(),
+            certificate: "BWR-DEMO-IS-0412 (invented)".to_string(),
+            uo_volts: 28.0,
+            io_ma: 93.0,
+            po_watts: 0.65,
+            co_farads: 650e-9,
+            lo_henries: 12.6e-3,
+            lo_ro_henries_per_ohm: Some(165e-6),
+            group: Some(GasGroup::IIB),
+        },
+        devices: vec![
+            Device {
+                name: "TT-412 transmitter".to_string(),
+                certificate: "BWR-DEMO-TX-7731 (invented)".to_string(),
+                kind: DeviceKind::Entity {
+                    ui_volts: 30.0,
+                    ii_ma: 100.0,
+                    pi_watts: 0.75,
+                    group: Some(GasGroup::IIC),
+                    t_class: Some(TempClass::T4),
+                },
+                ci_farads: 5e-9,
+                li_henries: 10e-6,
+                temporary: false,
+            },
+            Device {
+                name: "Pt100 in thermowell".to_string(),
+                certificate: String::new(),
+                kind: DeviceKind::Simple,
+                ci_farads: 0.0,
+                li_henries: 0.0,
+                temporary: false,
+            },
+        ],
+        cable: Cable {
+            length_m: 185.0,
+            farads_per_m: Some(110e-12),
+            henries_per_m: Some(0.7e-6),
+            lr_henries_per_ohm: None,
+        },
+        area_group: GasGroup::IIB,
+        area_t_class: Some(TempClass::T3),
+    }
+}
+
 /// The seven demo tags, as in the product brief.
 pub fn tags() -> Result<Vec<Tag>> {
     let mut lt101 = tag(
@@ -134,6 +192,7 @@ pub fn tags() -> Result<Vec<Tag>> {
         wiring: Wiring::ThreeWire,
         lead_ohms: 0.0,
     });
+    tt412.intrinsic = Some(tt412_circuit());
 
     let mut at520 = tag(
         "AT-520",
@@ -328,6 +387,26 @@ fn entries(ids: &[TagId], now: DateTime<FixedOffset>) -> Result<Vec<Entry>> {
         Kind::Finding,
         "Tank at 1.00 m shows 6.00 m³, half full as the table for the horizontal tank says. Sight glass agrees.",
     )?);
+    let circuit = tt412_circuit();
+    let verdict = crate::intrinsic::check(&circuit)?;
+    let mut is_check = Entry::new(
+        &tt412,
+        at(1, 15, 30)?,
+        "EF",
+        Kind::IsCheck,
+        "IS check (entity) after the transmitter swap (demo): pass. Barrier to transmitter and Pt100 on 185 m of cable; \
+         C about 25 nF of 650 nF allowed, L about 0.14 mH of 12.6 mH; longest cable about 5860 m (set by capacitance).",
+    )?;
+    // The shape `crate::action::intrinsic::payload` writes (version 1); a test keeps the
+    // two alike.
+    is_check.payload = Some(json!({
+        "payload_version": 1,
+        "circuit": serde_json::to_value(&circuit)
+            .map_err(|e| FieldError::new("demo", e.to_string()))?,
+        "verdict": serde_json::to_value(&verdict)
+            .map_err(|e| FieldError::new("demo", e.to_string()))?,
+    }));
+    v.push(is_check);
     let mut fix = Entry::new(
         &tt412,
         now - Duration::hours(3),

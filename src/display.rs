@@ -324,6 +324,42 @@ fn fixed(value: f64, decimals: usize) -> String {
     }
 }
 
+/// Intrinsic-safety quantities, as certificates write them, with the Unicode minus sign
+/// on a shortfall: capacitance in nF, one decimal (`83.0 nF`, `−2.0 nF`).
+pub fn is_nanofarads(farads: f64) -> String {
+    format!("{} nF", quoted_fixed(farads * 1e9, 1))
+}
+
+/// Inductance in mH, three decimals: `4.200 mH`, `0.140 mH`.
+pub fn is_millihenries(henries: f64) -> String {
+    format!("{} mH", quoted_fixed(henries * 1e3, 3))
+}
+
+/// An inductance-to-resistance ratio in µH/Ω, one decimal: `55.0 µH/Ω`.
+pub fn is_microhenries_per_ohm(henries_per_ohm: f64) -> String {
+    format!("{} µH/Ω", quoted_fixed(henries_per_ohm * 1e6, 1))
+}
+
+/// Voltage of an IS rating or margin, two decimals: `28.00 V`, `−4.00 V`.
+pub fn is_volts(volts: f64) -> String {
+    format!("{} V", quoted_fixed(volts, 2))
+}
+
+/// Current of an IS rating or margin in mA, one decimal: `93.0 mA`, `−3.0 mA`.
+pub fn is_ma(ma: f64) -> String {
+    format!("{} mA", quoted_fixed(ma, 1))
+}
+
+/// Power of an IS rating or margin in W, three decimals: `0.650 W`, `−0.050 W`.
+pub fn is_watts(watts: f64) -> String {
+    format!("{} W", quoted_fixed(watts, 3))
+}
+
+/// A margin as a percent of its limit, one decimal: `69.9 %`, `−16.7 %`.
+pub fn is_margin_percent(percent: f64) -> String {
+    format!("{} %", quoted_fixed(percent, 1))
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -344,6 +380,13 @@ mod tests {
         assert_eq!(temperature(21.5), "21.50 °C");
         assert_eq!(volts_spare(-0.4), "\u{2212}0.40 V");
         assert_eq!(volts_spare(-0.001), "0.00 V");
+        assert_eq!(is_nanofarads(83e-9), "83.0 nF");
+        assert_eq!(is_nanofarads(-2e-9), "\u{2212}2.0 nF");
+        assert_eq!(is_millihenries(140e-6), "0.140 mH");
+        assert_eq!(is_microhenries_per_ohm(55e-6), "55.0 µH/Ω");
+        assert_eq!(is_ma(93.0), "93.0 mA");
+        assert_eq!(is_watts(0.65), "0.650 W");
+        assert_eq!(is_margin_percent(-16.6667), "\u{2212}16.7 %");
     }
 
     #[test]

@@ -106,16 +106,20 @@ pub enum Kind {
     FaultFinding,
     /// Work still to do; open until a later entry marks it done.
     FollowUp,
+    /// An intrinsic-safety check of the loop's circuit (entity concept) with its inputs
+    /// and results (`crate::action::intrinsic`).
+    IsCheck,
 }
 
 impl Kind {
     /// Every kind, in the order the UI lists them.
-    pub const ALL: [Kind; 5] = [
+    pub const ALL: [Kind; 6] = [
         Kind::Note,
         Kind::Finding,
         Kind::LoopCheck,
         Kind::FaultFinding,
         Kind::FollowUp,
+        Kind::IsCheck,
     ];
 
     /// The kind as written on the command line and in files (`loop-check`).
@@ -126,6 +130,7 @@ impl Kind {
             Kind::LoopCheck => "loop-check",
             Kind::FaultFinding => "fault-finding",
             Kind::FollowUp => "follow-up",
+            Kind::IsCheck => "is-check",
         }
     }
 
@@ -144,7 +149,7 @@ impl Kind {
                 FieldError::new(
                     "kind",
                     format!(
-                        "'{}' is not a kind; use one of note, finding, loop-check, fault-finding, follow-up",
+                        "'{}' is not a kind; use one of note, finding, loop-check, fault-finding, follow-up, is-check",
                         text.trim()
                     ),
                 )

@@ -11,6 +11,8 @@
 //! - [`cli`] — the command-line front (prints; not part of the pure core);
 //! - [`rtd`], [`thermocouple`] and [`level`] — what a temperature or DP level transmitter
 //!   should see for a given temperature or level;
+//! - [`intrinsic`] — intrinsic safety of a loop by the entity concept (barrier or isolator,
+//!   field devices, cable);
 //! - [`caution`] and [`leave`] — the cautions shown before work on a loop, and the
 //!   "before you leave" list recorded after it;
 //! - [`action`] — one function per action a technician takes (notes, tags, checks,
@@ -35,6 +37,7 @@ pub mod data_folder;
 pub mod demo;
 pub mod diagnose;
 pub mod display;
+pub mod intrinsic;
 pub mod journal;
 pub mod leave;
 pub mod level;

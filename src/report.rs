@@ -131,6 +131,13 @@ fn md_text(text: &str) -> String {
 
 /// A readable handoff: heading, period, open follow-ups, then tag by tag.
 pub fn markdown(bundle: &Bundle) -> String {
+    markdown_with(bundle, &|_| Vec::new())
+}
+
+/// The same handoff, with `detail`'s Markdown lines under each entry it has any for (the
+/// application layer words the structured records, such as an intrinsic-safety check's
+/// checks and margins; the report itself writes no sentences about them).
+pub fn markdown_with(bundle: &Bundle, detail: &dyn Fn(&Entry) -> Vec<String>) -> String {
     let tags = tag_map(bundle);
     let number = |id: &TagId| {
         tags.get(id)
@@ -221,6 +228,9 @@ pub fn markdown(bundle: &Bundle) -> String {
                 _ => {}
             }
             let _ = writeln!(s, "{line}  \n  {}  \n  `{}`", md_text(&e.text), e.id);
+            for more in detail(e) {
+                let _ = writeln!(s, "  {more}");
+            }
         }
         s.push('\n');
     }

@@ -52,6 +52,11 @@ pub struct Tag {
     /// ohms, millivolts or pressure and compute the current to expect.
     #[serde(default)]
     pub sensor: Option<crate::sensor::Sensor>,
+    /// The loop's intrinsically safe circuit (barrier or isolator, field devices, cable),
+    /// when it runs into a hazardous area; `None` for an ordinary loop. Stores written
+    /// before this field open unchanged.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub intrinsic: Option<crate::intrinsic::Circuit>,
 }
 
 fn default_tolerance() -> f64 {
@@ -73,6 +78,7 @@ impl Tag {
             notes: String::new(),
             archived: false,
             sensor: None,
+            intrinsic: None,
         };
         tag.validate()?;
         Ok(tag)
@@ -99,6 +105,9 @@ impl Tag {
         }
         if let Some(l) = &self.loop_config {
             l.validate()?;
+        }
+        if let Some(c) = &self.intrinsic {
+            c.validate()?;
         }
         for (field, text) in [("service", &self.service), ("area", &self.area)] {
             if text.chars().count() > 200 {

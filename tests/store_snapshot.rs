@@ -69,7 +69,8 @@ fn entries(from: usize, n: usize) -> Vec<Entry> {
                 "note": "Ω ✓"
             }));
         }
-        if kind == Kind::FollowUp && i % 2 == 0 {
+        // Every other follow-up closes the one before (whatever the number of kinds).
+        if kind == Kind::FollowUp && (i / Kind::ALL.len()).is_multiple_of(2) {
             if let Some(open) = out
                 .iter()
                 .rev()

@@ -69,7 +69,13 @@ pub fn handover(
 ) -> Handover {
     let bundle = report::select(store, query, now);
     let mut text = match format {
-        Format::Markdown => report::markdown(&bundle),
+        Format::Markdown => report::markdown_with(&bundle, &|e| {
+            super::intrinsic::record_of(e)
+                .map(|(circuit, verdict)| {
+                    crate::view::wording::intrinsic::report_section(&circuit, &verdict)
+                })
+                .unwrap_or_default()
+        }),
         Format::Csv => report::csv(&bundle),
         Format::Json => report::json(&bundle),
     };

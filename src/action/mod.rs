@@ -10,6 +10,8 @@
 //! - [`note`] — add a note or a follow-up, close a follow-up;
 //! - [`tag`] — add, edit, rename, archive a tag;
 //! - [`check`] — save a loop check (one versioned payload shape);
+//! - [`intrinsic`] — store a tag's IS circuit, save an IS check (`is-check` kind, payload
+//!   version 1);
 //! - [`session`] — save a fault-finding session;
 //! - [`bundle`] — export a hand-over, import a bundle.
 //!
@@ -18,6 +20,7 @@
 
 pub mod bundle;
 pub mod check;
+pub mod intrinsic;
 pub mod note;
 pub mod session;
 pub mod tag;

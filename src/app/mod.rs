@@ -17,6 +17,7 @@ pub mod about;
 pub mod check;
 pub mod convert;
 pub mod fault;
+pub mod intrinsic;
 pub mod level;
 pub mod log;
 pub mod power;
@@ -185,6 +186,7 @@ impl App {
         tags::connect(&window, &state);
         convert::connect(&window, &state);
         power::connect(&window, &state);
+        intrinsic::connect(&window, &state);
         fault::connect(&window, &state);
         check::connect(&window, &state);
         units::connect(&window, &state);
@@ -240,12 +242,13 @@ impl App {
 }
 
 /// Every screen, in navigation order.
-pub const SCREENS: [Screen; 9] = [
+pub const SCREENS: [Screen; 10] = [
     Screen::Tags,
     Screen::Convert,
     Screen::Units,
     Screen::Level,
     Screen::Power,
+    Screen::Intrinsic,
     Screen::Fault,
     Screen::Check,
     Screen::Log,
@@ -260,6 +263,7 @@ pub fn screen_name(screen: Screen) -> &'static str {
         Screen::Units => "units",
         Screen::Level => "level",
         Screen::Power => "power",
+        Screen::Intrinsic => "intrinsic",
         Screen::Fault => "fault",
         Screen::Check => "check",
         Screen::Log => "log",
@@ -427,6 +431,7 @@ pub fn refresh_all(window: &AppWindow, state: &AppState) {
     tags::refresh(window, state);
     convert::refresh(window, state);
     power::refresh(window, state);
+    intrinsic::refresh(window, state);
     fault::refresh(window, state);
     check::refresh(window, state);
     units::refresh(window, state);

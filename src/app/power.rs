@@ -127,6 +127,13 @@ pub fn connect(window: &AppWindow, state: &Shared) {
             navigate(&w, &st, Screen::Tags, true);
         }
     });
+    let weak = window.as_weak();
+    let st = state.clone();
+    adapter.on_open_is(move || {
+        if let Some(w) = weak.upgrade() {
+            navigate(&w, &st, Screen::Intrinsic, true);
+        }
+    });
 }
 
 /// A new series element, numbered `n`: a 250 Ω resistor (the common receiver input), or a
@@ -301,6 +308,15 @@ fn update(window: &AppWindow, state: &AppState) {
     adapter.set_tag_detail(tag.map(|t| t.service.clone()).unwrap_or_default().into());
     adapter.set_can_save(tag.is_some());
     adapter.set_message("".into());
+    match tag.and_then(crate::view::intrinsic::power_card) {
+        Some((title, detail, tone)) => {
+            adapter.set_has_is(true);
+            adapter.set_is_title(title.into());
+            adapter.set_is_detail(detail.into());
+            adapter.set_is_kind(super::tone(tone));
+        }
+        None => adapter.set_has_is(false),
+    }
     let worked = read_loop(&state.ui.power).and_then(|c| {
         view(&c, state.ui.power.hart).map_err(|e| FormError::from_core(e, Field::Supply))
     });

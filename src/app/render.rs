@@ -324,6 +324,11 @@ pub fn render_all(
         if let Some(number) = open {
             headless.open_tag(&number);
         }
+        // Intrinsic safety of TT-412, the demo loop through a barrier.
+        super::tags::open(&headless.app.window, &headless.app.state, "TT-412");
+        headless.show(Screen::Intrinsic);
+        shoot(Screen::Intrinsic, "-work", dark)?;
+        super::tags::open(&headless.app.window, &headless.app.state, "LT-101");
     }
     Ok(written)
 }

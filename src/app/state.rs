@@ -318,6 +318,8 @@ pub struct UiState {
     pub tag_draft: Option<TagDraft>,
     /// A note typed on Log and not yet saved.
     pub log_note: String,
+    /// The intrinsic-safety form as typed, for the tag it was typed for.
+    pub intrinsic: super::intrinsic::IsForm,
 }
 
 impl Default for UiState {
@@ -343,6 +345,7 @@ impl Default for UiState {
             demo_cleared: false,
             tag_draft: None,
             log_note: String::new(),
+            intrinsic: super::intrinsic::IsForm::default(),
         }
     }
 }

@@ -11,6 +11,7 @@ mod bundle;
 mod calc;
 mod check;
 pub mod data;
+mod intrinsic;
 mod note;
 mod sensors;
 mod tag;
@@ -74,6 +75,11 @@ pub enum Command {
     Check(check::CheckArgs),
     /// Find a fault step by step from a symptom and your measurements.
     Diagnose(check::DiagnoseArgs),
+    /// Intrinsic safety by the entity concept: check a barrier or isolator, field devices
+    /// and cable; store a tag's IS data; save the check to its log.
+    Intrinsic(intrinsic::IntrinsicArgs),
+    /// The same as `intrinsic check`: the entity concept's checks, margins and longest cable.
+    Entity(intrinsic::CheckArgs),
     /// List loopside's licence and every third-party crate and font it ships, with licences.
     Licences(LicencesArgs),
 }
@@ -129,6 +135,8 @@ pub fn run_command(command: Command, out: &mut dyn Write) -> CliResult {
         Command::Level(args) => sensors::level(args, out),
         Command::Check(args) => check::check(args, out),
         Command::Diagnose(args) => check::diagnose(args, &mut std::io::stdin().lock(), out),
+        Command::Intrinsic(args) => intrinsic::intrinsic(args, out),
+        Command::Entity(args) => intrinsic::check(args, out),
         Command::Licences(args) => licences(args, out),
     }
 }

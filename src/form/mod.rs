@@ -6,6 +6,8 @@
 //! - [`loop_form`] — supply, sag, transmitter minimum, fault current, series elements, cable;
 //! - [`conductor`] — conductor size and temperature;
 //! - [`sensor`] — the temperature sensor (RTD and its wiring, or thermocouple and cold junction);
+//! - [`intrinsic`] — an intrinsically safe circuit: barrier or isolator, devices, cable
+//!   (its own field names, not the [`Field`] table: values carry unit suffixes);
 //! - [`field`] — the one table of field names every form error uses.
 //!
 //! Each parser returns a [`FormError`] naming a [`Field`]; the screens show its name, the
@@ -13,6 +15,7 @@
 
 pub mod conductor;
 pub mod field;
+pub mod intrinsic;
 pub mod loop_form;
 pub mod range;
 pub mod sensor;

@@ -735,7 +735,7 @@ mod tests {
                 0u32..1_000_000_000,
                 -86_399i32..86_400,
             ),
-            (0..5usize, 0..3u8, proptest::option::of(json())),
+            (0..Kind::ALL.len(), 0..3u8, proptest::option::of(json())),
             proptest::option::of(".{0,12}"),
         )
             .prop_map(

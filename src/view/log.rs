@@ -84,6 +84,12 @@ fn check_passed(e: &Entry) -> Option<bool> {
     }
 }
 
+/// Did an IS check entry pass? Read from its stored verdict (`verdict.ok`, payload
+/// version 1 of `crate::action::intrinsic`). `None` when the entry does not say.
+fn is_check_ok(e: &Entry) -> Option<bool> {
+    e.payload.as_ref()?.get("verdict")?.get("ok")?.as_bool()
+}
+
 /// What an entry is, given the ids of the follow-ups that are closed.
 pub fn row_kind(e: &Entry, closed: &HashSet<&journal::EntryId>) -> RowKind {
     match e.kind {
@@ -100,6 +106,10 @@ pub fn row_kind(e: &Entry, closed: &HashSet<&journal::EntryId>) -> RowKind {
                 RowKind::OpenFollowUp
             }
         }
+        Kind::IsCheck => match is_check_ok(e) {
+            Some(true) => RowKind::CheckPassed,
+            _ => RowKind::CheckFailed,
+        },
     }
 }
 
@@ -119,6 +129,9 @@ pub fn title(e: &Entry, kind: RowKind) -> String {
         }
         (Kind::FollowUp, RowKind::DoneFollowUp) => "Follow-up (done)".to_string(),
         (Kind::FollowUp, _) => "Follow-up (open)".to_string(),
+        (Kind::IsCheck, _) => {
+            crate::view::wording::intrinsic::log_title(is_check_ok(e)).to_string()
+        }
     }
 }
 

@@ -10,6 +10,7 @@ pub mod bands;
 pub mod check;
 pub mod convert;
 pub mod fault;
+pub mod intrinsic;
 pub mod leave;
 pub mod level;
 pub mod log;

@@ -5,9 +5,12 @@
 //! - [`check`] — a loop check's verdict, log text, report section and warnings;
 //! - [`fault`] — the log text of a fault-finding session;
 //! - [`finding`] — what each fault-finding finding means, from its code and detail;
+//! - [`intrinsic`] — an intrinsic-safety check: caution, each check, verdict, notes, log
+//!   text and report section;
 //! - [`power`] — what limits a loop's voltage budget, and its HART verdict.
 
 pub mod check;
 pub mod fault;
 pub mod finding;
+pub mod intrinsic;
 pub mod power;
