@@ -6,7 +6,7 @@
 
 use crate::display;
 use crate::form::intrinsic::{parse_circuit, CircuitText};
-use crate::intrinsic::{self, Circuit, DeviceKind, Verdict};
+use crate::intrinsic::{self, Circuit, Verdict};
 use crate::view::wording::intrinsic as words;
 use crate::view::Tone;
 
@@ -94,20 +94,7 @@ fn picture(c: &Circuit, v: &Verdict) -> Vec<IsBox> {
         },
     ];
     for d in &c.devices {
-        let params = match d.kind {
-            DeviceKind::Entity {
-                ui_volts,
-                ii_ma,
-                pi_watts,
-                ..
-            } => format!(
-                "Ui {} · Ii {} · Pi {} · ",
-                display::is_volts(ui_volts),
-                display::is_ma(ii_ma),
-                display::is_watts(pi_watts)
-            ),
-            DeviceKind::Simple => "simple apparatus · ".to_string(),
-        };
+        let params = format!("{} · ", words::device_parameters(&d.kind, " · "));
         out.push(IsBox {
             title: if d.temporary {
                 format!("{} (temporary)", d.name)

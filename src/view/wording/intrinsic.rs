@@ -16,6 +16,25 @@ pub const CAUTION: [&str; 3] = [
     "Work on an intrinsically safe circuit live only as the site's rules and permits allow, with equipment certified for the area.",
 ];
 
+/// A field device's entity input parameters, `Ui 30 V, Ii 100 mA, Pi 0.75 W` (joined by
+/// `sep`), or `simple apparatus`.
+pub fn device_parameters(kind: &DeviceKind, sep: &str) -> String {
+    match *kind {
+        DeviceKind::Entity {
+            ui_volts,
+            ii_ma,
+            pi_watts,
+            ..
+        } => [
+            format!("Ui {}", display::is_volts(ui_volts)),
+            format!("Ii {}", display::is_ma(ii_ma)),
+            format!("Pi {}", display::is_watts(pi_watts)),
+        ]
+        .join(sep),
+        DeviceKind::Simple => "simple apparatus".to_string(),
+    }
+}
+
 /// `pass` or `FAIL`, as every check is marked (capitals for the one that needs action).
 pub fn mark(ok: bool) -> &'static str {
     if ok {
@@ -353,20 +372,7 @@ pub fn report_section(circuit: &Circuit, v: &Verdict) -> Vec<String> {
         s.group.map(|g| g.label()).unwrap_or("group not given")
     ));
     for d in &circuit.devices {
-        let params = match d.kind {
-            DeviceKind::Entity {
-                ui_volts,
-                ii_ma,
-                pi_watts,
-                ..
-            } => format!(
-                "Ui {}, Ii {}, Pi {}",
-                display::is_volts(ui_volts),
-                display::is_ma(ii_ma),
-                display::is_watts(pi_watts)
-            ),
-            DeviceKind::Simple => "simple apparatus".to_string(),
-        };
+        let params = device_parameters(&d.kind, ", ");
         out.push(format!(
             "- Device {}{}{}: {params}, Ci {}, Li {}",
             md(&d.name),
