@@ -2,7 +2,7 @@
 //! `parse_number`, `parse_list`, `parse_range`): `12,5`, `250 ohm`, `1.5mm²`, `93mA`.
 //!
 //! Invariant: a refused text names the field; an accepted one is a finite number, and
-//! shown the ways loopside shows numbers (`display::fixed` with 0 to 6 decimals,
+//! shown the ways loopside shows numbers (`display::value_number` for spans giving 0 to 6 decimals,
 //! `trimmed`, `quoted` with its Unicode minus, `significant` to 7 digits) with its unit's
 //! symbol after it, it reads back as the same unit and the same value within that
 //! display's rounding. A plain number and a number with a unit are told apart the same way
@@ -61,8 +61,11 @@ fuzz_target!(|input: &[u8]| {
             "{text:?} = {value} shown as {typed:?} reads back as {back}"
         );
     };
-    for decimals in 0..=6usize {
-        read_back(display::fixed(value, decimals), decimals as i32);
+    // An engineering value rounded for spans from 10⁵ down to 10⁻² (0 to 6 decimals).
+    for exponent in -2..=5 {
+        let span = 10f64.powi(exponent);
+        let decimals = display::decimals_for_span(span);
+        read_back(display::value_number(value, span), decimals as i32);
     }
     read_back(display::trimmed(value), 6);
     read_back(display::quoted(value), 6);
