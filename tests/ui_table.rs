@@ -5,7 +5,7 @@
 
 mod util;
 
-use util::ui::{all, one, tap, type_into};
+use util::ui::{all, one, save_tag_form, tap, type_into};
 
 use i_slint_backend_testing::AccessibleRole;
 use loopside::app::{App, AppState, FormField, Screen, TagsAdapter};
@@ -101,13 +101,7 @@ fn a_level_to_volume_table_is_typed_checked_saved_and_read_back() {
     let points = curve_points(&app);
     assert_eq!(points.len(), 4);
     assert!((points[2].1 - 0.5).abs() < 1e-4, "{points:?}");
-    tap(&app, "Save");
-    assert_eq!(
-        tags.get_error_field(),
-        FormField::None,
-        "{}",
-        tags.get_error_text()
-    );
+    save_tag_form(&app);
     assert!(!tags.get_editing());
 
     let state = app.state.borrow();
@@ -221,14 +215,7 @@ fn removing_every_row_leaves_the_tank_with_no_table() {
         Some(true)
     );
     assert!(all(&app, "Table output unit", AccessibleRole::TextInput).is_empty());
-    tap(&app, "Save");
-    let tags = app.window.global::<TagsAdapter>();
-    assert_eq!(
-        tags.get_error_field(),
-        FormField::None,
-        "{}",
-        tags.get_error_text()
-    );
+    save_tag_form(&app);
     assert_eq!(
         app.state
             .borrow()
@@ -280,12 +267,6 @@ fn an_order_fault_is_told_by_the_rows_as_numbered_on_screen() {
         "table: row 4: outputs must rise (or fall) steadily with input; 1.5 → 1.5 breaks that (against row 2)"
     );
     type_into(&app, "Row 4 output", "3,5");
-    tap(&app, "Save");
-    assert_eq!(
-        tags.get_error_field(),
-        FormField::None,
-        "{}",
-        tags.get_error_text()
-    );
+    save_tag_form(&app);
     assert!(app.state.borrow().store.tag("LT-142").is_some());
 }

@@ -6,7 +6,7 @@
 
 mod util;
 
-use util::ui::{all, one, tap, type_into};
+use util::ui::{all, one, save_tag_form, tap, type_into};
 
 use i_slint_backend_testing::AccessibleRole;
 use loopside::app::{AppState, FormField, Screen, TagsAdapter};
@@ -63,14 +63,8 @@ fn a_pt100_on_a_zero_to_twenty_card_is_picked_not_typed() {
     assert!(all(&app, "Cold junction", AccessibleRole::TextInput).is_empty());
     pick(&app, "RTD wiring: 2-wire");
     type_into(&app, "Lead resistance, both leads", "0,8");
-    tap(&app, "Save");
+    save_tag_form(&app);
     let tags = app.window.global::<TagsAdapter>();
-    assert_eq!(
-        tags.get_error_field(),
-        FormField::None,
-        "{}",
-        tags.get_error_text()
-    );
     {
         let state = app.state.borrow();
         let tag = &state.store.tag("TT-420").expect("saved").tag;
@@ -109,13 +103,7 @@ fn a_pt100_on_a_zero_to_twenty_card_is_picked_not_typed() {
     assert_eq!(tags.get_error_field(), FormField::ColdJunction);
     assert!(tags.get_editing(), "the form stays open");
     type_into(&app, "Cold junction", "25");
-    tap(&app, "Save");
-    assert_eq!(
-        tags.get_error_field(),
-        FormField::None,
-        "{}",
-        tags.get_error_text()
-    );
+    save_tag_form(&app);
     assert_eq!(
         app.state.borrow().store.tag("TT-420").unwrap().tag.sensor,
         Some(Sensor::Thermocouple {
@@ -144,14 +132,7 @@ fn on_a_400_px_phone_every_field_of_the_tag_form_is_reached() {
     type_into(&app, "Supply may sag", "10");
     type_into(&app, "Transmitter minimum", "12");
     type_into(&app, "Fault current", "21");
-    tap(&app, "Save");
-    let tags = app.window.global::<TagsAdapter>();
-    assert_eq!(
-        tags.get_error_field(),
-        FormField::None,
-        "{}",
-        tags.get_error_text()
-    );
+    save_tag_form(&app);
     let state = app.state.borrow();
     let tag = &state.store.tag("PT-990").expect("saved").tag;
     assert_eq!((tag.scale.urv, tag.scale.unit.as_str()), (16.0, "bar"));

@@ -3,8 +3,20 @@
 use super::{model, AboutAdapter, AppState, AppWindow, Shared, Theme};
 use slint::ComponentHandle;
 
-/// Wire the adapter's callbacks.
+/// Wire the adapter's callbacks and copy in what never changes while the app runs: the
+/// version, the licences (483 crates' worth of text, built once) and the cautions.
 pub fn connect(window: &AppWindow, state: &Shared) {
+    let a = window.global::<AboutAdapter>();
+    a.set_version(env!("CARGO_PKG_VERSION").into());
+    a.set_licences(model(
+        crate::view::about::licence_lines()
+            .into_iter()
+            .map(Into::into)
+            .collect(),
+    ));
+    a.set_cautions(model(
+        crate::view::CAUTIONS.iter().map(|c| (*c).into()).collect(),
+    ));
     let weak = window.as_weak();
     let st = state.clone();
     window.global::<AboutAdapter>().on_toggle_theme(move || {
@@ -18,10 +30,9 @@ pub fn connect(window: &AppWindow, state: &Shared) {
     });
 }
 
-/// Copy version, data folder and licences in.
+/// Copy the data folder in (it changes when the store is moved or cleared).
 pub fn refresh(window: &AppWindow, state: &AppState) {
     let a = window.global::<AboutAdapter>();
-    a.set_version(env!("CARGO_PKG_VERSION").into());
     a.set_data_folder(
         state
             .data_dir
@@ -30,13 +41,4 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
             .unwrap_or_else(|| "(not saved: preview)".to_string())
             .into(),
     );
-    a.set_licences(model(
-        crate::view::about::licence_lines()
-            .into_iter()
-            .map(Into::into)
-            .collect(),
-    ));
-    a.set_cautions(model(
-        crate::view::CAUTIONS.iter().map(|c| (*c).into()).collect(),
-    ));
 }

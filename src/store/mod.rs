@@ -254,9 +254,16 @@ impl Register {
     /// Every entry in the order it was saved (read now if it was deferred).
     pub fn entries(&self) -> &[Entry] {
         self.entries.get_or_init(|| {
-            let mut all = match self.deferred.take() {
-                None => Vec::new(),
-                Some(load) => match load() {
+            // Everything is decoded now: the aid's copy of the entries is not needed
+            // afterwards, and when it was read its checked bytes are decoded rather than
+            // read from the snapshot a second time.
+            self.aid_source.take();
+            let aid = self.aid.try_borrow_mut().ok().and_then(|mut a| a.take());
+            let load = self.deferred.take();
+            let mut all = match (aid.and_then(|a| a.all()), load) {
+                (Some(v), _) => v,
+                (None, None) => Vec::new(),
+                (None, Some(load)) => match load() {
                     Ok(v) => v,
                     Err(why) => {
                         let _ = self.load_failure.set(why);
@@ -265,11 +272,6 @@ impl Register {
                 },
             };
             all.extend(self.later.iter().cloned());
-            // Everything is decoded now: the aid's copy of the entries is not needed.
-            self.aid_source.take();
-            if let Ok(mut a) = self.aid.try_borrow_mut() {
-                *a = None;
-            }
             all
         })
     }
@@ -377,11 +379,8 @@ impl Register {
             None => self.entries(),
         };
         for e in rest {
-            match newest.get(&e.tag) {
-                Some(seen) if seen.time > e.time => {}
-                _ => {
-                    newest.insert(&e.tag, e);
-                }
+            if supersedes(e, newest.get(&e.tag).copied()) {
+                newest.insert(&e.tag, e);
             }
         }
         newest
@@ -407,14 +406,17 @@ impl Register {
 pub(crate) fn newest_positions(tags: &[TagRecord], entries: &[Entry]) -> Vec<Option<usize>> {
     let mut newest: HashMap<&TagId, usize> = HashMap::new();
     for (i, e) in entries.iter().enumerate() {
-        match newest.get(&e.tag) {
-            Some(&seen) if entries[seen].time > e.time => {}
-            _ => {
-                newest.insert(&e.tag, i);
-            }
+        if supersedes(e, newest.get(&e.tag).map(|&seen| &entries[seen])) {
+            newest.insert(&e.tag, i);
         }
     }
     tags.iter().map(|t| newest.get(&t.id).copied()).collect()
+}
+
+/// True when `e`, saved after `kept`, takes its place as its tag's newest entry: it is not
+/// earlier (of equal times, the one saved last wins).
+fn supersedes(e: &Entry, kept: Option<&Entry>) -> bool {
+    kept.is_none_or(|k| k.time <= e.time)
 }
 
 /// What an import did.

@@ -234,6 +234,11 @@ impl Aid {
         self.offsets.len()
     }
 
+    /// Decode every entry; `None` if they do not all decode.
+    pub fn all(&self) -> Option<Vec<Entry>> {
+        decode_entries(&self.entries, self.offsets.len() as u64)
+    }
+
     /// Decode entry `i`; `None` if there is no such entry or it does not decode.
     pub fn entry(&self, i: usize) -> Option<Entry> {
         let pos = *self.offsets.get(i)?;

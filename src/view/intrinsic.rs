@@ -70,14 +70,7 @@ fn picture(c: &Circuit, v: &Verdict) -> Vec<IsBox> {
             } else {
                 s.name.clone()
             },
-            detail: format!(
-                "Uo {} · Io {} · Po {} · Co {} · Lo {}",
-                display::is_volts(s.uo_volts),
-                display::is_ma(s.io_ma),
-                display::is_watts(s.po_watts),
-                display::is_nanofarads(s.co_farads),
-                display::is_millihenries(s.lo_henries)
-            ),
+            detail: words::source_parameters(s, " · "),
         },
         IsBox {
             title: format!("Cable {}", display::metres(c.cable.length_m)),

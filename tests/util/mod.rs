@@ -252,4 +252,18 @@ pub mod ui {
     pub fn tap(app: &App, label: &str) {
         one(app, label, AccessibleRole::Button).invoke_accessible_default_action();
     }
+
+    /// Tap the open tag form's *Save* and check it saved: no field is marked wrong (the
+    /// error text is shown if one is).
+    pub fn save_tag_form(app: &App) {
+        use loopside::app::{FormField, TagsAdapter};
+        tap(app, "Save");
+        let tags = app.window.global::<TagsAdapter>();
+        assert_eq!(
+            tags.get_error_field(),
+            FormField::None,
+            "{}",
+            tags.get_error_text()
+        );
+    }
 }

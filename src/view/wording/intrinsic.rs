@@ -5,8 +5,8 @@
 
 use crate::display;
 use crate::intrinsic::{
-    CableLimit, Check, CheckName, Circuit, Compared, DeviceKind, NotChecked, Quantity, Verdict,
-    DEFAULT_CABLE_FARADS_PER_M, DEFAULT_CABLE_HENRIES_PER_M, SIMPLE_APPARATUS_T4_WATTS,
+    CableLimit, Check, CheckName, Circuit, Compared, DeviceKind, NotChecked, Quantity, Source,
+    Verdict, DEFAULT_CABLE_FARADS_PER_M, DEFAULT_CABLE_HENRIES_PER_M, SIMPLE_APPARATUS_T4_WATTS,
 };
 
 /// The caution shown before the IS card and the `intrinsic` command's answer.
@@ -15,6 +15,19 @@ pub const CAUTION: [&str; 3] = [
     "Take every value from the certificates of the installed equipment, for the area's gas group; a value typed wrongly gives a wrong answer.",
     "Work on an intrinsically safe circuit live only as the site's rules and permits allow, with equipment certified for the area.",
 ];
+
+/// A source's entity output parameters, `Uo 28 V, Io 93 mA, Po 0.65 W, Co 83 nF, Lo 4.2 mH`
+/// (joined by `sep`).
+pub fn source_parameters(s: &Source, sep: &str) -> String {
+    [
+        format!("Uo {}", display::is_volts(s.uo_volts)),
+        format!("Io {}", display::is_ma(s.io_ma)),
+        format!("Po {}", display::is_watts(s.po_watts)),
+        format!("Co {}", display::is_nanofarads(s.co_farads)),
+        format!("Lo {}", display::is_millihenries(s.lo_henries)),
+    ]
+    .join(sep)
+}
 
 /// A field device's entity input parameters, `Ui 30 V, Ii 100 mA, Pi 0.75 W` (joined by
 /// `sep`), or `simple apparatus`.
@@ -341,6 +354,15 @@ pub fn log_text(circuit: &Circuit, v: &Verdict) -> String {
 }
 
 /// Text safe inside a Markdown line.
+/// ` (cert. …)` after a name in the report, or nothing when no certificate is given.
+fn certificate_note(certificate: &str) -> String {
+    if certificate.is_empty() {
+        String::new()
+    } else {
+        format!(" (cert. {})", md(certificate))
+    }
+}
+
 fn md(text: &str) -> String {
     text.replace('|', "\\|").replace(['\n', '\r'], " ")
 }
@@ -350,22 +372,14 @@ pub fn report_section(circuit: &Circuit, v: &Verdict) -> Vec<String> {
     let mut out = vec![format!("**{}**", md(&verdict_line(v)))];
     let s = &circuit.source;
     out.push(format!(
-        "- Source {}{}: Uo {}, Io {}, Po {}, Co {}, Lo {}{}, {}",
+        "- Source {}{}: {}{}, {}",
         md(if s.name.is_empty() {
             "(unnamed)"
         } else {
             &s.name
         }),
-        if s.certificate.is_empty() {
-            String::new()
-        } else {
-            format!(" (cert. {})", md(&s.certificate))
-        },
-        display::is_volts(s.uo_volts),
-        display::is_ma(s.io_ma),
-        display::is_watts(s.po_watts),
-        display::is_nanofarads(s.co_farads),
-        display::is_millihenries(s.lo_henries),
+        certificate_note(&s.certificate),
+        source_parameters(s, ", "),
         s.lo_ro_henries_per_ohm
             .map(|r| format!(", Lo/Ro {}", display::is_microhenries_per_ohm(r)))
             .unwrap_or_default(),
@@ -377,11 +391,7 @@ pub fn report_section(circuit: &Circuit, v: &Verdict) -> Vec<String> {
             "- Device {}{}{}: {params}, Ci {}, Li {}",
             md(&d.name),
             if d.temporary { " (temporary)" } else { "" },
-            if d.certificate.is_empty() {
-                String::new()
-            } else {
-                format!(" (cert. {})", md(&d.certificate))
-            },
+            certificate_note(&d.certificate),
             display::is_nanofarads(d.ci_farads),
             display::is_millihenries(d.li_henries),
         ));
