@@ -151,6 +151,12 @@ pub fn facts(tag: &Tag) -> Vec<Fact> {
         }
         None => out.push(fact("Loop", "not recorded".to_string())),
     }
+    if let Some(c) = &tag.intrinsic {
+        out.push(fact(
+            "Intrinsic",
+            crate::view::wording::intrinsic::circuit_summary(c),
+        ));
+    }
     if !tag.notes.is_empty() {
         out.push(fact("Notes", tag.notes.clone()));
     }
@@ -201,6 +207,43 @@ pub fn sheet(store: &dyn Store, record: &TagRecord) -> TagSheet {
 mod tests {
     use super::*;
     use crate::store::MemoryStore;
+
+    #[test]
+    fn a_loop_through_a_barrier_shows_its_is_circuit_on_the_sheet() {
+        // TT-412 in the demo plant runs through a barrier (invented entity values: Uo 28 V,
+        // Io 93 mA, Po 0.65 W, Co 650 nF, Lo 12.6 mH) to the transmitter and a Pt100 on
+        // 185 m of cable, in an area asking IIB T3. LT-101 has no IS circuit and no line.
+        let mut store = MemoryStore::new();
+        let now = chrono::TimeZone::with_ymd_and_hms(
+            &chrono::FixedOffset::east_opt(3600).unwrap(),
+            2026,
+            12,
+            1,
+            16,
+            30,
+            0,
+        )
+        .unwrap();
+        crate::demo::fill(&mut store, now).unwrap();
+        let tt = store.tag("TT-412").unwrap().clone();
+        let facts = facts(&tt.tag);
+        let is = facts.iter().find(|f| f.label == "Intrinsic").unwrap();
+        assert!(
+            is.value
+                .contains("(Uo 28.00 V, Io 93.0 mA, Po 0.650 W, Co 650.0 nF, Lo 12.600 mH)"),
+            "{}",
+            is.value
+        );
+        assert!(
+            is.value.ends_with(
+                "2 field devices (TT-412 transmitter, Pt100 in thermowell), cable 185 m; area IIB T3"
+            ),
+            "{}",
+            is.value
+        );
+        let lt = store.tag("LT-101").unwrap().clone();
+        assert!(super::facts(&lt.tag).iter().all(|f| f.label != "Intrinsic"));
+    }
 
     #[test]
     fn the_demo_level_loop_reads_as_a_sheet() {

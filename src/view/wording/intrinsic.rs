@@ -16,6 +16,27 @@ pub const CAUTION: [&str; 3] = [
     "Work on an intrinsically safe circuit live only as the site's rules and permits allow, with equipment certified for the area.",
 ];
 
+/// The tag sheet's line for a tag's IS circuit: `Barrier A (Uo 28 V, …), 2 field devices
+/// (TT-412 transmitter, Pt100 in thermowell), cable 185 m; area IIB T3`.
+pub fn circuit_summary(c: &Circuit) -> String {
+    let source = if c.source.name.is_empty() {
+        "barrier or isolator"
+    } else {
+        &c.source.name
+    };
+    let names: Vec<&str> = c.devices.iter().map(|d| d.name.as_str()).collect();
+    format!(
+        "{source} ({}), {} field device{} ({}), cable {}; area {}{}",
+        source_parameters(&c.source, ", "),
+        c.devices.len(),
+        if c.devices.len() == 1 { "" } else { "s" },
+        names.join(", "),
+        display::metres(c.cable.length_m),
+        c.area_group,
+        c.area_t_class.map(|t| format!(" {t}")).unwrap_or_default()
+    )
+}
+
 /// A source's entity output parameters, `Uo 28 V, Io 93 mA, Po 0.65 W, Co 83 nF, Lo 4.2 mH`
 /// (joined by `sep`).
 pub fn source_parameters(s: &Source, sep: &str) -> String {
