@@ -9,10 +9,11 @@
 //!
 //! Worked examples published in instrument manuals are reproduced in
 //! `tests/intrinsic_published.rs` (a pass, a fail on inductance, the 1 % rule changing a
-//! verdict, a fail on voltage from published values). The examples here are worked by
-//! hand in the comment beside each assertion; for two cases no published example was
-//! found at all: a failure on capacitance caused by the cable, and a pass by the L/R
-//! route. The barrier is a typical "28 V, 93 mA, 0.65 W" channel whose IIC output
+//! verdict, a fail on voltage from published values, a published longest cable by
+//! capacitance and a longer one failing). The examples here are worked by hand in the
+//! comment beside each assertion; for two cases no published worked example of a whole
+//! circuit was found: a failure on capacitance caused by the cable (only its capacitance
+//! limit is published), and a pass by the L/R route. The barrier is a typical "28 V, 93 mA, 0.65 W" channel whose IIC output
 //! parameters (Co 83 nF, Lo 4.2 mH, Lo/Ro 55 µH/Ω) match the limits a published
 //! fire-system installation manual lists for such a channel (cable limits table: IIC
 //! 0.083 µF, 4.2 mH, 55 µH/Ω); the devices and cables are invented.
@@ -138,7 +139,8 @@ fn a_transmitter_on_200_m_of_instrument_cable_passes_with_its_margins() {
 
 #[test]
 fn the_same_loop_on_800_m_fails_on_capacitance_because_of_the_cable() {
-    // Worked by hand (no published example of this case was found): 5 nF + 800 m ×
+    // Worked by hand (no published example of a whole circuit failing so was found; a
+    // published capacitance limit is in tests/intrinsic_published.rs): 5 nF + 800 m ×
     // 100 pF/m = 85 nF > 83 nF: short by 2 nF. Every other check passes.
     let v = check(&circuit(
         vec![transmitter(5.0, 10.0)],

@@ -18,6 +18,11 @@
 //!   counted, is < 1 % of Lo or Co; reduced to 50 % where both are ≥ 1 %; the reduced
 //!   capacitance, cable included, not above 1 µF for IIB and IIA and 600 nF for IIC), as
 //!   published at azmanual.top/manuals/580084/…?page=20.
+//! - [CM-S506] Compur Monitors, "Statox 506" operating manual, 3.2 "Electrical
+//!   Connection", p. 6: the longest cable l_max = (Co − Ci) / C_L, worked for a repeater
+//!   with Co = 705 nF, a sensor head with Ci = 24 nF and LiYCY 0.75 mm² cable of
+//!   150 nF/km: l_max = 4540 m (as published at
+//!   easymanua.ls/compur-monitors/statox-506/manual?p=6).
 //!
 //! Both worked examples predate, or do not apply, the 1 % rule: their arithmetic compares
 //! the sums with the full Co and Lo. loopside applies the rule, so where it changes an
@@ -25,9 +30,10 @@
 //! against the rule.
 //!
 //! What no published source was found for (kept hand-worked in tests/intrinsic_entity.rs
-//! and said so there): a circuit failing on capacitance because of the cable alone, and
-//! one passed by the L/R route. The voltage failure below combines two parameter sets the
-//! same manual publishes; the combination itself is ours, not the manual's.
+//! and said so there): a whole circuit failing on capacitance because of the cable alone
+//! ([CM-S506] publishes the capacitance limit only, checked below), and one passed by the
+//! L/R route. The voltage failure below combines two parameter sets the same manual
+//! publishes; the combination itself is ours, not the manual's.
 
 use loopside::intrinsic::{
     check, Cable, CableLimit, Check, CheckName, Circuit, Compared, Device, DeviceKind, GasGroup,
@@ -332,4 +338,79 @@ fn a_fisco_rated_transmitter_on_the_entity_supply_fails_on_voltage() {
         }
         _ => unreachable!(),
     }
+}
+
+// ---------------------------------------------------------------------------------------
+// [CM-S506]: the longest cable a repeater's Co allows a sensor head; one longer fails.
+// ---------------------------------------------------------------------------------------
+
+/// The example gives capacitances only. Everything else is set so that it cannot decide:
+/// the same voltage, current and power on both sides (they pass with 0 margin), Lo
+/// 10 mH, no Li and a cable with no inductance per metre. With no Li the 1 % rule does not
+/// apply; a sensor head with Li of 1 % of Lo or more would halve Co (see src/intrinsic).
+/// None of these are values from the manual.
+fn cm_example(length_m: f64) -> Circuit {
+    Circuit {
+        source: Source {
+            name: "repeater".into(),
+            certificate: String::new(),
+            uo_volts: 20.0,
+            io_ma: 100.0,
+            po_watts: POWER_NOT_GIVEN_W,
+            co_farads: 705.0 * NF, // [CM-S506] repeater Co = 705 nF
+            lo_henries: 10.0 * MH,
+            lo_ro_henries_per_ohm: None,
+            group: None,
+        },
+        // [CM-S506] sensor head Ci = 24 nF.
+        devices: vec![entity(
+            "sensor head",
+            20.0,
+            100.0,
+            POWER_NOT_GIVEN_W,
+            24.0,
+            0.0,
+        )],
+        cable: Cable {
+            length_m,
+            farads_per_m: Some(150.0 * PF), // [CM-S506] LiYCY 0.75 mm²: C_L = 150 nF/km
+            henries_per_m: Some(0.0),
+            lr_henries_per_ohm: None,
+        },
+        area_group: GasGroup::IIB,
+        area_t_class: None,
+    }
+}
+
+#[test]
+fn a_sensor_head_cable_longer_than_the_manuals_4540_m_fails_on_capacitance() {
+    // [CM-S506] l_max = (705 nF − 24 nF) / 150 nF/km = 4540 m.
+    let v = check(&cm_example(1000.0)).unwrap();
+    assert!(v.ok && !v.halved);
+    match v.max_cable {
+        CableLimit::Metres { metres, by } => {
+            close(metres, 4540.0, 1e-6, "longest cable");
+            assert_eq!(by, CheckName::Capacitance);
+        }
+        other => panic!("{other:?}"),
+    }
+    // At 4540 m nothing is left; 100 m more (by hand: 24 nF + 4.64 km × 150 nF/km =
+    // 720 nF > 705 nF) fails on capacitance alone, short by 15 nF: the cable did it.
+    let at = check(&cm_example(4540.0)).unwrap();
+    close(
+        numbers(find(&at, CheckName::Capacitance, None)).2,
+        0.0,
+        1e-15,
+        "margin at l_max",
+    );
+    let v = check(&cm_example(4640.0)).unwrap();
+    assert!(!v.ok);
+    let failed: Vec<CheckName> = v.checks.iter().filter(|c| !c.ok).map(|c| c.name).collect();
+    assert_eq!(failed, vec![CheckName::Capacitance]);
+    close(
+        numbers(find(&v, CheckName::Capacitance, None)).2,
+        -15.0 * NF,
+        1e-15,
+        "C margin",
+    );
 }
