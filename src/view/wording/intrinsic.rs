@@ -261,7 +261,7 @@ pub fn notes(circuit: &Circuit, v: &Verdict) -> Vec<String> {
     let mut out = Vec::new();
     if v.halved {
         out.push(format!(
-            "The devices' Ci and Li both exceed 1 % of Co and Lo, so only half of Co and Lo is used (IEC 60079-14){}.",
+            "The devices' Ci and Li are both at least 1 % of Co and Lo, so only half of Co and Lo is used (IEC 60079-14){}.",
             if v.capped {
                 format!(
                     ", and the capacitance is held to {} for {}",
