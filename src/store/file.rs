@@ -402,6 +402,13 @@ impl FileStore {
     /// idle. A failure loses nothing: the journal is the record.
     pub fn write_snapshot(&mut self) -> StoreResult<()> {
         let path = self.folder.join(SNAPSHOT_FILE);
+        // The snapshot's layout holds tags and entries only. Once the journal holds
+        // reference instruments a new snapshot would leave them out, so none is written:
+        // the snapshot there stays valid (the journal only grows) and the references,
+        // saved after it, are read from the journal's tail on every open.
+        if !self.register.references().is_empty() {
+            return Ok(());
+        }
         let entries = self.register.entries();
         if let Some(why) = self.register.load_failure() {
             return Err(StoreError::Io {
@@ -497,7 +504,7 @@ fn open_from_snapshot(
             .into_iter()
             .filter_map(|r| match r {
                 Record::Entry(e) => Some(e),
-                Record::Tag(_) => None,
+                Record::Tag(_) | Record::Reference(_) => None,
             })
             .collect())
     });

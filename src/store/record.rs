@@ -55,6 +55,10 @@ pub enum Record {
     Tag(TagRecord),
     /// A log entry was written.
     Entry(Entry),
+    /// A reference instrument was added or edited (the last line for an id, matched
+    /// without regard to case, is its current definition). Written since references were
+    /// kept in the store; stores without them read as before.
+    Reference(crate::calibration::reference::Reference),
 }
 
 /// A 64-bit check value over `bytes`. Every step is a bijection of the running state, so
