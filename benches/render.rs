@@ -53,6 +53,7 @@ fn bundle(tags: Vec<TagRecord>) -> Bundle {
         until: None,
         tags,
         entries: Vec::new(),
+        references: Vec::new(),
     }
 }
 

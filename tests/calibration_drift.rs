@@ -232,3 +232,77 @@ fn the_command_line_gives_the_issue_keys() {
         .unwrap()
         .contains("730 days"));
 }
+
+#[test]
+fn the_demo_plant_carries_references_intervals_a_trip_loop_and_three_years_of_history() {
+    let now = util::afternoon();
+    let store = util::brindlemoor(now);
+    // Three invented references; the decade box is past due.
+    let ids: Vec<&str> = store.references().iter().map(|r| r.id.as_str()).collect();
+    assert_eq!(ids, ["PM-07", "MC-02", "DB-03"]);
+    assert!(store
+        .reference("DB-03")
+        .unwrap()
+        .days_past_due(now.date_naive())
+        .is_some());
+    // Every tag has an interval.
+    assert!(store
+        .tags()
+        .iter()
+        .all(|t| t.tag.calibration_interval_days.is_some()));
+    // LT-101: as found +0.10, +0.18, +0.27 % of span one, two and three years ago, each
+    // 365 days apart: least squares over (0, 0.10), (1, 0.18), (2, 0.27) per 365 days
+    // gives 0.085 % per 365 days, = 0.085 × 365.25 / 365 per year.
+    let lt101 = store.tag("LT-101").unwrap();
+    let d = drift(
+        store.entries().iter().filter(|e| e.tag == lt101.id),
+        lt101.tag.tolerance_percent,
+        lt101.tag.calibration_interval_days,
+        Policy::default(),
+    )
+    .unwrap();
+    close(
+        d.rate_pct_per_year.unwrap(),
+        0.085 * 365.25 / 365.0,
+        1e-9,
+        "LT-101 drift",
+    );
+    assert_eq!(d.visits.len(), 3);
+    // The demo's payloads are the shape the application layer writes.
+    for e in store
+        .entries()
+        .iter()
+        .filter(|e| e.tag == lt101.id && e.kind == loopside::journal::Kind::LoopCheck)
+    {
+        let p = e.payload.clone().unwrap();
+        let result: loopside::check::CheckResult = serde_json::from_value(p.clone()).unwrap();
+        assert_eq!(loopside::action::check::payload(&result, None).unwrap(), p);
+    }
+    // LT-610: two yearly trip tests, in the shape `action::trip` writes, both passed.
+    let lt610 = store.tag("LT-610").unwrap();
+    let trips: Vec<_> = store
+        .entries()
+        .iter()
+        .filter(|e| e.tag == lt610.id && e.kind == loopside::journal::Kind::TripTest)
+        .collect();
+    assert_eq!(trips.len(), 2);
+    for e in trips {
+        let p = e.payload.clone().unwrap();
+        let r = loopside::action::trip::result_of(&p).unwrap();
+        assert!(r.pass);
+        assert_eq!(loopside::action::trip::payload(&r).unwrap(), p);
+    }
+    // What is due a year after LT-101's last visit: it falls due today.
+    let due = loopside::calibration::due::due_list(
+        store.tags().iter().map(|t| (&t.id, &t.tag)),
+        store.entries(),
+        now.date_naive(),
+        7,
+        false,
+    );
+    assert!(
+        due.iter()
+            .any(|i| i.tag == "LT-101" && i.days_left == Some(0)),
+        "{due:?}"
+    );
+}

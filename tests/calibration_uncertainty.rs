@@ -344,12 +344,13 @@ fn an_older_check_record_without_references_still_reads() {
 }
 
 #[test]
-fn references_are_kept_across_reopening_with_a_snapshot_and_travel_in_bundles() {
+fn references_are_kept_across_reopening_from_a_snapshot_and_travel_in_bundles() {
     let dir = TempDir::new("ref-store");
     let now = util::afternoon();
     {
         let mut s = FileStore::open(dir.path()).unwrap();
-        loopside::demo::fill(&mut s, now).unwrap();
+        let tag = loopside::tag::Tag::new("PT-204", Scale::linear(0.0, 10.0, "bar").unwrap());
+        s.add_tag(tag.unwrap()).unwrap();
         s.write_snapshot().unwrap();
         s.save_reference(module()).unwrap();
         s.save_reference(meter()).unwrap();
@@ -372,7 +373,17 @@ fn references_are_kept_across_reopening_with_a_snapshot_and_travel_in_bundles() 
         let mut s = FileStore::open(dir.path()).unwrap();
         s.write_snapshot().unwrap();
     }
-    assert_eq!(FileStore::open(dir.path()).unwrap().references().len(), 2);
+    let reopened = FileStore::open(dir.path()).unwrap();
+    assert!(
+        reopened.opened_from_snapshot(),
+        "a snapshot is written with references too"
+    );
+    assert_eq!(reopened.references().len(), 2);
+    assert_eq!(
+        reopened.reference("PM-07").unwrap().calibration_due,
+        date(2028, 3, 31)
+    );
+    drop(reopened);
     // Importing the bundle twice into another store adds them once.
     let mut other = MemoryStore::new();
     let first = other.import(&bundle).unwrap();
@@ -398,7 +409,12 @@ fn references_are_kept_across_reopening_with_a_snapshot_and_travel_in_bundles() 
 fn the_command_line_keeps_references_and_a_check_names_them() {
     let dir = TempDir::new("cli-ref");
     let d = dir.arg();
-    assert!(loopside(&["--data-dir", &d, "demo"]).status.success());
+    let pt204 = ["tag", "add", "PT-204", "--range", "0..10", "--unit", "bar"];
+    assert!(
+        loopside(&[&["--data-dir", d.as_str()][..], &pt204[..]].concat())
+            .status
+            .success()
+    );
     let added = loopside(&[
         "--data-dir",
         &d,

@@ -755,23 +755,25 @@ pub trait Store {
                 .cloned();
             match here {
                 Some(here) => {
-                    // A planner's bundle sets calibration intervals: one is taken for a
-                    // tag that has none here (an interval set here is kept).
-                    let mut kept = here.tag.clone();
-                    if kept.calibration_interval_days.is_none()
+                    // A planner's bundle sets calibration intervals: a tag here with none,
+                    // and otherwise defined as in the bundle, takes the bundle's (an
+                    // interval set here, or a tag defined differently, is kept).
+                    let mut with_interval = here.tag.clone();
+                    with_interval.calibration_interval_days =
+                        incoming.tag.calibration_interval_days;
+                    if here.tag.calibration_interval_days.is_none()
                         && incoming.tag.calibration_interval_days.is_some()
+                        && with_interval == incoming.tag
                     {
-                        kept.calibration_interval_days = incoming.tag.calibration_interval_days;
                         records.push(Record::Tag(TagRecord {
                             id: here.id.clone(),
-                            tag: kept.clone(),
+                            tag: with_interval,
                         }));
                         report.intervals_set += 1;
-                    }
-                    if kept != incoming.tag {
+                    } else if here.tag != incoming.tag {
                         report.conflicts.push(TagConflict {
                             number: here.tag.number.clone(),
-                            detail: describe_difference(&kept, &incoming.tag),
+                            detail: describe_difference(&here.tag, &incoming.tag),
                         });
                     }
                     map.insert(incoming.id.clone(), here.id.clone());
