@@ -398,7 +398,7 @@ fn history(ids: &[TagId], now: DateTime<FixedOffset>) -> Result<Vec<Entry>> {
     // LT-610 high-high trip, tested rising three times each year.
     for (days_ago, trips, resets) in [
         (365, [5.43, 5.44, 5.42], [5.31, 5.32, 5.30]),
-        (6, [5.45, 5.46, 5.45], [5.33, 5.34, 5.33]),
+        (6, [5.44, 5.45, 5.44], [5.32, 5.33, 5.32]),
     ] {
         let when = at(days_ago, 10)?;
         let result = crate::calibration::trip::TripTest::new(

@@ -24,7 +24,7 @@ fn signed_fine(v: f64) -> String {
 pub fn no_rate(n: &NoRate) -> String {
     match n {
         NoRate::NoChecks => {
-            "No rate: there is no as-found check of this tag on record.".to_string()
+            "No rate: no as-found check of this tag on record gives its date and point errors (check records older than that shape are not read).".to_string()
         }
         NoRate::OneDate { date, checks } => format!(
             "No rate: the as-found results are all from one date ({date}, {checks} check(s)); a trend needs as-found checks on at least two dates."

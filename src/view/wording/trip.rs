@@ -114,12 +114,11 @@ fn cell(text: &str) -> String {
 pub fn lines(r: &TripResult) -> Vec<String> {
     let mut out = vec![
         format!(
-            "Setpoint {} ({}), tolerance ±{} of span ({} span {})",
+            "Setpoint {} ({}), tolerance ±{} of span (span {})",
             value(r, r.setpoint),
             direction(r.direction),
             display::percent(r.tolerance_pct),
-            if r.unit.is_empty() { "value" } else { &r.unit },
-            display::value_number(r.span, r.span)
+            value(r, r.span)
         ),
         format!("Current: {}", ramp(r)),
     ];
