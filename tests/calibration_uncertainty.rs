@@ -346,9 +346,12 @@ fn an_older_check_record_without_references_still_reads() {
 #[test]
 fn references_are_kept_across_reopening_from_a_snapshot_and_travel_in_bundles() {
     let dir = TempDir::new("ref-store");
+    // Other tests of this file start the binary: a child process holds a copy of a store's
+    // lock between its fork and its exec, so a store reopened at once may wait a moment.
+    let open = |p: &std::path::Path| FileStore::open_waiting(p, std::time::Duration::from_secs(10));
     let now = util::afternoon();
     {
-        let mut s = FileStore::open(dir.path()).unwrap();
+        let mut s = open(dir.path()).unwrap();
         let tag = loopside::tag::Tag::new("PT-204", Scale::linear(0.0, 10.0, "bar").unwrap());
         s.add_tag(tag.unwrap()).unwrap();
         s.write_snapshot().unwrap();
@@ -358,7 +361,7 @@ fn references_are_kept_across_reopening_from_a_snapshot_and_travel_in_bundles() 
         later.calibration_due = date(2028, 3, 31);
         s.save_reference(later).unwrap();
     }
-    let s = FileStore::open(dir.path()).unwrap();
+    let s = open(dir.path()).unwrap();
     assert!(s.opened_from_snapshot());
     assert_eq!(s.references().len(), 2);
     assert_eq!(
@@ -370,10 +373,10 @@ fn references_are_kept_across_reopening_from_a_snapshot_and_travel_in_bundles() 
     drop(s);
     // The store still opens with both after a snapshot is asked for again.
     {
-        let mut s = FileStore::open(dir.path()).unwrap();
+        let mut s = open(dir.path()).unwrap();
         s.write_snapshot().unwrap();
     }
-    let reopened = FileStore::open(dir.path()).unwrap();
+    let reopened = open(dir.path()).unwrap();
     assert!(
         reopened.opened_from_snapshot(),
         "a snapshot is written with references too"
