@@ -11,14 +11,14 @@
 use i_slint_backend_testing::{AccessibleRole, ElementRoot};
 use loopside::app::render::{Frame, Headless, PHONE};
 use loopside::app::{load_or_demo, screen_name, AppState, Screen, SCREENS};
-use slint::platform::software_renderer::RepaintBufferType;
-use slint::platform::{PointerEventButton, WindowEvent};
-use slint::ComponentHandle;
 use loopside::journal::{Entry, Kind, TagId};
 use loopside::report::{Bundle, BUNDLE_SCHEMA};
 use loopside::scale::Scale;
 use loopside::store::{FileStore, Store, TagRecord};
 use loopside::tag::Tag;
+use slint::platform::software_renderer::RepaintBufferType;
+use slint::platform::{PointerEventButton, WindowEvent};
+use slint::ComponentHandle;
 use std::path::{Path, PathBuf};
 use std::time::{Duration, Instant};
 
@@ -64,6 +64,7 @@ fn bundle(tags: Vec<TagRecord>) -> Bundle {
         until: None,
         tags,
         entries: Vec::new(),
+        references: Vec::new(),
     }
 }
 
@@ -139,8 +140,7 @@ fn focus_field(h: &Headless, label: &str, start: &str) -> bool {
         .into_iter()
         .find(|e| {
             e.accessible_role() == Some(AccessibleRole::TextInput)
-                && e.accessible_label()
-                    .is_some_and(|l| l.starts_with(label))
+                && e.accessible_label().is_some_and(|l| l.starts_with(label))
         })
     else {
         eprintln!("keystroke bench: no text field labelled {label:?}");
@@ -266,10 +266,7 @@ fn main() {
             ("swapped", RepaintBufferType::SwappedBuffers),
         ] {
             if let Some(m) = keystrokes(&h, &mut frame, screen, label, start, kind, rounds) {
-                println!(
-                    "  {what:<20} {buffer:<8} {:>6.3} ms",
-                    m.as_secs_f64() * 1e3
-                );
+                println!("  {what:<20} {buffer:<8} {:>6.3} ms", m.as_secs_f64() * 1e3);
             }
         }
     }

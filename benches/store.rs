@@ -108,6 +108,7 @@ fn workload() -> Bundle {
         until: None,
         tags,
         entries,
+        references: Vec::new(),
     }
 }
 
@@ -306,6 +307,7 @@ fn bench_sqlite(path: &Path, bundle: &Bundle) -> [f64; 5] {
                 .cloned()
                 .collect(),
             entries: entries.clone(),
+            references: Vec::new(),
         };
         report::csv(&b).len()
     });

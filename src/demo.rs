@@ -1,7 +1,7 @@
 //! The demo plant: Brindlemoor Water Reclamation Works, an invented municipal plant.
 //!
-//! Seven tags with the ranges, transfers and loops of the product brief, and a few days
-//! of plausible log entries (an open follow-up, a loop check that failed as found and
+//! Eight tags (the ranges, transfers and loops of the product brief, and a trip loop) and
+//! a few days of plausible log entries (an open follow-up, a loop check that failed as found and
 //! passed as left, a fault-finding session that found a loose wire, ordinary notes).
 //! People appear by initials only. [`fill`] puts it all into an empty store and refuses
 //! a store that already holds anything.
@@ -10,6 +10,12 @@
 //! one IS check in its log are invented demo values (plausible for a 28 V / 93 mA
 //! barrier channel and a temperature transmitter), marked as demo in their names and
 //! certificate references.
+//!
+//! Calibration (invented, for the demo): three reference instruments (a pressure module, a
+//! loop calibrator for mA, a decade box, the last one past its calibration due date),
+//! calibration intervals on every tag, a trip loop (LT-610, the digester gas holder's
+//! high-high level trip to a safety function) with its yearly trip tests, and three years
+//! of as-found checks of LT-101 whose error grows visit by visit.
 //!
 //! Where the brief gives no figure, the plant standard assumed here is a 24 V supply and
 //! a 10.5 V transmitter minimum; those are marked in each tag's notes.
@@ -130,7 +136,7 @@ pub fn tt412_circuit() -> crate::intrinsic::Circuit {
     }
 }
 
-/// The seven demo tags, as in the product brief.
+/// The demo tags: the seven of the product brief and the trip loop LT-610.
 pub fn tags() -> Result<Vec<Tag>> {
     let mut lt101 = tag(
         "LT-101",
@@ -226,7 +232,72 @@ pub fn tags() -> Result<Vec<Tag>> {
         Scale::linear(250.0, 0.0, "mbar")?,
     )?;
 
-    Ok(vec![lt101, pt204, ft310, tt412, at520, lt605, pdt707])
+    let mut lt610 = tag(
+        "LT-610",
+        "Digester gas holder level",
+        "Digester gas holder",
+        Scale::linear(0.0, 6.0, "m")?,
+    )?;
+    lt610.tolerance_percent = 1.0;
+    lt610.notes = format!(
+        "High-high level trip at {} m (rising) to the gas holder's safety function via a trip amplifier (demo); proof-tested yearly. {ASSUMED}",
+        LT610_TRIP_M
+    );
+    lt610.loop_config = Some(plant_loop(vec![SeriesElement::ohms(
+        "trip amplifier input",
+        250.0,
+    )]));
+
+    let mut all = vec![lt101, pt204, ft310, tt412, at520, lt605, pdt707, lt610];
+    // Calibration intervals, days (invented plant policy).
+    for (t, days) in all.iter_mut().zip([365, 365, 180, 365, 90, 730, 365, 365]) {
+        t.calibration_interval_days = Some(days);
+    }
+    Ok(all)
+}
+
+/// LT-610's high-high trip setpoint, m.
+pub const LT610_TRIP_M: f64 = 5.4;
+
+/// The demo's reference instruments (invented), with due dates set from `today`: the
+/// pressure module and the loop calibrator are in date, the decade box 12 days past due.
+pub fn references(today: chrono::NaiveDate) -> Vec<crate::calibration::reference::Reference> {
+    use crate::calibration::reference::{FullScaleBasis, Reference, ReferenceAccuracy};
+    let accuracy = |reading: f64, full_scale: f64, fixed: f64| ReferenceAccuracy {
+        percent_of_reading: reading,
+        percent_of_full_scale: full_scale,
+        basis: FullScaleBasis::FullScale,
+        fixed,
+    };
+    vec![
+        Reference {
+            id: "PM-07".to_string(),
+            description: "Pressure module 0–20 bar (demo)".to_string(),
+            unit: "bar".to_string(),
+            range_low: 0.0,
+            range_high: 20.0,
+            accuracy: accuracy(0.025, 0.01, 0.0),
+            calibration_due: today + Duration::days(150),
+        },
+        Reference {
+            id: "MC-02".to_string(),
+            description: "Loop calibrator, mA measure and source (demo)".to_string(),
+            unit: "mA".to_string(),
+            range_low: 0.0,
+            range_high: 24.0,
+            accuracy: accuracy(0.01, 0.005, 0.001),
+            calibration_due: today + Duration::days(40),
+        },
+        Reference {
+            id: "DB-03".to_string(),
+            description: "Decade resistance box (demo)".to_string(),
+            unit: "Ω".to_string(),
+            range_low: 0.0,
+            range_high: 400.0,
+            accuracy: accuracy(0.02, 0.0, 0.01),
+            calibration_due: today - Duration::days(12),
+        },
+    ]
 }
 
 /// What [`fill`] added.
@@ -255,10 +326,14 @@ pub fn fill(store: &mut dyn Store, now: DateTime<FixedOffset>) -> StoreResult<De
     for t in tags()? {
         ids.push(store.add_tag(t)?);
     }
-    let entries = entries(&ids, now)?;
+    let mut entries = history(&ids, now)?;
+    entries.extend(entries_of_the_week(&ids, now)?);
     let n = entries.len();
     for e in entries {
         store.append(e)?;
+    }
+    for r in references(now.date_naive()) {
+        store.save_reference(r)?;
     }
     Ok(DemoSummary {
         tags: ids.len(),
@@ -266,8 +341,99 @@ pub fn fill(store: &mut dyn Store, now: DateTime<FixedOffset>) -> StoreResult<De
     })
 }
 
-/// The demo log for tag ids in the order of [`tags`], ending just before `now`.
-fn entries(ids: &[TagId], now: DateTime<FixedOffset>) -> Result<Vec<Entry>> {
+/// The calibration history, oldest first: LT-101's as-found checks one, two and three
+/// years before `now` (the error growing visit by visit, never adjusted: each passed), and
+/// LT-610's yearly trip tests a year ago and last week.
+fn history(ids: &[TagId], now: DateTime<FixedOffset>) -> Result<Vec<Entry>> {
+    let tags = tags()?;
+    let (Some(lt101_id), Some(lt610_id), Some(lt101), Some(lt610)) =
+        (ids.first(), ids.get(7), tags.first(), tags.get(7))
+    else {
+        return Err(FieldError::new("demo", "tag list is shorter than expected"));
+    };
+    let offset = *now.offset();
+    let at = |days_ago: i64, h: u32| -> Result<DateTime<FixedOffset>> {
+        let date = now.date_naive() - Duration::days(days_ago);
+        offset
+            .from_local_datetime(&date.and_hms_opt(h, 0, 0).unwrap_or_default())
+            .single()
+            .ok_or_else(|| FieldError::new("demo", "bad local time"))
+    };
+    let to_json = |v: std::result::Result<serde_json::Value, serde_json::Error>| {
+        v.map_err(|e| FieldError::new("demo", e.to_string()))
+    };
+    let mut v = Vec::new();
+    // LT-101 as found: +0.10, +0.18, +0.27 % of span at every point (0.016, 0.0288,
+    // 0.0432 mA high), within ±0.5 %, left as found.
+    for (days_ago, offset_ma) in [(1095, 0.016), (730, 0.0288), (365, 0.0432)] {
+        let when = at(days_ago, 9)?;
+        let measured: Vec<f64> = [4.0, 8.0, 12.0, 16.0, 20.0, 16.0, 12.0, 8.0, 4.0]
+            .iter()
+            .map(|m| m + offset_ma)
+            .collect();
+        let result = crate::check::LoopCheck::for_tag(
+            lt101,
+            crate::check::Device::Transmitter,
+            when.date_naive(),
+        )
+        .note("Yearly check (demo history); left as found.")
+        .run_planned(&measured)?;
+        let mut e = Entry::new(
+            lt101_id,
+            when,
+            "AB",
+            Kind::LoopCheck,
+            &format!(
+                "Yearly five-point check as found: pass, every point {} % of span high; left as found.",
+                crate::display::signed_percent_number(offset_ma / 16.0 * 100.0)
+            ),
+        )?;
+        // The shape `crate::action::check::payload` writes (version 2); a test keeps the
+        // two alike.
+        let mut payload = to_json(serde_json::to_value(&result))?;
+        payload["payload_version"] = json!(2);
+        e.payload = Some(payload);
+        v.push(e);
+    }
+    // LT-610 high-high trip, tested rising three times each year.
+    for (days_ago, trips, resets) in [
+        (365, [5.43, 5.44, 5.42], [5.31, 5.32, 5.30]),
+        (6, [5.44, 5.45, 5.44], [5.32, 5.33, 5.32]),
+    ] {
+        let when = at(days_ago, 10)?;
+        let result = crate::calibration::trip::TripTest::new(
+            &lt610.scale,
+            when.date_naive(),
+            LT610_TRIP_M,
+            crate::calibration::trip::TripDirection::Rising,
+            lt610.tolerance_percent,
+        )
+        .tag_number(&lt610.number)
+        .note("Yearly proof test of the high-high trip (demo); bypassed under permit, restored, operations told.")
+        .run(&trips, &resets)?;
+        let mut e = Entry::new(
+            lt610_id,
+            when,
+            "CD",
+            Kind::TripTest,
+            &format!(
+                "Trip test at {} m, trips on rising: {} (demo history)",
+                LT610_TRIP_M,
+                if result.pass { "PASS" } else { "FAIL" }
+            ),
+        )?;
+        // The shape `crate::action::trip::payload` writes (version 1).
+        let mut payload = to_json(serde_json::to_value(&result))?;
+        payload["payload_version"] = json!(1);
+        e.payload = Some(payload);
+        v.push(e);
+    }
+    Ok(v)
+}
+
+/// The demo log of the last few days for tag ids in the order of [`tags`], ending just
+/// before `now`.
+fn entries_of_the_week(ids: &[TagId], now: DateTime<FixedOffset>) -> Result<Vec<Entry>> {
     let id = |i: usize| {
         ids.get(i)
             .cloned()

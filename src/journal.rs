@@ -109,17 +109,21 @@ pub enum Kind {
     /// An intrinsic-safety check of the loop's circuit (entity concept) with its inputs
     /// and results (`crate::action::intrinsic`).
     IsCheck,
+    /// A trip or alarm test: setpoint, trip and reset values over the runs, verdict
+    /// (`crate::action::trip`).
+    TripTest,
 }
 
 impl Kind {
     /// Every kind, in the order the UI lists them.
-    pub const ALL: [Kind; 6] = [
+    pub const ALL: [Kind; 7] = [
         Kind::Note,
         Kind::Finding,
         Kind::LoopCheck,
         Kind::FaultFinding,
         Kind::FollowUp,
         Kind::IsCheck,
+        Kind::TripTest,
     ];
 
     /// The kind as written on the command line and in files (`loop-check`).
@@ -131,6 +135,7 @@ impl Kind {
             Kind::FaultFinding => "fault-finding",
             Kind::FollowUp => "follow-up",
             Kind::IsCheck => "is-check",
+            Kind::TripTest => "trip-test",
         }
     }
 
@@ -149,7 +154,7 @@ impl Kind {
                 FieldError::new(
                     "kind",
                     format!(
-                        "'{}' is not a kind; use one of note, finding, loop-check, fault-finding, follow-up, is-check",
+                        "'{}' is not a kind; use one of note, finding, loop-check, fault-finding, follow-up, is-check, trip-test",
                         text.trim()
                     ),
                 )

@@ -13,6 +13,7 @@
 //!   should see for a given temperature or level;
 //! - [`intrinsic`] — intrinsic safety of a loop by the entity concept (barrier or isolator,
 //!   field devices, cable);
+//! - [`calibration`] — trip and alarm tests (and what comes around a loop check);
 //! - [`caution`] and [`leave`] — the cautions shown before work on a loop, and the
 //!   "before you leave" list recorded after it;
 //! - [`action`] — one function per action a technician takes (notes, tags, checks,
@@ -30,6 +31,7 @@ pub mod units;
 pub use error::{FieldError, Result};
 pub mod action;
 pub mod budget;
+pub mod calibration;
 pub mod caution;
 pub mod check;
 pub mod cli;

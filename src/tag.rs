@@ -57,7 +57,16 @@ pub struct Tag {
     /// before this field open unchanged.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub intrinsic: Option<crate::intrinsic::Circuit>,
+    /// How often the loop is to be checked, in days (`crate::calibration::due`); `None`
+    /// when the plant has not set one. Stores written before this field open unchanged.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub calibration_interval_days: Option<u32>,
 }
+
+/// Shortest calibration interval a tag may carry, days.
+pub const MIN_INTERVAL_DAYS: u32 = 1;
+/// Longest calibration interval a tag may carry, days (ten years).
+pub const MAX_INTERVAL_DAYS: u32 = 3653;
 
 fn default_tolerance() -> f64 {
     DEFAULT_TOLERANCE_PERCENT
@@ -79,6 +88,7 @@ impl Tag {
             archived: false,
             sensor: None,
             intrinsic: None,
+            calibration_interval_days: None,
         };
         tag.validate()?;
         Ok(tag)
@@ -108,6 +118,16 @@ impl Tag {
         }
         if let Some(c) = &self.intrinsic {
             c.validate()?;
+        }
+        if let Some(days) = self.calibration_interval_days {
+            if !(MIN_INTERVAL_DAYS..=MAX_INTERVAL_DAYS).contains(&days) {
+                return Err(FieldError::new(
+                    "interval",
+                    format!(
+                        "{days} days is outside {MIN_INTERVAL_DAYS} to {MAX_INTERVAL_DAYS} days (one day to ten years)"
+                    ),
+                ));
+            }
         }
         for (field, text) in [("service", &self.service), ("area", &self.area)] {
             if text.chars().count() > 200 {

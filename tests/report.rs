@@ -150,7 +150,7 @@ fn importing_a_bundle_twice_adds_nothing_the_second_time() {
     let bundle = report::parse_bundle(&text).unwrap();
     let mut other = MemoryStore::new();
     let first = other.import(&bundle).unwrap();
-    assert_eq!(first.tags_added, 7);
+    assert_eq!(first.tags_added, 8);
     assert_eq!(first.entries_added, source.entries().len());
     assert!(first.conflicts.is_empty());
     let second = other.import(&bundle).unwrap();
@@ -183,12 +183,13 @@ fn conflicting_tag_definitions_are_reported_not_overwritten() {
         mine,
         "kept the definition here"
     );
-    // Its entries joined the tag here.
+    // Its entries joined the tag here: the week's fault-finding and note, and the three
+    // yearly as-found checks of the demo history.
     let q = Query {
         tags: vec![my_id],
         ..Query::default()
     };
-    assert_eq!(other.search(&q).len(), 2);
+    assert_eq!(other.search(&q).len(), 5);
 }
 
 #[test]
@@ -205,7 +206,7 @@ fn demo_plant_matches_the_brief() {
     let numbers: Vec<&str> = tags.iter().map(|t| t.number.as_str()).collect();
     assert_eq!(
         numbers,
-        ["LT-101", "PT-204", "FT-310", "TT-412", "AT-520", "LT-605", "PDT-707"]
+        ["LT-101", "PT-204", "FT-310", "TT-412", "AT-520", "LT-605", "PDT-707", "LT-610"]
     );
     // LT-605: horizontal cylinder, 2.0 m diameter, 12 m³ full. Half the height holds
     // half the volume by symmetry; the circular-segment formula gives the rest.
@@ -258,9 +259,14 @@ fn demo_log_has_the_promised_stories() {
         kinds: vec![Kind::LoopCheck],
         ..Query::default()
     });
-    assert_eq!(checks.len(), 2);
-    assert_eq!(checks[0].payload.as_ref().unwrap()["verdict"], "fail");
-    assert_eq!(checks[1].payload.as_ref().unwrap()["verdict"], "pass");
+    // LT-101's three yearly as-found checks (demo history, all passed), then PT-204's
+    // check of this week, failed as found and passed as left.
+    assert_eq!(checks.len(), 5);
+    assert!(checks[..3]
+        .iter()
+        .all(|c| c.payload.as_ref().unwrap()["pass"] == true));
+    assert_eq!(checks[3].payload.as_ref().unwrap()["verdict"], "fail");
+    assert_eq!(checks[4].payload.as_ref().unwrap()["verdict"], "pass");
     let ff = s.search(&Query {
         text: Some("LOOSE".into()),
         kinds: vec![Kind::FaultFinding],

@@ -42,6 +42,7 @@ fuzz_target!(|input: &[u8]| {
 
     // Every intact record is kept.
     let mut last_tag = HashMap::new();
+    let mut last_reference = HashMap::new();
     for line in bytes.split(|&b| b == b'\n') {
         match decode_line::<Record>(line) {
             Some(Record::Entry(e)) => assert!(
@@ -52,11 +53,17 @@ fuzz_target!(|input: &[u8]| {
             Some(Record::Tag(t)) => {
                 last_tag.insert(t.id.clone(), t);
             }
+            Some(Record::Reference(r)) => {
+                last_reference.insert(r.id.trim().to_ascii_lowercase(), r);
+            }
             None => {}
         }
     }
     for (id, t) in &last_tag {
         assert_eq!(store.tag_by_id(id), Some(t), "intact tag {id} was lost");
+    }
+    for (id, r) in &last_reference {
+        assert_eq!(store.reference(id), Some(r), "intact reference {id} was lost");
     }
 
     // Nothing is lost from the file.

@@ -173,6 +173,21 @@ impl Imported {
                 c.number, c.detail
             )
         }));
+        if r.intervals_set > 0 {
+            lines.push(format!(
+                "Took the calibration interval of {} tag(s) that had none here.",
+                r.intervals_set
+            ));
+        }
+        if r.references_added > 0 {
+            lines.push(format!(
+                "Added {} reference instrument(s).",
+                r.references_added
+            ));
+        }
+        lines.extend(r.reference_conflicts.iter().map(|id| {
+            format!("Reference {id} differs from this store's and was kept as it is here.")
+        }));
         lines
     }
 }

@@ -12,6 +12,8 @@
 //! - [`check`] — save a loop check (one versioned payload shape);
 //! - [`intrinsic`] — store a tag's IS circuit, save an IS check (`is-check` kind, payload
 //!   version 1);
+//! - [`reference`] — add and edit reference instruments (store records of their own);
+//! - [`trip`] — save a trip or alarm test (`trip-test` kind, payload version 1);
 //! - [`session`] — save a fault-finding session;
 //! - [`bundle`] — export a hand-over, import a bundle.
 //!
@@ -22,8 +24,10 @@ pub mod bundle;
 pub mod check;
 pub mod intrinsic;
 pub mod note;
+pub mod reference;
 pub mod session;
 pub mod tag;
+pub mod trip;
 
 use crate::error::FieldError;
 use crate::journal::MAX_AUTHOR_CHARS;

@@ -24,6 +24,11 @@
 //! the test uncertainty ratio, TUR = tolerance / reference accuracy, which should be at
 //! least 4:1 (common practice).
 //!
+//! With reference instruments from the store (one or two, named by id) the check is
+//! judged again in [`uncertainty`]: each reference's data-sheet accuracy at each point in
+//! % of span, combined by root-sum-square, TUR per point, and the decision rule (simple
+//! or guarded acceptance, ILAC-G8).
+//!
 //! This module computes: results are numbers, verdicts and [`CheckWarning`] codes. The
 //! words (the one-line verdict, the log entry's text, the report's Markdown section, the
 //! warnings) are written once in [`crate::view::wording::check`].
@@ -35,6 +40,8 @@ use crate::scale::{RootLocation, Scale, Transfer};
 use crate::tag::{Tag, DEFAULT_TOLERANCE_PERCENT};
 use chrono::NaiveDate;
 use serde::{Deserialize, Serialize};
+
+pub mod uncertainty;
 
 /// The kind of log entry a check result is stored as.
 pub const LOG_KIND: &str = "loop-check";
@@ -293,6 +300,13 @@ pub struct CheckResult {
     /// sets it with [`CheckResult::left`].
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub before_leaving: Option<LeaveList>,
+    /// The check judged with the reference instruments named from the store (payload key
+    /// `uncertainty`): each point's combined reference accuracy, TUR and decision under
+    /// the rule chosen ([`uncertainty`]). `None` in records saved
+    /// before references were kept in the store, and when none was named; set with
+    /// [`CheckResult::with_references`].
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub uncertainty: Option<uncertainty::Assessment>,
 }
 
 /// A loop check being set up: the builder the app and the command line use.
@@ -708,6 +722,7 @@ impl LoopCheck {
             tur,
             warnings,
             before_leaving: None,
+            uncertainty: None,
         })
     }
 
@@ -798,6 +813,18 @@ fn hysteresis(points: &[PointResult]) -> Option<(f64, f64)> {
 }
 
 impl CheckResult {
+    /// Judge the check again with one or two reference instruments from the store under
+    /// `rule`, and keep the result in [`CheckResult::uncertainty`]. The error names the
+    /// reference whose unit cannot be compared with the loop's.
+    pub fn with_references(
+        &mut self,
+        references: &[crate::calibration::reference::Reference],
+        rule: uncertainty::DecisionRule,
+    ) -> Result<()> {
+        self.uncertainty = Some(uncertainty::assess(self, references, rule)?);
+        Ok(())
+    }
+
     /// Record what was put right before leaving the loop: `done` were ticked (or named on
     /// the command line), the rest are recorded as not done.
     pub fn left(&mut self, done: &[Item]) {

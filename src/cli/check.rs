@@ -32,15 +32,15 @@ use std::io::{BufRead, Write};
 pub struct TagArgs {
     /// Tag number, e.g. LT-101: read from the register unless --range is given.
     #[arg(long, value_name = "NUMBER")]
-    tag: Option<String>,
+    pub(super) tag: Option<String>,
     #[command(flatten)]
-    data: super::data::DataArgs,
+    pub(super) data: super::data::DataArgs,
     /// Save the result to the tag's log (needs --tag of a tag in the register).
     #[arg(long, requires = "tag")]
-    save: bool,
+    pub(super) save: bool,
     /// Initials to sign the saved entry with (stored upper-cased).
     #[arg(long, value_name = "A", requires = "save")]
-    author: Option<String>,
+    pub(super) author: Option<String>,
     #[command(flatten)]
     range: Option<RangeArgs>,
     #[command(flatten)]
@@ -55,7 +55,7 @@ pub struct TagArgs {
 
 impl TagArgs {
     /// The tag these flags describe: from the register when only --tag is given.
-    fn tag(&self) -> Result<Tag, CliError> {
+    pub(super) fn tag(&self) -> Result<Tag, CliError> {
         let Some(range) = &self.range else {
             let Some(number) = &self.tag else {
                 return Err(CliError::Input(FieldError::new(
@@ -165,6 +165,21 @@ pub struct CheckArgs {
     /// Date the reference's calibration falls due, YYYY-MM-DD.
     #[arg(long, value_name = "DATE", requires = "reference_id")]
     reference_due: Option<String>,
+    /// A reference instrument from the store (`ref add`), by id; give it twice for the
+    /// input's and the output's (a pressure module and a mA meter). Each point then gets
+    /// the references' combined accuracy (root-sum-square), its TUR and a decision.
+    #[arg(
+        long = "reference",
+        value_name = "ID",
+        conflicts_with = "reference_id",
+        action = clap::ArgAction::Append
+    )]
+    references: Vec<String>,
+    /// How a point is judged with the references: simple (|error| ≤ tolerance) or
+    /// guarded (acceptance limit = tolerance − combined reference accuracy), per
+    /// ILAC-G8:09/2019 §4.2. Default simple.
+    #[arg(long, value_name = "RULE", value_parser = ["simple", "guarded"], requires = "references")]
+    decision_rule: Option<String>,
     /// Date of the check, YYYY-MM-DD (default today).
     #[arg(long, value_name = "DATE")]
     date: Option<String>,
@@ -207,7 +222,7 @@ pub struct CheckArgs {
 }
 
 /// The tag `--save` writes to, and its store.
-fn save_target(which: &TagArgs) -> Result<(&str, crate::store::FileStore), CliError> {
+pub(super) fn save_target(which: &TagArgs) -> Result<(&str, crate::store::FileStore), CliError> {
     let number = which
         .tag
         .as_deref()
@@ -277,6 +292,22 @@ pub(super) fn check(args: CheckArgs, out: &mut dyn Write) -> CliResult {
     let measured = parse_list("measured", &args.measured)?;
     let mut result = check.run(&applied, &measured)?;
     result.left(&args.leave.items()?.unwrap_or_default());
+    if !args.references.is_empty() {
+        let rule = crate::check::uncertainty::DecisionRule::parse(
+            args.decision_rule.as_deref().unwrap_or("simple"),
+        )?;
+        // The store is opened only to read the references and closed again before a save
+        // opens it for writing.
+        let references = {
+            let store = args.which.data.open()?;
+            args.references
+                .iter()
+                .map(|id| store.require_reference(id).cloned())
+                .collect::<Result<Vec<_>, _>>()
+                .map_err(super::data::store_error)?
+        };
+        result.with_references(&references, rule)?;
+    }
     let mut value = action::payload(&result, sensor_inputs.as_ref())?;
     let saved = if args.which.save {
         let (number, mut store) = save_target(&args.which)?;

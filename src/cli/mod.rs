@@ -11,10 +11,14 @@ mod bundle;
 mod calc;
 mod check;
 pub mod data;
+mod drift;
+mod due;
 mod intrinsic;
 mod note;
+mod reference;
 mod sensors;
 mod tag;
+mod trip;
 
 use crate::error::FieldError;
 use clap::{Parser, Subcommand};
@@ -73,6 +77,14 @@ pub enum Command {
     Level(sensors::LevelArgs),
     /// Judge an as-found / as-left loop check: errors, hysteresis, verdict.
     Check(check::CheckArgs),
+    /// List the loops overdue or due for calibration (tags with an interval).
+    Due(due::DueArgs),
+    /// A tag's as-found drift over its visits: rate, when it reaches tolerance, a suggested interval.
+    Drift(drift::DriftArgs),
+    /// Keep the reference instruments (calibrators, meters) a check names: add, edit, list, show.
+    Ref(reference::RefArgs),
+    /// Judge a trip or alarm test: trip error, deadband, repeatability, the mA to inject.
+    Trip(trip::TripArgs),
     /// Find a fault step by step from a symptom and your measurements.
     Diagnose(check::DiagnoseArgs),
     /// Intrinsic safety by the entity concept: check a barrier or isolator, field devices
@@ -134,6 +146,10 @@ pub fn run_command(command: Command, out: &mut dyn Write) -> CliResult {
         Command::Tc(args) => sensors::tc(args, out),
         Command::Level(args) => sensors::level(args, out),
         Command::Check(args) => check::check(args, out),
+        Command::Trip(args) => trip::trip(args, out),
+        Command::Ref(args) => reference::reference(args, out),
+        Command::Due(args) => due::due(args, out),
+        Command::Drift(args) => drift::drift_command(args, out),
         Command::Diagnose(args) => check::diagnose(args, &mut std::io::stdin().lock(), out),
         Command::Intrinsic(args) => intrinsic::intrinsic(args, out),
         Command::Entity(args) => intrinsic::check(args, out),

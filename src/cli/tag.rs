@@ -91,6 +91,12 @@ pub struct DescribeArgs {
     /// Forget the sensor.
     #[arg(long)]
     no_sensor: bool,
+    /// Calibration interval: check the loop every N days (`loopside due` lists what is due).
+    #[arg(long, value_name = "DAYS", conflicts_with = "no_interval")]
+    interval: Option<String>,
+    /// Forget the calibration interval.
+    #[arg(long)]
+    no_interval: bool,
 }
 
 impl DescribeArgs {
@@ -153,6 +159,19 @@ impl DescribeArgs {
         }
         if self.no_sensor {
             tag.sensor = None;
+        }
+        if let Some(days) = &self.interval {
+            let n = crate::number::parse_number("interval", days)?;
+            if n.fract() != 0.0 || n < 0.0 || n > f64::from(u32::MAX) {
+                return Err(FieldError::new(
+                    "interval",
+                    format!("'{}' is not a whole number of days", days.trim()),
+                ));
+            }
+            tag.calibration_interval_days = Some(n as u32);
+        }
+        if self.no_interval {
+            tag.calibration_interval_days = None;
         }
         Ok(())
     }

@@ -8,6 +8,9 @@
 //! - [`sensor`] — the temperature sensor (RTD and its wiring, or thermocouple and cold junction);
 //! - [`intrinsic`] — an intrinsically safe circuit: barrier or isolator, devices, cable
 //!   (its own field names, not the [`Field`] table: values carry unit suffixes);
+//! - [`reference`] — a reference instrument: id, unit, range, data-sheet accuracy, due date;
+//! - [`trip`] — a trip or alarm test: setpoint, direction, trip and reset values, tolerance
+//!   (its own field names, as `intrinsic`);
 //! - [`field`] — the one table of field names every form error uses.
 //!
 //! Each parser returns a [`FormError`] naming a [`Field`]; the screens show its name, the
@@ -18,6 +21,8 @@ pub mod field;
 pub mod intrinsic;
 pub mod loop_form;
 pub mod range;
+pub mod reference;
 pub mod sensor;
+pub mod trip;
 
 pub use field::{Field, FormError};

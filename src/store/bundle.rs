@@ -32,6 +32,10 @@ pub struct Bundle {
     pub tags: Vec<TagRecord>,
     /// The entries, in log order.
     pub entries: Vec<Entry>,
+    /// The reference instruments of the register (all of them: a check names them by id).
+    /// Bundles made before references were kept have none.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub references: Vec<crate::calibration::reference::Reference>,
 }
 
 /// Gather the entries matching `query` (its date range and tags) and the tags they need.
@@ -55,6 +59,7 @@ pub fn select(store: &dyn Store, query: &Query, exported: DateTime<FixedOffset>)
         until: query.until,
         tags,
         entries,
+        references: store.references().to_vec(),
     }
 }
 

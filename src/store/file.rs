@@ -402,7 +402,7 @@ impl FileStore {
     /// idle. A failure loses nothing: the journal is the record.
     pub fn write_snapshot(&mut self) -> StoreResult<()> {
         let path = self.folder.join(SNAPSHOT_FILE);
-        let entries = self.register.entries();
+        self.register.entries();
         if let Some(why) = self.register.load_failure() {
             return Err(StoreError::Io {
                 action: "write",
@@ -410,15 +410,25 @@ impl FileStore {
                 source: io::Error::other(why.to_string()),
             });
         }
+        let covered = self.len;
+        // The snapshot's layout holds tags and entries only. The reference instruments are
+        // saved once more after the part it covers, so a store opened from it reads them
+        // from the journal's tail (the last definition of an id wins: the same one again
+        // changes nothing). They are written first: a crash before the snapshot is
+        // written leaves the old snapshot, still valid for the longer journal.
+        let references = self.register.references().to_vec();
+        if !references.is_empty() {
+            self.persist(references.into_iter().map(Record::Reference).collect())?;
+        }
         snapshot::write(
             &self.folder,
             &self.journal_path,
-            self.len,
+            covered,
             self.register.tags(),
-            entries,
+            self.register.entries(),
         )
         .map_err(io_err("write", &path))?;
-        self.covered = self.len;
+        self.covered = covered;
         self.snapshot_failed.store(false, Ordering::Relaxed);
         Ok(())
     }
@@ -497,7 +507,7 @@ fn open_from_snapshot(
             .into_iter()
             .filter_map(|r| match r {
                 Record::Entry(e) => Some(e),
-                Record::Tag(_) => None,
+                Record::Tag(_) | Record::Reference(_) => None,
             })
             .collect())
     });

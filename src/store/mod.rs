@@ -20,6 +20,7 @@ mod snapshot;
 pub use file::{FileStore, Recovery, RecoveryKind, JOURNAL_FILE, LOCK_FILE};
 pub use snapshot::{SNAPSHOT_FILE, SNAPSHOT_TAIL_BYTES};
 
+use crate::calibration::reference::Reference;
 use crate::error::FieldError;
 use crate::journal::{self, Entry, EntryId, Query, TagId};
 use crate::tag::{clean_number, Tag};
@@ -112,6 +113,8 @@ pub struct Register {
     single: OnceCell<Box<[OnceCell<Entry>]>>,
     /// The follow-ups the snapshot's entries close, from the aid.
     aid_closed: OnceCell<Vec<EntryId>>,
+    /// The reference instruments, each as last defined, in the order first added.
+    references: Vec<Reference>,
 }
 
 impl std::fmt::Debug for Register {
@@ -243,7 +246,16 @@ impl Register {
                 }
                 entries.push(e);
             }
+            Record::Reference(r) => match self.references.iter_mut().find(|o| o.is(&r.id)) {
+                Some(here) => *here = r,
+                None => self.references.push(r),
+            },
         }
+    }
+
+    /// The reference instruments, each as last defined, in the order first added.
+    pub fn references(&self) -> &[Reference] {
+        &self.references
     }
 
     /// Every tag, archived ones included, in the order they were first added.
@@ -430,6 +442,12 @@ pub struct ImportReport {
     pub entries_already_here: usize,
     /// Tags whose definition here differs from the bundle's; the one here was kept.
     pub conflicts: Vec<TagConflict>,
+    /// Tags here without a calibration interval that took the bundle's.
+    pub intervals_set: usize,
+    /// Reference instruments that were new here and were added.
+    pub references_added: usize,
+    /// Ids of reference instruments defined differently here; the one here was kept.
+    pub reference_conflicts: Vec<String>,
 }
 
 /// A tag defined differently here and in an imported bundle.
@@ -618,6 +636,41 @@ pub trait Store {
         Ok(id)
     }
 
+    /// The reference instruments, each as last defined.
+    fn references(&self) -> &[Reference] {
+        self.register().references()
+    }
+
+    /// The reference instrument with this id (matched without regard to case).
+    fn reference(&self, id: &str) -> Option<&Reference> {
+        self.references().iter().find(|r| r.is(id))
+    }
+
+    /// The reference instrument with this id, or an error naming `reference` that lists
+    /// the ids there are.
+    fn require_reference(&self, id: &str) -> StoreResult<&Reference> {
+        self.reference(id).ok_or_else(|| {
+            let ids: Vec<&str> = self.references().iter().map(|r| r.id.as_str()).collect();
+            let known = if ids.is_empty() {
+                "there are none yet; add one with `ref add`".to_string()
+            } else {
+                format!("there are {}", ids.join(", "))
+            };
+            FieldError::new(
+                "reference",
+                format!("no reference instrument '{}'; {known}", id.trim()),
+            )
+            .into()
+        })
+    }
+
+    /// Save a reference instrument (new, or a new definition of one with the same id);
+    /// durable once it returns. Its fields are checked first.
+    fn save_reference(&mut self, reference: Reference) -> StoreResult<()> {
+        reference.validate()?;
+        self.persist(vec![Record::Reference(reference)])
+    }
+
     /// Check an entry against the register before saving it.
     fn check_entry(&self, entry: &Entry) -> StoreResult<()> {
         entry.validate()?;
@@ -702,7 +755,22 @@ pub trait Store {
                 .cloned();
             match here {
                 Some(here) => {
-                    if here.tag != incoming.tag {
+                    // A planner's bundle sets calibration intervals: a tag here with none,
+                    // and otherwise defined as in the bundle, takes the bundle's (an
+                    // interval set here, or a tag defined differently, is kept).
+                    let mut with_interval = here.tag.clone();
+                    with_interval.calibration_interval_days =
+                        incoming.tag.calibration_interval_days;
+                    if here.tag.calibration_interval_days.is_none()
+                        && incoming.tag.calibration_interval_days.is_some()
+                        && with_interval == incoming.tag
+                    {
+                        records.push(Record::Tag(TagRecord {
+                            id: here.id.clone(),
+                            tag: with_interval,
+                        }));
+                        report.intervals_set += 1;
+                    } else if here.tag != incoming.tag {
                         report.conflicts.push(TagConflict {
                             number: here.tag.number.clone(),
                             detail: describe_difference(&here.tag, &incoming.tag),
@@ -748,6 +816,30 @@ pub trait Store {
             })?;
             records.push(Record::Entry(e));
             report.entries_added += 1;
+        }
+        for (i, r) in bundle.references.iter().enumerate() {
+            r.validate().map_err(|e| {
+                FieldError::new(
+                    "bundle",
+                    format!("reference {} (id {}) is not valid: {e}", i + 1, r.id),
+                )
+            })?;
+            let earlier = bundle.references[..i].iter().any(|o| o.is(&r.id));
+            match self.reference(&r.id) {
+                _ if earlier => {
+                    return Err(FieldError::new(
+                        "bundle",
+                        format!("reference {} (id {}) is defined twice", i + 1, r.id),
+                    )
+                    .into())
+                }
+                Some(here) if here == r => {}
+                Some(_) => report.reference_conflicts.push(r.id.clone()),
+                None => {
+                    records.push(Record::Reference(r.clone()));
+                    report.references_added += 1;
+                }
+            }
         }
         if !records.is_empty() {
             self.persist(records)?;
@@ -796,6 +888,9 @@ fn describe_difference(here: &Tag, there: &Tag) -> String {
     }
     if here.archived != there.archived {
         parts.push("archived".to_string());
+    }
+    if here.calibration_interval_days != there.calibration_interval_days {
+        parts.push("calibration interval".to_string());
     }
     format!("differs in {}; kept the definition here", parts.join(", "))
 }

@@ -55,6 +55,12 @@ pub enum Record {
     Tag(TagRecord),
     /// A log entry was written.
     Entry(Entry),
+    /// A reference instrument was added or edited (the last line for an id, matched
+    /// without regard to case, is its current definition). Written since references were
+    /// kept in the store; stores without them read as before. A snapshot writes every
+    /// reference once more after the part it covers (the snapshot holds only tags and
+    /// entries), so the same definition may appear more than once.
+    Reference(crate::calibration::reference::Reference),
 }
 
 /// A 64-bit check value over `bytes`. Every step is a bijection of the running state, so

@@ -90,6 +90,12 @@ fn is_check_ok(e: &Entry) -> Option<bool> {
     e.payload.as_ref()?.get("verdict")?.get("ok")?.as_bool()
 }
 
+/// Did a trip test pass? Read from its stored verdict (`pass`, payload version 1 of
+/// `crate::action::trip`). `None` when the entry does not say.
+fn trip_passed(e: &Entry) -> Option<bool> {
+    e.payload.as_ref()?.get("pass")?.as_bool()
+}
+
 /// What an entry is, given the ids of the follow-ups that are closed.
 pub fn row_kind(e: &Entry, closed: &HashSet<&journal::EntryId>) -> RowKind {
     match e.kind {
@@ -107,6 +113,10 @@ pub fn row_kind(e: &Entry, closed: &HashSet<&journal::EntryId>) -> RowKind {
             }
         }
         Kind::IsCheck => match is_check_ok(e) {
+            Some(true) => RowKind::CheckPassed,
+            _ => RowKind::CheckFailed,
+        },
+        Kind::TripTest => match trip_passed(e) {
             Some(true) => RowKind::CheckPassed,
             _ => RowKind::CheckFailed,
         },
@@ -132,6 +142,7 @@ pub fn title(e: &Entry, kind: RowKind) -> String {
         (Kind::IsCheck, _) => {
             crate::view::wording::intrinsic::log_title(is_check_ok(e)).to_string()
         }
+        (Kind::TripTest, _) => crate::view::wording::trip::log_title(trip_passed(e)).to_string(),
     }
 }
 

@@ -104,6 +104,10 @@ pub fn log_text(r: &CheckResult) -> String {
         summary(r)
     );
     // The technician's own words (the check's note) follow the verdict on both fronts.
+    let head = match &r.uncertainty {
+        Some(a) => format!("{head}\n{}", super::uncertainty::summary(a)),
+        None => head,
+    };
     let note = r.note.trim();
     let head = if note.is_empty() {
         head
@@ -196,6 +200,7 @@ pub fn markdown(r: &CheckResult) -> String {
             }
             md.push_str(".\n");
         }
+        None if r.uncertainty.is_some() => {}
         None => md.push_str("Reference instrument not recorded.\n"),
     }
     if !r.note.is_empty() {
@@ -207,6 +212,10 @@ pub fn markdown(r: &CheckResult) -> String {
     ));
     for w in &r.warnings {
         md.push_str(&format!("\n> Warning: {}\n", cell(&warning(w))));
+    }
+    if let Some(a) = &r.uncertainty {
+        md.push('\n');
+        md.push_str(&super::uncertainty::markdown(r, a));
     }
     md
 }
