@@ -109,17 +109,20 @@ pub enum Kind {
     /// An intrinsic-safety check of the loop's circuit (entity concept) with its inputs
     /// and results (`crate::action::intrinsic`).
     IsCheck,
+    /// A control valve's stroke check on an output loop (`crate::action::stroke`).
+    StrokeCheck,
 }
 
 impl Kind {
     /// Every kind, in the order the UI lists them.
-    pub const ALL: [Kind; 6] = [
+    pub const ALL: [Kind; 7] = [
         Kind::Note,
         Kind::Finding,
         Kind::LoopCheck,
         Kind::FaultFinding,
         Kind::FollowUp,
         Kind::IsCheck,
+        Kind::StrokeCheck,
     ];
 
     /// The kind as written on the command line and in files (`loop-check`).
@@ -131,6 +134,7 @@ impl Kind {
             Kind::FaultFinding => "fault-finding",
             Kind::FollowUp => "follow-up",
             Kind::IsCheck => "is-check",
+            Kind::StrokeCheck => "stroke-check",
         }
     }
 
@@ -149,7 +153,7 @@ impl Kind {
                 FieldError::new(
                     "kind",
                     format!(
-                        "'{}' is not a kind; use one of note, finding, loop-check, fault-finding, follow-up, is-check",
+                        "'{}' is not a kind; use one of note, finding, loop-check, fault-finding, follow-up, is-check, stroke-check",
                         text.trim()
                     ),
                 )

@@ -57,6 +57,16 @@ pub struct Tag {
     /// before this field open unchanged.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub intrinsic: Option<crate::intrinsic::Circuit>,
+    /// The control valve on an output loop (action, fail position, split-range part),
+    /// when the tag drives one; `None` otherwise. Stores written before this field open
+    /// unchanged.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub valve: Option<crate::valve::Valve>,
+    /// For a loop through an isolator or splitter, each output side (a current source
+    /// with the isolator's compliance and what it drives); the input side is
+    /// `loop_config`. Empty for a loop without one.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub isolator_outputs: Vec<LoopConfig>,
 }
 
 fn default_tolerance() -> f64 {
@@ -79,6 +89,8 @@ impl Tag {
             archived: false,
             sensor: None,
             intrinsic: None,
+            valve: None,
+            isolator_outputs: Vec::new(),
         };
         tag.validate()?;
         Ok(tag)
@@ -108,6 +120,22 @@ impl Tag {
         }
         if let Some(c) = &self.intrinsic {
             c.validate()?;
+        }
+        if let Some(v) = &self.valve {
+            v.validate()?;
+        }
+        if !self.isolator_outputs.is_empty() {
+            let Some(input) = &self.loop_config else {
+                return Err(FieldError::new(
+                    "isolator outputs",
+                    "need the loop's input side as well (the transmitter to the isolator)",
+                ));
+            };
+            crate::budget::topology::IsolatedLoop {
+                input: input.clone(),
+                outputs: self.isolator_outputs.clone(),
+            }
+            .budget()?;
         }
         for (field, text) in [("service", &self.service), ("area", &self.area)] {
             if text.chars().count() > 200 {

@@ -13,6 +13,7 @@
 //! - [`intrinsic`] — store a tag's IS circuit, save an IS check (`is-check` kind, payload
 //!   version 1);
 //! - [`session`] — save a fault-finding session;
+//! - [`stroke`] — save a valve's stroke check (`stroke-check` kind, payload version 1);
 //! - [`bundle`] — export a hand-over, import a bundle.
 //!
 //! No UI types and no printing here; the only I/O is the store's and the hand-over file
@@ -23,6 +24,7 @@ pub mod check;
 pub mod intrinsic;
 pub mod note;
 pub mod session;
+pub mod stroke;
 pub mod tag;
 
 use crate::error::FieldError;

@@ -14,6 +14,7 @@ pub mod data;
 mod intrinsic;
 mod note;
 mod sensors;
+mod stroke;
 mod tag;
 
 use crate::error::FieldError;
@@ -73,6 +74,8 @@ pub enum Command {
     Level(sensors::LevelArgs),
     /// Judge an as-found / as-left loop check: errors, hysteresis, verdict.
     Check(check::CheckArgs),
+    /// Stroke-check a control valve on an output loop: demand against position, % of stroke.
+    Stroke(stroke::StrokeArgs),
     /// Find a fault step by step from a symptom and your measurements.
     Diagnose(check::DiagnoseArgs),
     /// Intrinsic safety by the entity concept: check a barrier or isolator, field devices
@@ -134,6 +137,7 @@ pub fn run_command(command: Command, out: &mut dyn Write) -> CliResult {
         Command::Tc(args) => sensors::tc(args, out),
         Command::Level(args) => sensors::level(args, out),
         Command::Check(args) => check::check(args, out),
+        Command::Stroke(args) => stroke::stroke(args, out),
         Command::Diagnose(args) => check::diagnose(args, &mut std::io::stdin().lock(), out),
         Command::Intrinsic(args) => intrinsic::intrinsic(args, out),
         Command::Entity(args) => intrinsic::check(args, out),

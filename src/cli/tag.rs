@@ -12,6 +12,7 @@ use crate::number::parse_in;
 use crate::sensor::Sensor;
 use crate::store::{FileStore, Store, TagRecord};
 use crate::tag::Tag;
+use crate::valve::{FailPosition, ValveAction};
 use clap::{Args, Subcommand};
 use serde_json::json;
 use std::io::Write;
@@ -90,6 +91,23 @@ pub struct DescribeArgs {
     /// Forget the sensor.
     #[arg(long)]
     no_sensor: bool,
+    /// The valve this output loop drives: air-to-open or air-to-close.
+    #[arg(long, value_name = "ACTION", conflicts_with = "no_valve")]
+    valve_action: Option<String>,
+    /// Where the valve fails: closed, open or last.
+    #[arg(long, value_name = "POSITION", conflicts_with = "no_valve")]
+    fail: Option<String>,
+    /// For one valve of a split-range pair, its part of the signal, mA (e.g. 4..12).
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "LOW..HIGH",
+        conflicts_with = "no_valve"
+    )]
+    split: Option<String>,
+    /// Forget the valve.
+    #[arg(long)]
+    no_valve: bool,
 }
 
 impl DescribeArgs {
@@ -153,6 +171,23 @@ impl DescribeArgs {
         if self.no_sensor {
             tag.sensor = None;
         }
+        if self.valve_action.is_some() || self.fail.is_some() || self.split.is_some() {
+            let mut valve = tag.valve.unwrap_or_default();
+            if let Some(a) = &self.valve_action {
+                valve.action = Some(ValveAction::parse(a).map_err(|e| e.renamed("valve-action"))?);
+            }
+            if let Some(f) = &self.fail {
+                valve.fail = Some(FailPosition::parse(f)?);
+            }
+            if let Some(t) = &self.split {
+                valve.split_ma = Some(crate::number::parse_range("split", t)?);
+            }
+            valve.validate()?;
+            tag.valve = Some(valve);
+        }
+        if self.no_valve {
+            tag.valve = None;
+        }
         Ok(())
     }
 }
@@ -162,7 +197,9 @@ impl DescribeArgs {
 #[command(after_help = "Examples:\n  \
     loopside tag add PT-204 --range 0..10 --unit bar --hart --supply 24 --min-volts 10,5 --load \"HART resistor=250\"\n  \
     loopside tag add FT-310 --range 0..3000 --unit m3/h --sqrt --cutoff 1 --service \"Aeration air header flow\"\n  \
-    loopside tag add TT-415 --range 0..150 --unit °C --rtd pt100 --wires 3")]
+    loopside tag add TT-415 --range 0..150 --unit °C --rtd pt100 --wires 3\n  \
+    loopside tag add FV-316 --range 0..100 --unit % --source current-output --compliance-volts 18 --drop positioner=9 --valve-action air-to-open --fail closed\n  \
+    loopside tag add AIT-532 --range 0..50 --unit NTU --topology four-wire --max-load-ohms 750 --load 'PLC input=250'")]
 #[command(group = RANGE_REQUIRED(), group = UNIT_REQUIRED())]
 pub struct TagAddArgs {
     /// Tag number, e.g. LT-101 (any text; never used as a file name).

@@ -90,6 +90,12 @@ fn is_check_ok(e: &Entry) -> Option<bool> {
     e.payload.as_ref()?.get("verdict")?.get("ok")?.as_bool()
 }
 
+/// Whether a stroke check passed, from its payload's `pass` (version 1 of
+/// `crate::action::stroke`). `None` when the entry does not say.
+fn stroke_passed(e: &Entry) -> Option<bool> {
+    e.payload.as_ref()?.get("pass")?.as_bool()
+}
+
 /// What an entry is, given the ids of the follow-ups that are closed.
 pub fn row_kind(e: &Entry, closed: &HashSet<&journal::EntryId>) -> RowKind {
     match e.kind {
@@ -107,6 +113,10 @@ pub fn row_kind(e: &Entry, closed: &HashSet<&journal::EntryId>) -> RowKind {
             }
         }
         Kind::IsCheck => match is_check_ok(e) {
+            Some(true) => RowKind::CheckPassed,
+            _ => RowKind::CheckFailed,
+        },
+        Kind::StrokeCheck => match stroke_passed(e) {
             Some(true) => RowKind::CheckPassed,
             _ => RowKind::CheckFailed,
         },
@@ -131,6 +141,9 @@ pub fn title(e: &Entry, kind: RowKind) -> String {
         (Kind::FollowUp, _) => "Follow-up (open)".to_string(),
         (Kind::IsCheck, _) => {
             crate::view::wording::intrinsic::log_title(is_check_ok(e)).to_string()
+        }
+        (Kind::StrokeCheck, _) => {
+            crate::view::wording::stroke::log_title(stroke_passed(e)).to_string()
         }
     }
 }

@@ -7,10 +7,13 @@
 //! - [`finding`] — what each fault-finding finding means, from its code and detail;
 //! - [`intrinsic`] — an intrinsic-safety check: caution, each check, verdict, notes, log
 //!   text and report section;
-//! - [`power`] — what limits a loop's voltage budget, and its HART verdict.
+//! - [`power`] — what limits a loop's voltage budget, its topology and topology faults,
+//!   its HART verdict and HART's cable limit;
+//! - [`stroke`] — a valve's stroke check: verdict, table lines, log title and text.
 
 pub mod check;
 pub mod fault;
 pub mod finding;
 pub mod intrinsic;
 pub mod power;
+pub mod stroke;
