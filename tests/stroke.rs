@@ -289,7 +289,7 @@ fn a_stroke_check_saved_to_the_log_as_its_own_kind() {
     assert_eq!(e["author"], "GH");
     let text = e["text"].as_str().unwrap();
     assert!(text.starts_with("Stroke check as left: PASS"), "{text}");
-    assert!(text.contains("air to open; fails closed"), "{text}");
+    assert!(text.contains("Air to open; fails closed"), "{text}");
     assert!(text.contains("all done"), "{text}");
     let p = &e["payload"];
     assert_eq!(p["payload_version"], 1);

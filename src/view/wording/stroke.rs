@@ -131,12 +131,13 @@ pub fn lines(r: &StrokeRecord) -> Vec<String> {
 /// The log entry's text: the stage, the verdict, the valve line, the note and the
 /// before-you-leave summary.
 pub fn log_text(r: &StrokeRecord) -> String {
-    let mut text = format!(
-        "Stroke check {}: {}. {}.",
-        r.stage.label(),
-        verdict(r),
-        valve_line(r)
-    );
+    let valve = valve_line(r);
+    let mut chars = valve.chars();
+    let valve: String = match chars.next() {
+        Some(first) => first.to_uppercase().chain(chars).collect(),
+        None => valve,
+    };
+    let mut text = format!("Stroke check {}: {}. {valve}.", r.stage.label(), verdict(r),);
     if !r.note.trim().is_empty() {
         text.push(' ');
         text.push_str(r.note.trim());
