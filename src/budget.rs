@@ -562,6 +562,7 @@ impl LoopConfig {
             },
             driver_min_volts: need_volts,
             source: self.wiring.source().ok(),
+            worked_from: self.working_source(),
             topology: self.wiring.topology(),
             topology_fault,
             hart_cable,
@@ -830,6 +831,9 @@ pub struct Budget {
     pub driver_min_volts: f64,
     /// What supplies the loop, when exactly one thing does.
     pub source: Option<SourceKind>,
+    /// The source the figures are worked from: [`Budget::source`], or with two sources the
+    /// first wired; `None` with no source (worked from 0 V).
+    pub worked_from: Option<SourceKind>,
     /// The topology from the short list (or [`Topology::Faulty`]).
     pub topology: Topology,
     /// Two sources or none, when the loop is wired so.

@@ -300,7 +300,7 @@ fn a_stroke_check_saved_to_the_log_as_its_own_kind() {
     let show = loopside(&["tag", "show", "FV-315", "--data-dir", &d]);
     let show = String::from_utf8_lossy(&show.stdout);
     assert!(
-        show.contains("analog output driving field devices"),
+        show.contains("analog output (or an isolator's output side) driving field devices"),
         "{show}"
     );
     assert!(

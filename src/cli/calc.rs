@@ -590,7 +590,7 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
         }
         return print_json(out, &obj);
     }
-    let current_source = b.source == Some(crate::budget::topology::SourceKind::CurrentOutput);
+    let current_source = b.worked_from == Some(crate::budget::topology::SourceKind::CurrentOutput);
     let mut lines = Vec::new();
     let default_topology =
         b.topology == crate::budget::topology::Topology::TwoWireSupply && b.hart_cable.is_none();

@@ -118,7 +118,7 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
         .max(need(&b.at_full_scale))
         .max(need(&b.at_fault))
         .max(1e-9);
-    let current_source = b.source == Some(SourceKind::CurrentOutput);
+    let current_source = b.worked_from == Some(SourceKind::CurrentOutput);
     let driver = (!current_source).then_some(driver_min);
     let full = slices(driver, &b.at_full_scale, b.lowest_supply_volts, total);
     let fault = slices(driver, &b.at_fault, b.lowest_supply_volts, total);
@@ -301,7 +301,7 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
 /// gives the sag and the fault current (`in the Supply may sag field`, `with --fault-ma`).
 pub fn notes(b: &Budget, give_sag: &str, give_fault: &str) -> Vec<String> {
     let mut out = Vec::new();
-    if b.source == Some(SourceKind::CurrentOutput) {
+    if b.worked_from == Some(SourceKind::CurrentOutput) {
         out.push(format!(
             "Worked at the current output's compliance, {}, the same at every current up to the highest it drives; no sag applied.",
             display::volts(b.lowest_supply_volts)

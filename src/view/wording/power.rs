@@ -11,7 +11,7 @@ use crate::display;
 /// a supply or an active input, the same figures against the compliance for a current
 /// source, and the topology fault when the loop has two sources or none.
 pub fn verdict(b: &Budget) -> String {
-    match (&b.limit, b.source) {
+    match (&b.limit, b.worked_from) {
         (
             BudgetLimit::Short {
                 at_ma,
@@ -51,7 +51,9 @@ pub fn topology(t: Topology) -> &'static str {
         }
         Topology::FourWire => "four-wire (self-powered) transmitter into a passive input",
         Topology::ThreeWire => "three-wire transmitter on a DC supply",
-        Topology::AnalogOutput => "analog output driving field devices",
+        Topology::AnalogOutput => {
+            "analog output (or an isolator's output side) driving field devices"
+        }
         Topology::Faulty => "wired with two sources or none",
     }
 }
