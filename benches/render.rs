@@ -8,16 +8,22 @@
 //!   store as the app does, renders one frame and exits, so exec, dynamic loading, opening
 //!   the store and font set-up all count.
 
+use i_slint_backend_testing::{AccessibleRole, ElementRoot};
 use loopside::app::render::{Frame, Headless, PHONE};
-use loopside::app::{load_or_demo, screen_name, AppState, SCREENS};
+use loopside::app::{load_or_demo, screen_name, AppState, Screen, SCREENS};
 use loopside::journal::{Entry, Kind, TagId};
 use loopside::report::{Bundle, BUNDLE_SCHEMA};
 use loopside::scale::Scale;
 use loopside::store::{FileStore, Store, TagRecord};
 use loopside::tag::Tag;
+use slint::platform::software_renderer::RepaintBufferType;
+use slint::platform::{PointerEventButton, WindowEvent};
+use slint::ComponentHandle;
 use std::path::{Path, PathBuf};
 use std::time::{Duration, Instant};
 
+/// How the accessible names of Check's readings begin ("Read at" and the point).
+const CHECK_READING: &str = "Read at";
 const FIRST_FRAME_MODE: &str = "LOOPSIDE_BENCH_FIRST_FRAME";
 /// Set to draw one round only and skip the start-up timing: for counting instructions
 /// under `valgrind --tool=callgrind`, which are the same from run to run whatever else the
@@ -27,6 +33,11 @@ const COUNT_MODE: &str = "LOOPSIDE_BENCH_COUNT";
 const ROUNDS: usize = 10;
 const PER_ROUND: usize = 5;
 const STARTS: usize = 7;
+/// Keystrokes timed per field and buffer: twelve rounds of typing `2`, `.`, `5` and
+/// taking them back with three Backspaces (U+0008, Slint's `Key::Backspace`).
+const KEYSTROKE_ROUNDS: usize = 12;
+const KEYS: [&str; 6] = ["2", ".", "5", BACKSPACE, BACKSPACE, BACKSPACE];
+const BACKSPACE: &str = "\u{8}";
 
 /// Generated pressure tags, numbered from `first`.
 fn generated(first: usize, count: usize) -> Vec<TagRecord> {
@@ -116,6 +127,74 @@ fn first_frame(dir: &Path) {
     std::hint::black_box(frame.at(0, 0));
 }
 
+/// The first text field whose accessible label begins with `label`, its text set to
+/// `start`, focused by a tap as the technician's finger does.
+fn focus_field(h: &Headless, label: &str, start: &str) -> bool {
+    let Some(field) = h
+        .app
+        .window
+        .root_element()
+        .query_descendants()
+        .find_all()
+        .into_iter()
+        .find(|e| {
+            e.accessible_role() == Some(AccessibleRole::TextInput)
+                && e.accessible_label().is_some_and(|l| l.starts_with(label))
+        })
+    else {
+        eprintln!("keystroke bench: no text field labelled {label:?}");
+        return false;
+    };
+    field.set_accessible_value(start);
+    field.mock_single_click(PointerEventButton::Left);
+    true
+}
+
+/// One keystroke: the key pressed and released in the focused field (the field takes it,
+/// the app recomputes and sets the results), then the window redrawn. The name is what
+/// callgrind's `--toggle-collect='*keystroke*'` counts.
+#[inline(never)]
+fn keystroke(h: &Headless, frame: &mut Frame, key: &str) {
+    let window = h.app.window.window();
+    window.dispatch_event(WindowEvent::KeyPressed { text: key.into() });
+    window.dispatch_event(WindowEvent::KeyReleased { text: key.into() });
+    h.draw_into(frame);
+}
+
+/// Median time of a keystroke into the field labelled `label` on `screen`, with the
+/// buffer kind `repaint`.
+fn keystrokes(
+    h: &Headless,
+    frame: &mut Frame,
+    screen: Screen,
+    label: &str,
+    start: &str,
+    repaint: RepaintBufferType,
+    rounds: usize,
+) -> Option<Duration> {
+    h.set_repaint_buffer(RepaintBufferType::NewBuffer);
+    h.show(screen);
+    h.draw_into(frame);
+    if !focus_field(h, label, start) {
+        return None;
+    }
+    // The first draw after the tap paints the whole frame (focus, caret); from here on the
+    // buffer keeps the last frame, as a window's does.
+    h.draw_into(frame);
+    h.set_repaint_buffer(repaint);
+    h.draw_into(frame);
+    let mut times = Vec::new();
+    for _ in 0..rounds {
+        for key in KEYS {
+            let t = Instant::now();
+            keystroke(h, frame, key);
+            times.push(t.elapsed());
+        }
+    }
+    h.set_repaint_buffer(RepaintBufferType::NewBuffer);
+    Some(median(times))
+}
+
 fn main() {
     if let Some(dir) = std::env::var_os(FIRST_FRAME_MODE) {
         first_frame(Path::new(&dir));
@@ -165,6 +244,30 @@ fn main() {
                 "OVER TARGET"
             }
         );
+    }
+
+    // Keystrokes: Convert's mA field, and the first as-found reading on Check (its cautions
+    // read first, as the technician must).
+    h.read_cautions(Screen::Check);
+    println!(
+        "keystroke at phone size: one key into a focused field, handled and redrawn into a \
+         buffer that keeps the last frame (desktop X11: reused; Wayland: swapped pair), \
+         median of {} keys",
+        KEYSTROKE_ROUNDS * KEYS.len()
+    );
+    let rounds = if count_only { 1 } else { KEYSTROKE_ROUNDS };
+    for (what, screen, label, start) in [
+        ("Convert, mA field", Screen::Convert, "Loop current", "1"),
+        ("Check, a reading", Screen::Check, CHECK_READING, "1"),
+    ] {
+        for (buffer, kind) in [
+            ("reused", RepaintBufferType::ReusedBuffer),
+            ("swapped", RepaintBufferType::SwappedBuffers),
+        ] {
+            if let Some(m) = keystrokes(&h, &mut frame, screen, label, start, kind, rounds) {
+                println!("  {what:<20} {buffer:<8} {:>6.3} ms", m.as_secs_f64() * 1e3);
+            }
+        }
     }
 
     if count_only {

@@ -328,3 +328,181 @@ fn a_tag_keeps_its_is_data_and_the_check_is_saved_to_its_log() {
     ]));
     assert_eq!(out.status.code(), Some(2));
 }
+
+#[test]
+fn a_tag_gets_its_is_circuit_when_it_is_made_and_edits_it_like_intrinsic_set() {
+    // The worked barrier and transmitter of tests/intrinsic_entity.rs (28 V, 93 mA,
+    // 0.65 W, Co 83 nF, Lo 4.2 mH; Ci 5 nF, Li 10 µH) on 200 m of 100 pF/m and 0.65 µH/m:
+    // C 25 nF, L 0.14 mH, a pass. The IS cable is --is-cable-m here; --cable-m stays the
+    // loop's cable for the voltage budget.
+    let dir = TempDir::new("intrinsic-tag-flags");
+    let d = dir.arg();
+    let mut add = vec![
+        "--data-dir",
+        d.as_str(),
+        "tag",
+        "add",
+        "TT-420",
+        "--range",
+        "-20..80",
+        "--unit",
+        "°C",
+        "--supply",
+        "24",
+        "--min-volts",
+        "10,5",
+        "--cable-m",
+        "180",
+        "--mm2",
+        "1,0",
+    ];
+    add.extend_from_slice(&BARRIER);
+    add.extend_from_slice(&[
+        "--source-group",
+        "IIC",
+        "--device",
+        "TT-420 tx:ui=30,ii=100,pi=0.75,ci=5nF,li=10uH,group=IIC,t=T4",
+        "--is-cable-m",
+        "200",
+        "--cable-pf-per-m",
+        "100",
+        "--cable-uh-per-m",
+        "0.65",
+        "--group",
+        "IIC",
+        "--t-class",
+        "T3",
+    ]);
+    let out = loopside(&add);
+    assert!(out.status.success(), "{out:?}");
+    let shown = loopside_json(&["--data-dir", &d, "tag", "show", "TT-420", "--json"]);
+    let is = &shown["tag"]["intrinsic"];
+    assert_eq!(is["cable"]["length_m"], 200.0);
+    assert_eq!(is["devices"][0]["name"], "TT-420 tx");
+    // The loop's own cable is kept apart from the IS cable.
+    assert_eq!(shown["tag"]["loop_config"]["cable"]["one_way_m"], 180.0);
+    let v = loopside_json(&[
+        "--data-dir",
+        &d,
+        "intrinsic",
+        "check",
+        "--tag",
+        "TT-420",
+        "--json",
+    ]);
+    assert_eq!(v["ok"], true);
+    close(v["c_total_nf"].as_f64().unwrap(), 25.0, 1e-9, "C total nF");
+    // `tag show` prints the circuit (wording::intrinsic::circuit_summary).
+    let text = loopside(&["--data-dir", &d, "tag", "show", "TT-420"]);
+    assert!(String::from_utf8_lossy(&text.stdout).contains("TT-420 tx"));
+
+    // Edit: a flag given replaces that value, the rest is kept (as `intrinsic set`):
+    // 800 m → 5 + 80 = 85 nF > 83 nF, a fail on capacitance.
+    let out = loopside(&[
+        "--data-dir",
+        &d,
+        "tag",
+        "edit",
+        "TT-420",
+        "--is-cable-m",
+        "800",
+    ]);
+    assert!(out.status.success(), "{out:?}");
+    let v = loopside_json(&[
+        "--data-dir",
+        &d,
+        "intrinsic",
+        "check",
+        "--tag",
+        "TT-420",
+        "--json",
+    ]);
+    assert_eq!(v["ok"], false);
+    close(v["c_total_nf"].as_f64().unwrap(), 85.0, 1e-9, "C total nF");
+    // A tag made without IS data gets it by `tag edit`, with the same flags.
+    let mut edit = vec!["--data-dir", d.as_str(), "tag", "edit", "LT-999"];
+    let made = loopside(&[
+        "--data-dir",
+        &d,
+        "tag",
+        "add",
+        "LT-999",
+        "--range",
+        "0..4,5",
+        "--unit",
+        "m",
+    ]);
+    assert!(made.status.success());
+    edit.extend_from_slice(&BARRIER);
+    edit.extend_from_slice(&[
+        "--ui",
+        "30",
+        "--ii",
+        "100",
+        "--pi",
+        "0.75",
+        "--is-cable-m",
+        "10",
+        "--group",
+        "IIC",
+    ]);
+    assert!(loopside(&edit).status.success());
+    let shown = loopside_json(&["--data-dir", &d, "tag", "show", "LT-999", "--json"]);
+    assert_eq!(
+        shown["tag"]["intrinsic"]["devices"][0]["name"],
+        "field device"
+    );
+    // --no-intrinsic removes it; giving it with IS values is refused.
+    let out = loopside(&[
+        "--data-dir",
+        &d,
+        "tag",
+        "edit",
+        "LT-999",
+        "--no-intrinsic",
+        "--uo",
+        "28",
+    ]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("--no-intrinsic"));
+    let out = loopside(&["--data-dir", &d, "tag", "edit", "LT-999", "--no-intrinsic"]);
+    assert!(out.status.success());
+    let shown = loopside_json(&["--data-dir", &d, "tag", "show", "LT-999", "--json"]);
+    assert!(shown["tag"]["intrinsic"].is_null());
+    // Bad IS input on `tag add` exits 2 naming the field, and no tag is made.
+    let e = loopside_refuses(&[
+        "--data-dir",
+        &d,
+        "tag",
+        "add",
+        "TT-421",
+        "--range",
+        "0..100",
+        "--unit",
+        "°C",
+        "--uo",
+        "-28",
+        "--io",
+        "93",
+        "--po",
+        "0.65",
+        "--co",
+        "83",
+        "--lo",
+        "4.2",
+        "--ui",
+        "30",
+        "--ii",
+        "100",
+        "--pi",
+        "0.75",
+        "--is-cable-m",
+        "10",
+        "--group",
+        "IIC",
+    ]);
+    assert!(e.contains("uo"), "{e}");
+    let out = loopside(&["--data-dir", &d, "tag", "show", "TT-421"]);
+    assert!(!out.status.success());
+    assert!(String::from_utf8_lossy(&out.stderr).contains("TT-421"));
+}

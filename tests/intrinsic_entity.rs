@@ -2,16 +2,21 @@
 //!
 //! The rules (IEC 60079-14; IEC 60079-25; ANSI/ISA-RP12.06.01; the brief's reference
 //! table): Ui ≥ Uo, Ii ≥ Io, Pi ≥ Po for every device; Co ≥ ΣCi + Ccable; Lo ≥ ΣLi +
-//! Lcable. The 1 % rule and its 600 nF / 1 µF ceilings are from memory of IEC 60079-14 /
-//! IEC 60079-11 (see `src/intrinsic/mod.rs`); the default cable values 200 pF/m and
-//! 1 µH/m from the IEC 60079-25 cable methods as published in a summary (same file).
+//! Lcable. The 1 % rule and its 600 nF / 1 µF ceilings as published in the conditions of
+//! use of a certified apparatus (Rockwell Automation publication 1797-5.6, p. 20; see
+//! `src/intrinsic/mod.rs`); the default cable values 200 pF/m and 1 µH/m from the
+//! IEC 60079-25 cable methods as published in a summary (same file).
 //!
-//! No published worked example could be reached in this session, so each example states
-//! the rule and works the numbers by hand in the comment beside the assertion. The
-//! barrier is a typical "28 V, 93 mA, 0.65 W" channel whose IIC output parameters
-//! (Co 83 nF, Lo 4.2 mH, Lo/Ro 55 µH/Ω) match the limits a published fire-system
-//! installation manual lists for such a channel (cable limits table: IIC 0.083 µF,
-//! 4.2 mH, 55 µH/Ω); the devices and cables are invented.
+//! Worked examples published in instrument manuals are reproduced in
+//! `tests/intrinsic_published.rs` (a pass, a fail on inductance, the 1 % rule changing a
+//! verdict, a fail on voltage from published values, a published longest cable by
+//! capacitance and a longer one failing). The examples here are worked by hand in the
+//! comment beside each assertion; for two cases no published worked example of a whole
+//! circuit was found: a failure on capacitance caused by the cable (only its capacitance
+//! limit is published), and a pass by the L/R route. The barrier is a typical "28 V, 93 mA, 0.65 W" channel whose IIC output
+//! parameters (Co 83 nF, Lo 4.2 mH, Lo/Ro 55 µH/Ω) match the limits a published
+//! fire-system installation manual lists for such a channel (cable limits table: IIC
+//! 0.083 µF, 4.2 mH, 55 µH/Ω); the devices and cables are invented.
 
 use loopside::intrinsic::{
     check, Cable, CableLimit, Check, CheckName, Circuit, Compared, Device, DeviceKind, GasGroup,
@@ -134,7 +139,9 @@ fn a_transmitter_on_200_m_of_instrument_cable_passes_with_its_margins() {
 
 #[test]
 fn the_same_loop_on_800_m_fails_on_capacitance_because_of_the_cable() {
-    // 5 nF + 800 m × 100 pF/m = 85 nF > 83 nF: short by 2 nF. Every other check passes.
+    // Worked by hand (no published example of a whole circuit failing so was found; a
+    // published capacitance limit is in tests/intrinsic_published.rs): 5 nF + 800 m ×
+    // 100 pF/m = 85 nF > 83 nF: short by 2 nF. Every other check passes.
     let v = check(&circuit(
         vec![transmitter(5.0, 10.0)],
         cable(800.0, 100.0, 0.65),
@@ -252,7 +259,8 @@ fn the_one_percent_rule_halves_co_and_lo_and_turns_a_pass_into_a_fail() {
 #[test]
 fn the_one_percent_rule_either_side_of_its_boundary() {
     // 1 % of Lo 4.2 mH = 42 µH. Li 41.58 µH (0.99 %) → not halved; 42.42 µH (1.01 %) →
-    // halved. Exactly 1 % counts as exceeding (safe side, see src/intrinsic).
+    // halved. Exactly 1 % counts: the published rule says "≥ 1 %" (Rockwell Automation
+    // publication 1797-5.6, p. 20; see src/intrinsic).
     let below = check(&circuit(
         vec![transmitter(5.0, 41.58)],
         cable(10.0, 100.0, 0.65),
@@ -289,7 +297,8 @@ fn the_one_percent_rule_either_side_of_its_boundary() {
 #[test]
 fn the_halved_capacitance_is_capped_at_600_nf_in_iic_and_1_uf_in_iib() {
     // A 12 V source with Co 1.8 µF: half is 900 nF; IIC ceiling 600 nF (capped), IIB
-    // 1 µF (not capped) (from memory of IEC 60079-14 / -11, see src/intrinsic).
+    // 1 µF (not capped) (Rockwell Automation publication 1797-5.6, p. 20: "not greater
+    // than 1 µF for IIB and IIA and 600 nF for IIC"; see src/intrinsic).
     let mut c = circuit(vec![transmitter(50.0, 1000.0)], cable(10.0, 100.0, 0.65));
     c.source.uo_volts = 12.0;
     c.source.co_farads = 1800.0 * NF;
@@ -305,10 +314,11 @@ fn the_halved_capacitance_is_capped_at_600_nf_in_iic_and_1_uf_in_iib() {
 
 #[test]
 fn the_l_over_r_route_passes_a_cable_whose_inductance_alone_would_fail() {
-    // Lo route: 5000 m × 1 µH/m = 5 mH > 4.2 mH → fails. The barrier gives Lo/Ro
-    // 55 µH/Ω and the cable's L/R is 25 µH/Ω ≤ 55 µH/Ω (margin 30 µH/Ω, 54.5 %), and the
-    // transmitter has no Li: the cable's inductance need not be counted (IEC 60079-14
-    // L/R route). C: 5000 m × 10 pF/m = 50 nF ≤ 83 nF.
+    // Worked by hand (no published example of the L/R route was found). Lo route:
+    // 5000 m × 1 µH/m = 5 mH > 4.2 mH → fails. The barrier gives Lo/Ro 55 µH/Ω and the
+    // cable's L/R is 25 µH/Ω ≤ 55 µH/Ω (margin 30 µH/Ω, 54.5 %), and the transmitter has
+    // no Li: the cable's inductance need not be counted (IEC 60079-14 L/R route).
+    // C: 5000 m × 10 pF/m = 50 nF ≤ 83 nF.
     let mut cab = cable(5000.0, 10.0, 1.0);
     cab.lr_henries_per_ohm = Some(25.0 * UH);
     let v = check(&circuit(vec![transmitter(0.0, 0.0)], cab)).unwrap();

@@ -31,16 +31,12 @@ const TEXT_FIELDS: &[&str] = &[
     "Search the log",
     "Write reports to folder",
     "Bundle file to import",
-    // Intrinsic safety: names, certificates, gas groups and temperature classes.
+    // Intrinsic safety: names and certificates (gas groups and temperature classes are
+    // picked, not typed).
     "Source name",
     "Name of device {}",
     "Certificate of the source",
     "Certificate of {}",
-    "Gas group of the source",
-    "Gas group of {}",
-    "Temperature class of {}",
-    "Area gas group",
-    "Area T class",
 ];
 
 /// One field placed in a `.slint` file.

@@ -1,7 +1,8 @@
 //! The intrinsic-safety screen through Slint's testing backend, found by accessible labels:
 //! reached from TT-412's sheet, the demo circuit passing with the caution shown first, a
 //! HART hand-held added and typed in turning it into a FAIL, the check saved to the log
-//! with the initials — and the same record as `loopside intrinsic check --save` writes.
+//! with the initials — and the same record as `loopside intrinsic check --save` writes;
+//! the gas groups and temperature classes picked from lists in words, not typed.
 #![cfg(feature = "ui")]
 
 mod util;
@@ -208,4 +209,105 @@ fn power_shows_tt412_is_verdict_beside_its_budget_and_opens_the_is_screen() {
     // LT-101 has no IS data: no card.
     app::tags::open(&app.window, &app.state, "LT-101");
     assert!(!p.get_has_is());
+}
+
+#[test]
+fn gas_groups_and_temperature_classes_are_picked_from_lists_in_words() {
+    use loopside::app::{IsDeviceField, IsField};
+    let app = tt412_is(AppState::demo());
+    let a = app.window.global::<IsAdapter>();
+    // The demo's area asks IIB and T3 (src/demo.rs): the pickers show them, in words.
+    one(&app, "Area gas group", AccessibleRole::Combobox);
+    one(&app, "Area T class", AccessibleRole::Combobox);
+    one(&app, "Gas group of the source", AccessibleRole::Combobox);
+    one(
+        &app,
+        "Gas group of TT-412 transmitter",
+        AccessibleRole::Combobox,
+    );
+    one(
+        &app,
+        "Temperature class of TT-412 transmitter",
+        AccessibleRole::Combobox,
+    );
+    assert!(all(&app, "Area gas group", AccessibleRole::TextInput).is_empty());
+    let options = a.get_area_group_options();
+    let picked = usize::try_from(a.get_area_group_index()).unwrap();
+    assert_eq!(options.row_data(picked).unwrap(), "IIB (ethylene)");
+    let classes = a.get_area_t_class_options();
+    let picked = usize::try_from(a.get_area_t_class_index()).unwrap();
+    assert_eq!(classes.row_data(picked).unwrap(), "T3 (200 °C)");
+    assert_eq!(a.get_verdict_kind(), Tone::Good);
+
+    // The area asks IIC: the IIB barrier no longer covers it (a IIC device may go where
+    // IIB is asked, not the reverse).
+    a.invoke_picked(IsField::AreaGroup, 3);
+    assert_eq!(app.state.borrow().ui.intrinsic.text.area_group, "IIC");
+    assert_eq!(a.get_area_group_index(), 3);
+    assert_eq!(a.get_verdict_kind(), Tone::Bad);
+    let failed: Vec<String> = a
+        .get_rows()
+        .iter()
+        .filter(|r| r.mark == "FAIL")
+        .map(|r| r.title.to_string())
+        .collect();
+    assert_eq!(failed.len(), 1, "{failed:?}");
+    a.invoke_picked(IsField::AreaGroup, 2);
+    assert_eq!(a.get_verdict_kind(), Tone::Good);
+
+    // The area asks T5: the T4 transmitter and the Pt100 (simple apparatus, T4 at most)
+    // fail; the transmitter picked as T6 passes, the Pt100 still fails.
+    a.invoke_picked(IsField::AreaTClass, 5);
+    assert_eq!(app.state.borrow().ui.intrinsic.text.area_t_class, "T5");
+    assert_eq!(a.get_verdict_kind(), Tone::Bad);
+    a.invoke_device_picked(0, IsDeviceField::TClass, 6);
+    assert_eq!(
+        app.state.borrow().ui.intrinsic.text.devices[0].t_class,
+        "T6"
+    );
+    let row = a.get_devices().row_data(0).unwrap();
+    assert_eq!(row.t_class_index, 6);
+    assert_eq!(row.t_class_options.row_data(6).unwrap(), "T6 (85 °C)");
+    let failed: Vec<String> = a
+        .get_rows()
+        .iter()
+        .filter(|r| r.mark == "FAIL")
+        .map(|r| r.title.to_string())
+        .collect();
+    assert!(failed.iter().all(|t| t.contains("Pt100")), "{failed:?}");
+
+    // "not given" for the area's group: the check asks for it by name.
+    a.invoke_picked(IsField::AreaGroup, 0);
+    assert_eq!(a.get_verdict_title(), "Not checked yet");
+    assert!(
+        a.get_verdict_detail().contains("group"),
+        "{}",
+        a.get_verdict_detail()
+    );
+    // What was picked is what is saved on the tag.
+    a.invoke_picked(IsField::AreaGroup, 2);
+    a.invoke_picked(IsField::AreaTClass, 3);
+    a.invoke_device_picked(0, IsDeviceField::Group, 2);
+    tap(&app, "Save the IS data to TT-412");
+    let s = app.state.borrow();
+    let stored = s
+        .store
+        .tag("TT-412")
+        .unwrap()
+        .tag
+        .intrinsic
+        .clone()
+        .unwrap();
+    assert_eq!(stored.area_group, loopside::intrinsic::GasGroup::IIB);
+    assert_eq!(
+        stored.area_t_class,
+        Some(loopside::intrinsic::TempClass::T3)
+    );
+    match stored.devices[0].kind {
+        loopside::intrinsic::DeviceKind::Entity { group, t_class, .. } => {
+            assert_eq!(group, Some(loopside::intrinsic::GasGroup::IIB));
+            assert_eq!(t_class, Some(loopside::intrinsic::TempClass::T6));
+        }
+        _ => panic!("the transmitter has entity parameters"),
+    }
 }

@@ -8,7 +8,7 @@ use super::{model, navigate, AppState, AppWindow, IsAdapter, Screen, Shared};
 use super::{IsBoxRow, IsCheckRow, IsDeviceField, IsDeviceRow, IsField};
 use crate::action::intrinsic::{save_is_check, set_circuit, NewIsCheck};
 use crate::form::intrinsic::{circuit_text, CircuitText, DeviceText};
-use crate::view::intrinsic::view;
+use crate::view::intrinsic::{class_choices, group_choices, view, IsChoices};
 use serde::{Deserialize, Serialize};
 use slint::ComponentHandle;
 
@@ -95,6 +95,50 @@ fn device_slot(d: &mut DeviceText, f: IsDeviceField) -> &mut String {
     }
 }
 
+/// The picker for a field that is picked (a gas group or a temperature class) as the form
+/// holds it; `None` for a typed field.
+fn choices_of(f: IsField, t: &CircuitText) -> Option<IsChoices> {
+    match f {
+        IsField::SourceGroup => Some(group_choices(&t.source.group)),
+        IsField::AreaGroup => Some(group_choices(&t.area_group)),
+        IsField::AreaTClass => Some(class_choices(&t.area_t_class)),
+        _ => None,
+    }
+}
+
+/// The picker for a device's field that is picked; `None` for a typed field.
+fn device_choices_of(f: IsDeviceField, d: &DeviceText) -> Option<IsChoices> {
+    match f {
+        IsDeviceField::Group => Some(group_choices(&d.group)),
+        IsDeviceField::TClass => Some(class_choices(&d.t_class)),
+        _ => None,
+    }
+}
+
+/// Option `i` of the picker of `f` picked: the form's text becomes the option's.
+pub fn pick(t: &mut CircuitText, f: IsField, i: i32) {
+    let Some(c) = choices_of(f, t) else { return };
+    if let Some(text) = usize::try_from(i).ok().and_then(|i| c.text_of(i)) {
+        *field_slot(t, f) = text.to_string();
+    }
+}
+
+/// Option `option` of the picker of field `f` of device `index` picked.
+pub fn pick_device(t: &mut CircuitText, index: i32, f: IsDeviceField, option: i32) {
+    let Some(d) = usize::try_from(index)
+        .ok()
+        .and_then(|i| t.devices.get_mut(i))
+    else {
+        return;
+    };
+    let Some(c) = device_choices_of(f, d) else {
+        return;
+    };
+    if let Some(text) = usize::try_from(option).ok().and_then(|i| c.text_of(i)) {
+        *device_slot(d, f) = text.to_string();
+    }
+}
+
 /// Apply `change` to the open tag's form, then show the result (`rows` also copies the
 /// device list in, after a device was added, removed or toggled; a typed field keeps its
 /// text and focus otherwise).
@@ -132,6 +176,14 @@ pub fn connect(window: &AppWindow, state: &Shared) {
                 *device_slot(d, f) = text.to_string();
             }
         });
+    });
+    let (weak, st) = (window.as_weak(), state.clone());
+    adapter.on_picked(move |f, i| {
+        edit(&weak, &st, true, |t| pick(t, f, i));
+    });
+    let (weak, st) = (window.as_weak(), state.clone());
+    adapter.on_device_picked(move |d, f, i| {
+        edit(&weak, &st, true, |t| pick_device(t, d, f, i));
     });
     let (weak, st) = (window.as_weak(), state.clone());
     adapter.on_device_simple(move |i, on| {
@@ -241,6 +293,16 @@ pub fn save_check(state: &mut AppState, initials: &str) -> String {
     }
 }
 
+/// A picker's options for Slint.
+fn options(c: &IsChoices) -> slint::ModelRc<slint::SharedString> {
+    model(c.options.iter().map(|o| o.clone().into()).collect())
+}
+
+/// A picker's option picked, for Slint.
+fn index(c: &IsChoices) -> i32 {
+    i32::try_from(c.current).unwrap_or(0)
+}
+
 fn device_rows(t: &CircuitText) -> Vec<IsDeviceRow> {
     t.devices
         .iter()
@@ -267,8 +329,10 @@ fn device_rows(t: &CircuitText) -> Vec<IsDeviceRow> {
                 pi: d.pi.clone().into(),
                 ci: d.ci.clone().into(),
                 li: d.li.clone().into(),
-                group: d.group.clone().into(),
-                t_class: d.t_class.clone().into(),
+                group_options: options(&group_choices(&d.group)),
+                group_index: index(&group_choices(&d.group)),
+                t_class_options: options(&class_choices(&d.t_class)),
+                t_class_index: index(&class_choices(&d.t_class)),
                 simple: d.simple,
                 temporary: d.temporary,
             }
@@ -289,13 +353,19 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     a.set_lo_ro(t.source.lo_ro.clone().into());
     a.set_source_name(t.source.name.clone().into());
     a.set_source_cert(t.source.certificate.clone().into());
-    a.set_source_group(t.source.group.clone().into());
+    let c = group_choices(&t.source.group);
+    a.set_source_group_options(options(&c));
+    a.set_source_group_index(index(&c));
     a.set_cable_m(t.cable.length.clone().into());
     a.set_cable_c(t.cable.c_per_m.clone().into());
     a.set_cable_l(t.cable.l_per_m.clone().into());
     a.set_cable_lr(t.cable.lr.clone().into());
-    a.set_area_group(t.area_group.clone().into());
-    a.set_area_t_class(t.area_t_class.clone().into());
+    let c = group_choices(&t.area_group);
+    a.set_area_group_options(options(&c));
+    a.set_area_group_index(index(&c));
+    let c = class_choices(&t.area_t_class);
+    a.set_area_t_class_options(options(&c));
+    a.set_area_t_class_index(index(&c));
     a.set_devices(model(device_rows(t)));
     a.set_initials_text(state.ui.initials.clone().into());
     a.set_message("".into());

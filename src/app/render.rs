@@ -162,6 +162,10 @@ pub struct Headless {
     /// The app.
     pub app: App,
     window: Rc<MinimalSoftwareWindow>,
+    /// What the target buffer holds when a frame is drawn: a new buffer (draw everything,
+    /// the default) or the last frame (`ReusedBuffer`, as a desktop X11 window's buffer
+    /// after its first frame: only what changed is drawn again).
+    repaint: std::cell::Cell<RepaintBufferType>,
 }
 
 impl Headless {
@@ -173,7 +177,19 @@ impl Headless {
             .with(|w| w.borrow_mut().take())
             .ok_or_else(|| slint::PlatformError::Other("no headless window was created".into()))?;
         slint::ComponentHandle::show(&app.window)?;
-        Ok(Headless { app, window })
+        Ok(Headless {
+            app,
+            window,
+            repaint: std::cell::Cell::new(RepaintBufferType::NewBuffer),
+        })
+    }
+
+    /// Say what the frame passed to [`Headless::draw_into`] holds from one draw to the
+    /// next, as a real window's buffer does: `ReusedBuffer` (the desktop window on X11,
+    /// whose buffer keeps the last frame) or `SwappedBuffers` (on Wayland, two buffers in
+    /// turn) let the renderer draw only what changed. The bench's keystroke cases use it.
+    pub fn set_repaint_buffer(&self, kind: RepaintBufferType) {
+        self.repaint.set(kind);
     }
 
     /// Set the window's size and scale factor.
@@ -193,11 +209,15 @@ impl Headless {
         frame
     }
 
-    /// Draw into an existing frame of the window's size (reused by the bench).
+    /// Draw into an existing frame of the window's size (reused by the bench). With the
+    /// default new-buffer repaint the whole window is drawn again; with a reused or swapped
+    /// buffer ([`Headless::set_repaint_buffer`]) only what changed since the last draw.
     pub fn draw_into(&self, frame: &mut Frame) {
         slint::platform::update_timers_and_animations();
         self.window.request_redraw();
+        let repaint = self.repaint.get();
         self.window.draw_if_needed(|renderer| {
+            renderer.set_repaint_buffer_type(repaint);
             renderer.render(&mut frame.pixels, frame.width as usize);
         });
     }

@@ -331,7 +331,7 @@ pub struct BudgetArgs {
     #[command(flatten)]
     pub(crate) loop_args: LoopArgs,
     /// Work out HART's cable limit by RC time constant (needs --cable-pf-per-m).
-    #[arg(long, requires = "cable_pf_per_m")]
+    #[arg(long, requires = TopologyArgs::HART_CABLE_ID)]
     hart: bool,
     /// Print one JSON object.
     #[arg(long)]
@@ -402,8 +402,14 @@ pub(crate) struct TopologyArgs {
     /// A three-wire transmitter's own supply current, mA.
     #[arg(long, allow_hyphen_values = true, value_name = "MA")]
     own_ma: Option<String>,
-    /// Cable capacitance for HART's RC limit, pF/m.
-    #[arg(long, allow_hyphen_values = true, value_name = "C")]
+    /// Cable capacitance for HART's RC limit, pF/m (on `tag add/edit` this is
+    /// --hart-cable-pf-per-m: there --cable-pf-per-m is the IS cable's).
+    #[arg(
+        id = TopologyArgs::HART_CABLE_ID,
+        long = "cable-pf-per-m",
+        allow_hyphen_values = true,
+        value_name = "C"
+    )]
     cable_pf_per_m: Option<String>,
     /// The devices' capacitance across the pair for HART's RC limit, nF (default 10).
     #[arg(long, allow_hyphen_values = true, value_name = "N")]
@@ -411,6 +417,9 @@ pub(crate) struct TopologyArgs {
 }
 
 impl TopologyArgs {
+    /// The id of the HART cable capacitance flag, renamed where the IS flags sit beside it.
+    pub(crate) const HART_CABLE_ID: &'static str = "hart_cable_pf_per_m";
+
     /// The flags as the topology form.
     pub(crate) fn form(&self) -> TopologyForm {
         let text = |t: &Option<String>| t.clone().unwrap_or_default();

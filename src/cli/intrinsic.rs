@@ -102,9 +102,10 @@ pub struct CircuitArgs {
     /// A single field device's Li (mH; default 0).
     #[arg(long, value_name = "MH", allow_hyphen_values = true)]
     li: Option<String>,
-    /// Cable length from the source to the farthest device (m).
+    /// Cable length from the source to the farthest device (m). (`--is-cable-m` on `tag
+    /// add/edit`, where `--cable-m` is the loop's cable for the voltage budget.)
     #[arg(long = "cable-m", value_name = "M", allow_hyphen_values = true)]
-    cable_m: Option<String>,
+    is_cable_m: Option<String>,
     /// Cable capacitance per metre (pF/m); left out, the standard's 200 pF/m.
     #[arg(long = "cable-pf-per-m", value_name = "PF", allow_hyphen_values = true)]
     cable_pf_per_m: Option<String>,
@@ -169,8 +170,53 @@ pub struct SetArgs {
     #[command(flatten)]
     circuit: CircuitArgs,
     /// Remove the tag's IS data.
-    #[arg(long, conflicts_with_all = ["device", "uo", "cable_m"])]
+    #[arg(long, conflicts_with_all = CircuitArgs::REMOVE_CONFLICTS)]
     remove: bool,
+}
+
+impl CircuitArgs {
+    /// The flags a "remove the IS data" flag (`intrinsic set --remove`, `tag edit
+    /// --no-intrinsic`) cannot be given with.
+    pub(crate) const REMOVE_CONFLICTS: [&'static str; 3] = ["device", "uo", "is_cable_m"];
+
+    /// Where `tag add/edit` take the IS cable length (`--cable-m` there is the loop's cable
+    /// for the voltage budget): the argument's id and the flag it is given as.
+    pub(crate) const TAG_CABLE_ID: &'static str = "is_cable_m";
+
+    /// True when no IS flag was given at all.
+    pub(crate) fn is_empty(&self) -> bool {
+        let texts = [
+            &self.uo,
+            &self.io,
+            &self.po,
+            &self.co,
+            &self.lo,
+            &self.lo_ro,
+            &self.source_name,
+            &self.source_cert,
+            &self.source_group,
+            &self.ui,
+            &self.ii,
+            &self.pi,
+            &self.ci,
+            &self.li,
+            &self.is_cable_m,
+            &self.cable_pf_per_m,
+            &self.cable_uh_per_m,
+            &self.cable_uh_per_ohm,
+            &self.group,
+            &self.t_class,
+        ];
+        texts.iter().all(|t| t.is_none()) && self.device.is_empty() && self.hand_held.is_empty()
+    }
+
+    /// The circuit these flags give laid over `stored` (the tag's IS data, if any), as
+    /// `intrinsic set` stores it: flags given replace the stored values and a `--device`
+    /// list replaces the stored devices. Bad or missing values name the field.
+    pub(crate) fn circuit_over(&self, stored: Option<&Circuit>) -> Result<Circuit, FieldError> {
+        let base = stored.map(circuit_text).unwrap_or_default();
+        parse_circuit(&apply(base, self, true)?)
+    }
 }
 
 /// Run `loopside intrinsic …`.
@@ -203,7 +249,7 @@ fn apply(
     over(&mut t.source.name, &a.source_name);
     over(&mut t.source.certificate, &a.source_cert);
     over(&mut t.source.group, &a.source_group);
-    over(&mut t.cable.length, &a.cable_m);
+    over(&mut t.cable.length, &a.is_cable_m);
     over(&mut t.cable.c_per_m, &a.cable_pf_per_m);
     over(&mut t.cable.l_per_m, &a.cable_uh_per_m);
     over(&mut t.cable.lr, &a.cable_uh_per_ohm);
@@ -372,16 +418,8 @@ fn set(args: SetArgs, out: &mut dyn Write) -> CliResult {
     let circuit = if args.remove {
         None
     } else {
-        let base = store
-            .require_tag(&args.number)
-            .map_err(store_error)?
-            .tag
-            .intrinsic
-            .as_ref()
-            .map(circuit_text)
-            .unwrap_or_default();
-        let text = apply(base, &args.circuit, true)?;
-        Some(parse_circuit(&text)?)
+        let stored = store.require_tag(&args.number).map_err(store_error)?;
+        Some(args.circuit.circuit_over(stored.tag.intrinsic.as_ref())?)
     };
     let saved = action::set_circuit(&mut store, &args.number, circuit).map_err(store_error)?;
     print_lines(out, &[saved.to_string()])

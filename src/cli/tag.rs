@@ -1,7 +1,8 @@
 //! `loopside tag …`: keep the tag register (add, edit, list, show, rename, archive).
 
-use super::calc::{LoopArgs, RangeArgs, RANGE_REQUIRED, UNIT_REQUIRED};
+use super::calc::{LoopArgs, RangeArgs, TopologyArgs, RANGE_REQUIRED, UNIT_REQUIRED};
 use super::data::{store_error, DataArgs};
+use super::intrinsic::CircuitArgs;
 use super::note::{entry_json, entry_line};
 use super::{print_json, print_lines, CliError, CliResult};
 use crate::action::tag as action;
@@ -199,8 +200,14 @@ impl DescribeArgs {
     loopside tag add FT-310 --range 0..3000 --unit m3/h --sqrt --cutoff 1 --service \"Aeration air header flow\"\n  \
     loopside tag add TT-415 --range 0..150 --unit °C --rtd pt100 --wires 3\n  \
     loopside tag add FV-316 --range 0..100 --unit % --source current-output --compliance-volts 18 --drop positioner=9 --valve-action air-to-open --fail closed\n  \
-    loopside tag add AIT-532 --range 0..50 --unit NTU --topology four-wire --max-load-ohms 750 --load 'PLC input=250'")]
+    loopside tag add AIT-532 --range 0..50 --unit NTU --topology four-wire --max-load-ohms 750 --load 'PLC input=250'\n  \
+    loopside tag add TT-420 --range -20..80 --unit °C --uo 28 --io 93 --po 0.65 --co 83nF --lo 4.2mH \\\n    \
+      --device \"TT-420 tx:ui=30,ii=100,pi=0.75,ci=5nF,li=10uH,group=IIC,t=T4\" --is-cable-m 150 --group IIC\n\
+    The intrinsic-safety flags are the ones `loopside intrinsic set` takes; the IS cable length is\n\
+    --is-cable-m here (--cable-m is the loop's cable for the voltage budget).")]
 #[command(group = RANGE_REQUIRED(), group = UNIT_REQUIRED())]
+#[command(mut_arg(CircuitArgs::TAG_CABLE_ID, |a| a.long("is-cable-m")))]
+#[command(mut_arg(TopologyArgs::HART_CABLE_ID, |a| a.long("hart-cable-pf-per-m")))]
 pub struct TagAddArgs {
     /// Tag number, e.g. LT-101 (any text; never used as a file name).
     number: String,
@@ -210,15 +217,23 @@ pub struct TagAddArgs {
     describe: DescribeArgs,
     #[command(flatten)]
     loop_args: LoopArgs,
+    /// The loop's intrinsically safe circuit (as `loopside intrinsic set`).
+    #[command(flatten, next_help_heading = "Intrinsic safety (as `intrinsic set`)")]
+    intrinsic: CircuitArgs,
 }
 
 /// `loopside tag edit`
 #[derive(Debug, Args)]
 #[command(after_help = "Examples:\n  \
     loopside tag edit LT-101 --area \"Inlet works, JB-02\" --tolerance 0,25\n  \
-    loopside tag edit PDT-707 --range 250..0 --unit mbar\n\
+    loopside tag edit PDT-707 --range 250..0 --unit mbar\n  \
+    loopside tag edit TT-412 --is-cable-m 260\n\
     Giving --range replaces the whole range and transfer (give --sqrt/--table again; the unit is kept unless --unit is given);\n\
-    giving any loop option replaces the loop (give --supply and --min-volts again); --no-loop removes it.")]
+    giving any loop option replaces the loop (give --supply and --min-volts again); --no-loop removes it.\n\
+    Intrinsic-safety flags change the stored IS data as `loopside intrinsic set` does (a --device list replaces\n\
+    the devices); the IS cable length is --is-cable-m here; --no-intrinsic removes the IS data.")]
+#[command(mut_arg(CircuitArgs::TAG_CABLE_ID, |a| a.long("is-cable-m")))]
+#[command(mut_arg(TopologyArgs::HART_CABLE_ID, |a| a.long("hart-cable-pf-per-m")))]
 pub struct TagEditArgs {
     /// Tag number.
     number: String,
@@ -233,6 +248,12 @@ pub struct TagEditArgs {
     /// Forget the loop configuration.
     #[arg(long)]
     no_loop: bool,
+    /// The loop's intrinsically safe circuit (as `loopside intrinsic set`).
+    #[command(flatten, next_help_heading = "Intrinsic safety (as `intrinsic set`)")]
+    intrinsic: CircuitArgs,
+    /// Remove the tag's IS data.
+    #[arg(long, conflicts_with_all = CircuitArgs::REMOVE_CONFLICTS)]
+    no_intrinsic: bool,
 }
 
 /// `loopside tag list`
@@ -290,6 +311,9 @@ pub(super) fn tag(args: TagArgs, out: &mut dyn Write) -> CliResult {
             if !a.loop_args.is_empty() {
                 tag.loop_config = Some(a.loop_args.loop_config()?);
             }
+            if !a.intrinsic.is_empty() {
+                tag.intrinsic = Some(a.intrinsic.circuit_over(None)?);
+            }
             action::add_tag(&mut store, tag)
                 .map_err(store_error)?
                 .to_string()
@@ -308,6 +332,11 @@ pub(super) fn tag(args: TagArgs, out: &mut dyn Write) -> CliResult {
                 tag.loop_config = None;
             } else if !a.loop_args.is_empty() {
                 tag.loop_config = Some(a.loop_args.loop_config()?);
+            }
+            if a.no_intrinsic {
+                tag.intrinsic = None;
+            } else if !a.intrinsic.is_empty() {
+                tag.intrinsic = Some(a.intrinsic.circuit_over(tag.intrinsic.as_ref())?);
             }
             action::edit_tag(&mut store, &a.number, tag)
                 .map_err(store_error)?

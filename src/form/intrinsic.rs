@@ -309,7 +309,7 @@ pub fn parse_circuit(c: &CircuitText) -> Result<Circuit> {
     let area_group = if c.area_group.trim().is_empty() {
         return Err(FieldError::new(
             "group",
-            "is missing; type the gas group the area asks for (IIA, IIB or IIC)",
+            "is missing; give the gas group the area asks for (IIA, IIB or IIC)",
         ));
     } else {
         GasGroup::parse("group", &c.area_group)?

@@ -18,13 +18,19 @@
 //!
 //! # The 1 % rule (lumped inductance and capacitance together)
 //!
-//! Where both the total Ci and the total Li of the devices (the cable not counted) exceed
-//! 1 % of Co and Lo, only 50 % of Co and Lo may be used, and the capacitance so reduced
-//! shall not exceed 1 µF for groups IIA and IIB and 600 nF for IIC. From memory of
-//! IEC 60079-14:2013 (clause 16.2.4 and its notes) and IEC 60079-11:2011 (Annex A), NOT
-//! confirmed against the published text in this session: the published pages we could
-//! reach did not quote it. Taken on the safe side: exactly 1 % counts as exceeding, and
-//! the 1 µF / 600 nF ceiling is applied (it can only lower the allowed capacitance).
+//! Where both the total Ci and the total Li of the devices (the cable not counted) are at
+//! least 1 % of Co and Lo, only 50 % of Co and Lo may be used, and the capacitance so
+//! reduced (cable included) shall not exceed 1 µF for groups IIA and IIB and 600 nF for
+//! IIC; where either total is under 1 %, Co and Lo are used in full. Confirmed as published
+//! in the conditions of use of a certified apparatus: Rockwell Automation, "FLEX Ex I/O
+//! 24V DC 4 Non-Isolated Source Output Module", publication 1797-5.6 (June 2011), p. 20
+//! ("shall be reduced to 50 % when … the total Li of the external circuit (excluding the
+//! cable) is ≥ 1 % of the Lo value and the total Ci … is ≥ 1 % of the Co value"; "the
+//! reduced capacitance of the external circuit (including cable) shall not be greater
+//! than 1 µF for IIB and IIA and 600 nF for IIC"). The clause numbers of the standards it
+//! comes from (IEC 60079-14:2013 clause 16.2.4, IEC 60079-11:2011) are from memory: the
+//! standards' own text could not be read in this session. Exactly 1 % counts (the
+//! published wording says ≥ 1 %); the ceiling can only lower the allowed capacitance.
 //!
 //! # Cable
 //!
@@ -32,9 +38,13 @@
 //! values for conventional two- or three-core cables: 200 pF/m and 1 µH/m (IEC 60079-14
 //! and IEC 60079-25 cable parameters, as summarised in "Calculating Intrinsically Safe
 //! Cable Capacitance: IEC 60079-25 Methods", industrialmonitordirect.com knowledge base;
-//! clause numbers from memory). The same summary gives a default L/R of 30 µH/Ω for
-//! Io ≤ 3 A; this module does NOT use a default L/R: the L/R route is taken only with the
-//! cable's own L/R typed (safe side).
+//! clause numbers from memory; the standards' own text could not be read). They are at or
+//! above the defaults a North American control drawing gives for unknown field wiring,
+//! 60 pF/ft (196.9 pF/m) and 0.2 µH/ft (0.656 µH/m) (OPW "924B Probe Control Drawing",
+//! SiteSentinel iTouch manual appendix M, as published at easymanua.ls), so they are on
+//! the safe side of both. The same summary gives a default L/R of 30 µH/Ω for Io ≤ 3 A;
+//! this module does NOT use a default L/R: the L/R route is taken only with the cable's
+//! own L/R typed (safe side).
 //!
 //! # Simple apparatus
 //!
@@ -43,8 +53,12 @@
 //! 25 mW). They take the circuit's gas group; their Ci and Li count where known (zero
 //! otherwise). Their temperature class is assessed from the source's power: T4 where
 //! Po ≤ 1.3 W at an ambient of at most 40 °C ([`SIMPLE_APPARATUS_T4_WATTS`]; from memory of
-//! IEC 60079-11 clause 5.6 / IEC 60079-14, not confirmed here). An area needing T5 or T6
-//! fails this check: showing it needs an assessment this tool does not make.
+//! IEC 60079-11 clause 5.6 / IEC 60079-14, NOT confirmed: no published text quoting the
+//! rule was found in this session). An area needing T5 or T6 fails this check: showing it
+//! needs an assessment this tool does not make. (North American texts define simple
+//! apparatus with 1.2 V, 0.1 A, 25 mW and 20 µJ instead: API RP 14FZ as quoted in the
+//! IADC lexicon; the tool does not test these, it takes the technician's word that the
+//! device is simple apparatus.)
 //!
 //! # Margins
 //!
@@ -59,17 +73,18 @@ use crate::error::{finite, FieldError, Result};
 use serde::{Deserialize, Serialize};
 use std::fmt;
 
-/// The fraction of Co and Lo the devices' lumped Ci and Li must both exceed for the
-/// 1 % rule to apply (IEC 60079-14; from memory, see the module).
+/// The fraction of Co and Lo the devices' lumped Ci and Li must both reach for the 1 %
+/// rule to apply (IEC 60079-14, as published in Rockwell Automation publication 1797-5.6,
+/// p. 20; see the module).
 pub const LUMPED_FRACTION: f64 = 0.01;
 /// Relative allowance under which a sum counts as reaching 1 % (binary rounding only:
 /// one part in 10⁹, far below any certificate's resolution).
 pub const BOUNDARY_ALLOWANCE: f64 = 1e-9;
-/// Ceiling on the halved capacitance for groups IIA and IIB, farads (1 µF; from memory,
-/// see the module).
+/// Ceiling on the halved capacitance for groups IIA and IIB, farads (1 µF; Rockwell
+/// Automation publication 1797-5.6, p. 20, see the module).
 pub const HALVED_CEILING_IIB_FARADS: f64 = 1.0e-6;
-/// Ceiling on the halved capacitance for group IIC, farads (600 nF; from memory, see the
-/// module).
+/// Ceiling on the halved capacitance for group IIC, farads (600 nF; Rockwell Automation
+/// publication 1797-5.6, p. 20, see the module).
 pub const HALVED_CEILING_IIC_FARADS: f64 = 600.0e-9;
 /// Cable capacitance used when the cable's is unknown, F/m (200 pF/m: IEC 60079-14 /
 /// IEC 60079-25 default for conventional cables, see the module).
@@ -802,8 +817,9 @@ fn check_valid(circuit: &Circuit) -> Verdict {
     // The 1 % rule: the devices' lumped C and L only, the cable not counted.
     let ci_total: f64 = circuit.devices.iter().map(|d| d.ci_farads).sum();
     let li_total: f64 = circuit.devices.iter().map(|d| d.li_henries).sum();
-    // Exactly 1 % counts (safe side); the relative allowance keeps a value typed as
-    // exactly 1 % from being missed by binary rounding (42 µH against 1 % of 4.2 mH).
+    // Exactly 1 % counts (the published rule says ≥ 1 %); the relative allowance keeps a
+    // value typed as exactly 1 % from being missed by binary rounding (42 µH against 1 %
+    // of 4.2 mH).
     let threshold = LUMPED_FRACTION * (1.0 - BOUNDARY_ALLOWANCE);
     let halved = ci_total >= threshold * s.co_farads && li_total >= threshold * s.lo_henries;
     let (co_allowed, lo_allowed, capped) = if halved {

@@ -6,7 +6,7 @@
 
 use crate::display;
 use crate::form::intrinsic::{parse_circuit, CircuitText};
-use crate::intrinsic::{self, Circuit, Verdict};
+use crate::intrinsic::{self, Circuit, GasGroup, TempClass, Verdict};
 use crate::view::wording::intrinsic as words;
 use crate::view::Tone;
 
@@ -161,6 +161,95 @@ pub fn view(text: &CircuitText) -> IsView {
     }
 }
 
+/// A gas-group or temperature-class picker on the IS screen: what each option shows, the
+/// form text it stands for, and the one picked.
+#[derive(Debug, Clone, PartialEq)]
+pub struct IsChoices {
+    /// The words of each option, [`NOT_GIVEN`] first.
+    pub options: Vec<String>,
+    /// The form's text for each option (empty for [`NOT_GIVEN`]).
+    pub texts: Vec<String>,
+    /// The option picked.
+    pub current: usize,
+}
+
+impl IsChoices {
+    /// The form's text for option `index` (what a tap on it stores); `None` past the end.
+    pub fn text_of(&self, index: usize) -> Option<&str> {
+        self.texts.get(index).map(String::as_str)
+    }
+}
+
+/// The words of each picker's first option: nothing recorded (the check then lists what
+/// it could not check; the area's gas group is asked for by name).
+pub const NOT_GIVEN: &str = "not given";
+
+/// The picker for `current` (the form's text) over `listed` (words, text) pairs; a text
+/// that does not read as one of them (typed before the picker, or on the command line) is
+/// offered as typed, so nothing changes unseen: the check names it.
+fn choices(
+    current: &str,
+    listed: Vec<(String, String)>,
+    read: impl Fn(&str) -> Option<String>,
+) -> IsChoices {
+    let (mut options, mut texts): (Vec<String>, Vec<String>) =
+        std::iter::once((NOT_GIVEN.to_string(), String::new()))
+            .chain(listed)
+            .unzip();
+    let typed = current.trim();
+    let current = if typed.is_empty() {
+        0
+    } else {
+        match read(typed).and_then(|t| texts.iter().position(|x| *x == t)) {
+            Some(i) => i,
+            None => {
+                options.push(typed.to_string());
+                texts.push(typed.to_string());
+                options.len() - 1
+            }
+        }
+    };
+    IsChoices {
+        options,
+        texts,
+        current,
+    }
+}
+
+/// The gas-group picker (IIA, IIB, IIC, each with its gases) for a group as the form
+/// holds it (`IIC`, `2c`; empty: not given).
+pub fn group_choices(current: &str) -> IsChoices {
+    choices(
+        current,
+        GasGroup::ALL
+            .iter()
+            .map(|&g| (words::group_option(g), g.label().to_string()))
+            .collect(),
+        |t| {
+            GasGroup::parse("group", t)
+                .ok()
+                .map(|g| g.label().to_string())
+        },
+    )
+}
+
+/// The temperature-class picker (T1 to T6, each with its surface temperature) for a class
+/// as the form holds it (`T4`; empty: not given).
+pub fn class_choices(current: &str) -> IsChoices {
+    choices(
+        current,
+        TempClass::ALL
+            .iter()
+            .map(|&c| (words::class_option(c), c.label().to_string()))
+            .collect(),
+        |t| {
+            TempClass::parse("class", t)
+                .ok()
+                .map(|c| c.label().to_string())
+        },
+    )
+}
+
 /// The IS card Power shows for a tag with IS data: the verdict of its stored circuit, the
 /// longest cable, and how it stands (`None` for a tag without IS data).
 pub fn power_card(tag: &crate::tag::Tag) -> Option<(String, String, Tone)> {
@@ -193,6 +282,39 @@ mod tests {
         assert_eq!(v.picture[1].title, "Cable 185 m");
         assert!(v.rows.iter().all(|r| r.mark == "pass"));
         assert!(v.caution[0].contains("competent person"));
+    }
+
+    #[test]
+    fn the_pickers_list_every_group_and_class_in_words_and_read_back_what_they_show() {
+        let g = group_choices("");
+        assert_eq!(
+            g.options,
+            [
+                "not given",
+                "IIA (propane)",
+                "IIB (ethylene)",
+                "IIC (hydrogen, acetylene)"
+            ]
+        );
+        assert_eq!(g.current, 0);
+        for i in 0..g.options.len() {
+            let text = g.text_of(i).unwrap();
+            assert_eq!(group_choices(text).current, i, "{text:?}");
+        }
+        // As technicians type it: `2c`, ` iic `.
+        assert_eq!(group_choices(" 2c ").current, 3);
+        let t = class_choices("t4");
+        assert_eq!(t.options.len(), 7);
+        assert_eq!(t.options[4], "T4 (135 °C)");
+        assert_eq!(t.options[6], "T6 (85 °C)");
+        assert_eq!(t.current, 4);
+        assert_eq!(t.text_of(4), Some("T4"));
+        assert_eq!(t.text_of(7), None);
+        // A text that does not read is offered as typed (the check names it), not lost.
+        let odd = group_choices("IID");
+        assert_eq!(odd.options.len(), 5);
+        assert_eq!(odd.current, 4);
+        assert_eq!(odd.text_of(4), Some("IID"));
     }
 
     #[test]

@@ -5,8 +5,9 @@
 
 use crate::display;
 use crate::intrinsic::{
-    CableLimit, Check, CheckName, Circuit, Compared, DeviceKind, NotChecked, Quantity, Source,
-    Verdict, DEFAULT_CABLE_FARADS_PER_M, DEFAULT_CABLE_HENRIES_PER_M, SIMPLE_APPARATUS_T4_WATTS,
+    CableLimit, Check, CheckName, Circuit, Compared, DeviceKind, GasGroup, NotChecked, Quantity,
+    Source, TempClass, Verdict, DEFAULT_CABLE_FARADS_PER_M, DEFAULT_CABLE_HENRIES_PER_M,
+    SIMPLE_APPARATUS_T4_WATTS,
 };
 
 /// The caution shown before the IS card and the `intrinsic` command's answer.
@@ -67,6 +68,23 @@ pub fn device_parameters(kind: &DeviceKind, sep: &str) -> String {
         .join(sep),
         DeviceKind::Simple => "simple apparatus".to_string(),
     }
+}
+
+/// The words of a gas group on the IS screen's picker: the group and the gases it stands
+/// for (IEC 60079-0 representative gases): `IIC (hydrogen, acetylene)`.
+pub fn group_option(g: GasGroup) -> String {
+    let gases = match g {
+        GasGroup::IIA => "propane",
+        GasGroup::IIB => "ethylene",
+        GasGroup::IIC => "hydrogen, acetylene",
+    };
+    format!("{} ({gases})", g.label())
+}
+
+/// The words of a temperature class on the IS screen's picker: the class and its highest
+/// surface temperature: `T4 (135 °C)`.
+pub fn class_option(c: TempClass) -> String {
+    format!("{} ({} °C)", c.label(), display::whole(c.max_surface_c()))
 }
 
 /// `pass` or `FAIL`, as every check is marked (capitals for the one that needs action).
@@ -243,7 +261,7 @@ pub fn notes(circuit: &Circuit, v: &Verdict) -> Vec<String> {
     let mut out = Vec::new();
     if v.halved {
         out.push(format!(
-            "The devices' Ci and Li both exceed 1 % of Co and Lo, so only half of Co and Lo is used (IEC 60079-14){}.",
+            "The devices' Ci and Li are both at least 1 % of Co and Lo, so only half of Co and Lo is used (IEC 60079-14){}.",
             if v.capped {
                 format!(
                     ", and the capacitance is held to {} for {}",
