@@ -147,7 +147,15 @@ fn focus_field(h: &Headless, label: &str, start: &str) -> bool {
         return false;
     };
     field.set_accessible_value(start);
-    field.mock_single_click(PointerEventButton::Left);
+    // A tap at the field's centre, through the window as a finger's would come (the
+    // testing backend's own click helper moves a mock clock this platform does not use).
+    let at = field.absolute_position();
+    let size = field.size();
+    let position = slint::LogicalPosition::new(at.x + size.width / 2.0, at.y + size.height / 2.0);
+    let window = h.app.window.window();
+    let button = PointerEventButton::Left;
+    window.dispatch_event(WindowEvent::PointerPressed { position, button });
+    window.dispatch_event(WindowEvent::PointerReleased { position, button });
     true
 }
 

@@ -18,14 +18,30 @@
 //! capacitance set their own limits. A supply at or below the transmitter minimum is a
 //! valid input: the answer is "not enough", with the numbers.
 //!
+//! How the loop is built ([`topology`]) decides what supplies its voltage and which limit
+//! applies: a supply (or an input card that powers the loop) against a two-wire or
+//! three-wire transmitter's minimum, or a current source's compliance (a four-wire
+//! transmitter, an analog output, an isolator's output side) against everything it
+//! drives. The figures (verdict, headroom, maximum load, spare, longest cable) mean the
+//! same for every topology: the margin of whatever drives the current. A loop wired with
+//! two sources or none gets its figures worked from the first source wired (or from 0 V)
+//! and a [`BudgetLimit::Topology`] verdict that is never "ok". A loop through an isolator
+//! is budgeted side by side ([`topology::IsolatedLoop`]). HART's cable limit by RC time
+//! constant is in [`hart`].
+//!
 //! The budget returns numbers and codes: what limits the loop is a [`BudgetLimit`] (with
 //! the element taking most of the supply), the HART verdict a [`HartVerdict`]; the words
 //! are written once in `crate::view::wording::power`.
 
+pub mod hart;
+pub mod topology;
+
 use crate::display;
 use crate::error::{finite, non_negative, within, FieldError, Result};
 use crate::wire::{self, Conductor};
+use hart::{Binding, HartCable, HartCableLimit};
 use serde::{Deserialize, Serialize};
+use topology::{Compliance, Device, SourceKind, Topology, TopologyFault, Wiring};
 
 /// HART needs at least this much loop resistance to develop its signal (HART physical
 /// layer, HCF_SPEC-54: 230 Ω minimum; 250 Ω is the usual resistor).
@@ -122,6 +138,14 @@ pub struct LoopConfig {
     pub fault_ma: Option<f64>,
     /// HART communication window, Ω (low, high).
     pub hart_window_ohms: (f64, f64),
+    /// How the loop is wired: the driving device and what supplies the voltage (today's
+    /// two-wire transmitter on a DC supply unless told).
+    pub wiring: Wiring,
+    /// A current source's compliance (four-wire transmitter, analog output, isolator
+    /// output side); `None` for a loop supplied by a supply or an active input.
+    pub compliance: Option<Compliance>,
+    /// The cable's capacitance for HART's RC limit, when given.
+    pub hart_cable: Option<HartCable>,
 }
 
 fn default_fault_ma() -> f64 {
@@ -153,6 +177,16 @@ struct StoredLoopConfig {
     fault_ma_configured: Option<bool>,
     #[serde(default = "default_hart_window")]
     hart_window_ohms: (f64, f64),
+    #[serde(default, skip_serializing_if = "is_default_wiring")]
+    wiring: Wiring,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    compliance: Option<Compliance>,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    hart_cable: Option<HartCable>,
+}
+
+fn is_default_wiring(w: &Wiring) -> bool {
+    *w == Wiring::default()
 }
 
 impl From<StoredLoopConfig> for LoopConfig {
@@ -168,6 +202,9 @@ impl From<StoredLoopConfig> for LoopConfig {
             cable: s.cable,
             fault_ma: configured.then_some(s.fault_ma),
             hart_window_ohms: s.hart_window_ohms,
+            wiring: s.wiring,
+            compliance: s.compliance,
+            hart_cable: s.hart_cable,
         }
     }
 }
@@ -183,6 +220,9 @@ impl From<LoopConfig> for StoredLoopConfig {
             elements: c.elements,
             cable: c.cable,
             hart_window_ohms: c.hart_window_ohms,
+            wiring: c.wiring,
+            compliance: c.compliance,
+            hart_cable: c.hart_cable,
         }
     }
 }
@@ -198,6 +238,56 @@ impl LoopConfig {
             cable: None,
             fault_ma: None,
             hart_window_ohms: default_hart_window(),
+            wiring: Wiring::default(),
+            compliance: None,
+            hart_cable: None,
+        }
+    }
+
+    /// A loop driven by a current source (a four-wire transmitter's output when `device`
+    /// is [`Device::FourWire`], else an analog output or an isolator's output side) with
+    /// this compliance, nothing in series yet. The supply and transmitter-minimum fields
+    /// are unused (0).
+    pub fn current_output(device: Device, compliance: Compliance) -> LoopConfig {
+        let mut c = LoopConfig::new(0.0, 0.0);
+        c.wiring = Wiring {
+            device,
+            supply: false,
+            active_input: false,
+        };
+        c.compliance = Some(compliance);
+        c
+    }
+
+    /// The source whose figures the budget is worked from: the one source; with two, the
+    /// first wired; with none, `None` (0 V).
+    pub fn working_source(&self) -> Option<SourceKind> {
+        match self.wiring.source() {
+            Ok(s) => Some(s),
+            Err(TopologyFault::TwoSources { sources }) => sources.first().copied(),
+            Err(TopologyFault::NoSource) => None,
+        }
+    }
+
+    /// Volts the working source has at its lowest (a supply less its sag, or a current
+    /// source's compliance; 0 with no source), and the minimum the driving device needs
+    /// at its own terminals (a two-wire or three-wire transmitter's minimum; 0 for a
+    /// current source, whose compliance already counts its own drop).
+    fn available_and_needed_volts(&self) -> (f64, f64) {
+        let need = if self.wiring.device.is_current_source() {
+            0.0
+        } else {
+            self.tx_min_volts
+        };
+        match self.working_source() {
+            Some(SourceKind::Supply) | Some(SourceKind::ActiveInput) => (
+                self.supply_volts * (1.0 - self.supply_tolerance_percent / 100.0),
+                need,
+            ),
+            Some(SourceKind::CurrentOutput) => {
+                (self.compliance.map(Compliance::volts).unwrap_or(0.0), 0.0)
+            }
+            None => (0.0, need),
         }
     }
 
@@ -250,6 +340,26 @@ impl LoopConfig {
                 Conductor::awg(g)?;
             }
         }
+        self.wiring.validate()?;
+        match (self.wiring.device.is_current_source(), self.compliance) {
+            (true, Some(c)) => c.validate()?,
+            (true, None) => {
+                return Err(FieldError::new(
+                    "compliance_volts",
+                    "is missing: a current output (four-wire transmitter, analog output, isolator output side) needs its compliance, volts at 20 mA (0 to 1000 V) or maximum load (0 to 50000 Ω)",
+                ))
+            }
+            (false, Some(_)) => {
+                return Err(FieldError::new(
+                    "compliance_volts",
+                    "applies only to a loop driven by a current output; a supply or an active input gives its volts as the supply",
+                ))
+            }
+            (false, None) => {}
+        }
+        if let Some(h) = &self.hart_cable {
+            h.validate()?;
+        }
         let (lo, hi) = self.hart_window_ohms;
         non_negative("hart_min_ohms", lo)?;
         finite("hart_max_ohms", hi)?;
@@ -269,7 +379,8 @@ impl LoopConfig {
     /// Work out the budget. Errors only for invalid input, never for "not enough volts".
     pub fn budget(&self) -> Result<Budget> {
         self.validate()?;
-        let lowest_supply = self.supply_volts * (1.0 - self.supply_tolerance_percent / 100.0);
+        let (lowest_supply, need_volts) = self.available_and_needed_volts();
+        let current_source = self.working_source() == Some(SourceKind::CurrentOutput);
         let cable_ohms = match &self.cable {
             Some(c) => wire::loop_ohms(&c.conductor, c.one_way_m, c.temp_c)?,
             None => 0.0,
@@ -291,14 +402,20 @@ impl LoopConfig {
             })
             .sum();
         let loop_ohms = element_ohms + cable_ohms;
+        // A three-wire transmitter's own current also flows in the supply conductor (one
+        // of the two the cable figure counts), whatever the signal: a fixed drop.
+        let own_ma = self.wiring.device.own_ma();
+        let own_volts = own_ma / 1000.0 * cable_ohms / 2.0;
+        let fixed_drop_volts = fixed_drop_volts + own_volts;
 
         let fault_ma = self.fault_current_ma();
-        let point = |ma: f64| self.operating_point(ma, lowest_supply, cable_ohms);
+        let point =
+            |ma: f64| self.operating_point(ma, lowest_supply, need_volts, cable_ohms, own_volts);
         let at_low = point(4.0);
         let at_full_scale = point(20.0);
         let at_fault = point(fault_ma);
 
-        let available = lowest_supply - self.tx_min_volts - fixed_drop_volts;
+        let available = lowest_supply - need_volts - fixed_drop_volts;
         // Largest loop resistance that leaves the transmitter its minimum at `ma` (≥ 20 mA,
         // checked above).
         let max_load_at = |ma: f64| (available / (ma / 1000.0)).max(0.0);
@@ -306,10 +423,15 @@ impl LoopConfig {
         let max_load_fault_ohms = max_load_at(fault_ma);
         let spare_ohms = max_load_ohms - loop_ohms;
         let spare_fault_ohms = max_load_fault_ohms - loop_ohms;
-        let needed_at = |ma: f64| self.tx_min_volts + fixed_drop_volts + loop_ohms * ma / 1000.0;
+        let needed_at = |ma: f64| need_volts + fixed_drop_volts + loop_ohms * ma / 1000.0;
         let min_supply_volts = needed_at(20.0);
         let min_supply_fault_volts = needed_at(fault_ma.max(20.0));
-        let derate = 1.0 - self.supply_tolerance_percent / 100.0;
+        // A current source's compliance is its own data: no sag is applied to it.
+        let derate = if current_source {
+            1.0
+        } else {
+            1.0 - self.supply_tolerance_percent / 100.0
+        };
         let min_nominal_supply_volts = min_supply_fault_volts / derate;
 
         // Longest one-way run of this conductor whose two conductors fit in what is left
@@ -317,8 +439,23 @@ impl LoopConfig {
         let (max_cable_m, max_cable_fault_m) = match &self.cable {
             Some(c) => {
                 let per_m_loop = 2.0 * c.conductor.ohms_per_km(c.temp_c)? / 1000.0;
-                let run = |max_load: f64| ((max_load - element_ohms) / per_m_loop).max(0.0);
-                (Some(run(max_load_ohms)), Some(run(max_load_fault_ohms)))
+                if own_ma > 0.0 {
+                    // Three-wire: at I the cable takes I·(2ρ)·L for the signal and
+                    // I_own·ρ·L for the transmitter's own current (Kirchhoff), so
+                    // L = (V − V_min − drops − I·R_elements) / (ρ·(2I + I_own)).
+                    let elements_fixed = fixed_drop_volts - own_volts;
+                    let run = |ma: f64| {
+                        let spare = lowest_supply
+                            - need_volts
+                            - elements_fixed
+                            - element_ohms * ma / 1000.0;
+                        (spare / (per_m_loop / 2.0 * (2.0 * ma + own_ma) / 1000.0)).max(0.0)
+                    };
+                    (Some(run(20.0)), Some(run(fault_ma)))
+                } else {
+                    let run = |max_load: f64| ((max_load - element_ohms) / per_m_loop).max(0.0);
+                    (Some(run(max_load_ohms)), Some(run(max_load_fault_ohms)))
+                }
             }
             None => (None, None),
         };
@@ -343,15 +480,63 @@ impl LoopConfig {
             }
         };
 
-        let ok_full_scale = at_full_scale.ok;
-        let ok_fault = at_fault.ok;
-        let limit = self.limit(
-            lowest_supply,
-            &at_full_scale,
-            &at_fault,
-            min_supply_fault_volts,
-            (spare_ohms, spare_fault_ohms),
-        );
+        let topology_fault = self.wiring.fault();
+        let ok_full_scale = at_full_scale.ok && topology_fault.is_none();
+        let ok_fault = at_fault.ok && topology_fault.is_none();
+        let limit = match &topology_fault {
+            Some(fault) => BudgetLimit::Topology {
+                fault: fault.clone(),
+            },
+            None => self.limit(
+                lowest_supply,
+                need_volts,
+                &at_full_scale,
+                &at_fault,
+                min_supply_fault_volts,
+                (spare_ohms, spare_fault_ohms),
+            ),
+        };
+        let hart_cable = self.hart_cable.map(|h| {
+            let per_m = match &self.cable {
+                Some(c) => c
+                    .conductor
+                    .ohms_per_km(c.temp_c)
+                    .map(|r| 2.0 * r / 1000.0)
+                    .unwrap_or(0.0),
+                None => 0.0,
+            };
+            let devices_nf = h.devices_nf.unwrap_or(hart::DEFAULT_DEVICES_NF);
+            let devices_farads = devices_nf * 1e-9;
+            let farads_per_m = h.cable_pf_per_m * 1e-12;
+            let max_cable_m = hart::max_cable_m(element_ohms, per_m, devices_farads, farads_per_m);
+            let binding = match (max_cable_m, max_cable_fault_m) {
+                (Some(h), Some(v)) => Some(if h < v {
+                    Binding::Hart
+                } else {
+                    Binding::Voltage
+                }),
+                (None, Some(_)) => Some(Binding::Voltage),
+                _ => None,
+            };
+            HartCableLimit {
+                fixed_ohms: element_ohms,
+                cable_ohms_per_m: per_m,
+                devices_farads,
+                devices_is_default: h.devices_nf.is_none(),
+                cable_farads_per_m: farads_per_m,
+                max_cable_m,
+                time_constant_s: self.cable.as_ref().map(|c| {
+                    hart::time_constant_s(
+                        element_ohms,
+                        per_m,
+                        devices_farads,
+                        farads_per_m,
+                        c.one_way_m,
+                    )
+                }),
+                binding,
+            }
+        });
         Ok(Budget {
             lowest_supply_volts: lowest_supply,
             cable_ohms,
@@ -370,7 +555,17 @@ impl LoopConfig {
             max_cable_m,
             max_cable_fault_m,
             fault_ma_is_default: self.fault_ma.is_none(),
-            supply_sag_percent: self.supply_tolerance_percent,
+            supply_sag_percent: if current_source {
+                0.0
+            } else {
+                self.supply_tolerance_percent
+            },
+            driver_min_volts: need_volts,
+            source: self.wiring.source().ok(),
+            worked_from: self.working_source(),
+            topology: self.wiring.topology(),
+            topology_fault,
+            hart_cable,
             ok: ok_full_scale && ok_fault,
             ok_full_scale,
             ok_fault,
@@ -380,7 +575,14 @@ impl LoopConfig {
         })
     }
 
-    fn operating_point(&self, ma: f64, supply: f64, cable_ohms: f64) -> OperatingPoint {
+    fn operating_point(
+        &self,
+        ma: f64,
+        supply: f64,
+        need_volts: f64,
+        cable_ohms: f64,
+        own_volts: f64,
+    ) -> OperatingPoint {
         let mut parts: Vec<BudgetPart> = self
             .elements
             .iter()
@@ -399,10 +601,17 @@ impl LoopConfig {
                 volts: cable_ohms * ma / 1000.0,
                 role: PartRole::Cable,
             });
+            if own_volts > 0.0 {
+                parts.push(BudgetPart {
+                    name: "cable (transmitter's own current)".to_string(),
+                    volts: own_volts,
+                    role: PartRole::Cable,
+                });
+            }
         }
         let used: f64 = parts.iter().map(|p| p.volts).sum();
         let terminal_volts = supply - used;
-        let headroom_volts = terminal_volts - self.tx_min_volts;
+        let headroom_volts = terminal_volts - need_volts;
         OperatingPoint {
             current_ma: ma,
             terminal_volts,
@@ -412,18 +621,20 @@ impl LoopConfig {
         }
     }
 
+    #[allow(clippy::too_many_arguments)]
     fn limit(
         &self,
         supply: f64,
+        need_volts: f64,
         full: &OperatingPoint,
         fault: &OperatingPoint,
         min_supply: f64,
         (spare_full_ohms, spare_fault_ohms): (f64, f64),
     ) -> BudgetLimit {
-        if supply <= self.tx_min_volts {
+        if supply <= need_volts {
             return BudgetLimit::SupplyAtOrBelowMinimum {
                 supply_volts: supply,
-                tx_min_volts: self.tx_min_volts,
+                tx_min_volts: need_volts,
             };
         }
         // The verdict is given at the tighter current, and the spare load quoted with it is
@@ -492,6 +703,11 @@ pub enum BudgetLimit {
         min_supply_volts: f64,
         /// The part of the loop that takes most of the supply at that current.
         largest: Option<BudgetPart>,
+    },
+    /// The loop as wired has two sources or none: no figure makes it work.
+    Topology {
+        /// What is wrong with the wiring.
+        fault: TopologyFault,
     },
 }
 
@@ -566,13 +782,15 @@ pub struct OperatingPoint {
 /// The worked budget of a loop.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Budget {
-    /// Nominal supply less its tolerance, V: the budget is worked at this.
+    /// Nominal supply less its tolerance, V: the budget is worked at this. For a loop
+    /// driven by a current source, its compliance (no sag applied); with no source, 0.
     pub lowest_supply_volts: f64,
     /// Both conductors of the cable, Ω.
     pub cable_ohms: f64,
     /// All resistive elements plus the cable, Ω.
     pub loop_ohms: f64,
-    /// Sum of fixed drops, V.
+    /// Sum of fixed drops, V (with a three-wire transmitter's own current in the supply
+    /// conductor).
     pub fixed_drop_volts: f64,
     /// At 4 mA.
     pub at_low: OperatingPoint,
@@ -607,7 +825,22 @@ pub struct Budget {
     /// How far below nominal the supply was allowed to sag, % (0: none assumed; the
     /// budget is worked at the nominal supply).
     pub supply_sag_percent: f64,
-    /// Enough voltage at 20 mA and at the fault current.
+    /// What the driving device needs at its own terminals, V: the transmitter minimum for
+    /// a two-wire or three-wire transmitter, 0 for a current source (its compliance is
+    /// what it has left for the loop).
+    pub driver_min_volts: f64,
+    /// What supplies the loop, when exactly one thing does.
+    pub source: Option<SourceKind>,
+    /// The source the figures are worked from: [`Budget::source`], or with two sources the
+    /// first wired; `None` with no source (worked from 0 V).
+    pub worked_from: Option<SourceKind>,
+    /// The topology from the short list (or [`Topology::Faulty`]).
+    pub topology: Topology,
+    /// Two sources or none, when the loop is wired so.
+    pub topology_fault: Option<TopologyFault>,
+    /// HART's cable limit by RC time constant, when the cable's capacitance was given.
+    pub hart_cable: Option<HartCableLimit>,
+    /// Enough voltage at 20 mA and at the fault current (never with a topology fault).
     pub ok: bool,
     /// Enough voltage at 20 mA.
     pub ok_full_scale: bool,

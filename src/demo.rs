@@ -17,17 +17,30 @@
 //! high-high level trip to a safety function) with its yearly trip tests, and three years
 //! of as-found checks of LT-101 whose error grows visit by visit.
 //!
+//! Beyond two-wire inputs, five more loops of the same works (all figures INVENTED for
+//! the demo): FV-315, an analog output driving the aeration air control valve's positioner
+//! (air to open, fails closed); TV-418A/B, a split-range pair of digester heating and
+//! cooling water valves on one output; AIT-531, a four-wire turbidity analyser on its own
+//! mains supply; PT-208, a pressure loop through an isolator. Their log has stroke checks
+//! (one failed as found and passed as left), a four-wire commissioning fault (two sources
+//! in one loop) and a note on the isolator's budget.
+//!
 //! Where the brief gives no figure, the plant standard assumed here is a 24 V supply and
 //! a 10.5 V transmitter minimum; those are marked in each tag's notes.
 
+use crate::budget::topology::{Compliance, Device, Topology};
 use crate::budget::{Cable, LoopConfig, SeriesElement};
+use crate::check::Stage;
 use crate::error::{FieldError, Result};
 use crate::journal::{Entry, Kind, TagId};
+use crate::leave::{Item, LeaveList};
 use crate::rtd::{RtdKind, Wiring};
 use crate::scale::{CharTable, RootLocation, Scale, SignalSpan, TablePoint, Transfer};
 use crate::sensor::Sensor;
 use crate::store::{Store, StoreError, StoreResult};
+use crate::stroke::{ReadAt, StrokeInput, StrokeRecord, FIVE_POINTS};
 use crate::tag::Tag;
+use crate::valve::{FailPosition, Valve, ValveAction};
 use crate::wire::Conductor;
 use chrono::{DateTime, Duration, FixedOffset, NaiveTime, TimeZone};
 use serde_json::json;
@@ -253,6 +266,7 @@ pub fn tags() -> Result<Vec<Tag>> {
     for (t, days) in all.iter_mut().zip([365, 365, 180, 365, 90, 730, 365, 365]) {
         t.calibration_interval_days = Some(days);
     }
+    all.extend(loops_beyond_two_wire()?);
     Ok(all)
 }
 
@@ -298,6 +312,159 @@ pub fn references(today: chrono::NaiveDate) -> Vec<crate::calibration::reference
             calibration_due: today - Duration::days(12),
         },
     ]
+}
+
+/// 1.0 mm² pair at 20 °C, `m` one way.
+fn pair(m: f64) -> Result<Option<Cable>> {
+    Ok(Some(Cable {
+        one_way_m: m,
+        conductor: Conductor::mm2(1.0)?,
+        temp_c: 20.0,
+    }))
+}
+
+/// FV-315, TV-418A, TV-418B, AIT-531 and PT-208: an output loop, a split-range pair, a
+/// four-wire analyser and a loop through an isolator (invented figures, see the module).
+pub fn loops_beyond_two_wire() -> Result<Vec<Tag>> {
+    let mut fv315 = tag(
+        "FV-315",
+        "Aeration air header control valve",
+        "Blower hall",
+        Scale::linear(0.0, 100.0, "%")?,
+    )?;
+    let mut l =
+        LoopConfig::current_output(Device::AnalogOutput, Compliance::MaxLoad { ohms: 750.0 });
+    l.elements = vec![SeriesElement::drop("positioner", 9.0)];
+    l.cable = pair(150.0)?;
+    fv315.loop_config = Some(l);
+    fv315.valve = Some(Valve {
+        action: Some(ValveAction::AirToOpen),
+        fail: Some(FailPosition::Closed),
+        split_ma: None,
+    });
+    fv315.notes =
+        "PLC analog output, max load 750 Ω; positioner drops 9 V at 20 mA (demo figures)."
+            .to_string();
+
+    // One output drives both positioners in series: the split-range pair.
+    let mut split_loop =
+        LoopConfig::current_output(Device::AnalogOutput, Compliance::Volts { volts: 22.0 });
+    split_loop.elements = vec![
+        SeriesElement::drop("TV-418A positioner", 9.0),
+        SeriesElement::drop("TV-418B positioner", 9.0),
+    ];
+    split_loop.cable = pair(120.0)?;
+    let mut split = Vec::new();
+    for (number, service, part) in [
+        ("TV-418A", "Digester heating water valve", (4.0, 12.0)),
+        ("TV-418B", "Digester cooling water valve", (12.0, 20.0)),
+    ] {
+        let mut t = tag(
+            number,
+            service,
+            "Digester 1 heat exchanger",
+            Scale::linear(0.0, 100.0, "%")?,
+        )?;
+        t.loop_config = Some(split_loop.clone());
+        t.valve = Some(Valve {
+            action: Some(ValveAction::AirToOpen),
+            fail: Some(FailPosition::Closed),
+            split_ma: Some(part),
+        });
+        t.notes = "Split range on one PLC output (22 V at 20 mA): A over 4–12 mA, B over 12–20 mA (demo figures).".to_string();
+        split.push(t);
+    }
+
+    let mut ait531 = tag(
+        "AIT-531",
+        "Final effluent turbidity",
+        "Outfall kiosk",
+        Scale::linear(0.0, 50.0, "NTU")?,
+    )?;
+    let mut l = LoopConfig::current_output(Device::FourWire, Compliance::MaxLoad { ohms: 750.0 });
+    l.elements = vec![SeriesElement::ohms("PLC input (passive)", 250.0)];
+    l.cable = pair(90.0)?;
+    ait531.loop_config = Some(l);
+    ait531.notes = "Four-wire analyser on its own mains supply; active output, max load 750 Ω (demo figure). The PLC channel must be passive.".to_string();
+
+    let mut pt208 = tag(
+        "PT-208",
+        "Sludge pump discharge pressure",
+        "Sludge pump house",
+        Scale::linear(0.0, 16.0, "bar")?,
+    )?;
+    let mut input = LoopConfig::new(16.5, 10.5);
+    input.wiring = Topology::TwoWireActiveInput.wiring();
+    input.cable = pair(60.0)?;
+    pt208.loop_config = Some(input);
+    let mut output =
+        LoopConfig::current_output(Device::AnalogOutput, Compliance::MaxLoad { ohms: 600.0 });
+    output.elements = vec![SeriesElement::ohms("PLC input", 250.0)];
+    output.cable = pair(15.0)?;
+    pt208.isolator_outputs = vec![output];
+    pt208.notes = "Through an isolator in the MCC: its input side powers the transmitter (16.5 V), its output side drives the PLC input (max load 600 Ω); demo figures.".to_string();
+
+    let mut out = vec![fv315];
+    out.extend(split);
+    out.push(ait531);
+    out.push(pt208);
+    for t in &out {
+        t.validate()?;
+    }
+    Ok(out)
+}
+
+// The demo's stroke entries' text, as `crate::view::wording::stroke::log_text` words
+// their records (tests/topology_demo.rs keeps them alike).
+const FV315_FOUND: &str = "Stroke check as found: FAIL: largest error \u{2212}4.0 % of stroke at 75.0 % demand, tolerance \u{b1}2.0 %. Air to open; fails closed; position read at the valve. Blower on manual, operations told. Valve hesitates around 70 %. Before you leave: all done (loop back in its normal mode; links closed; forces and bypasses removed; operations told).";
+const FV315_LEFT: &str = "Stroke check as left: PASS: largest error +0.5 % of stroke at 50.0 % demand, tolerance \u{b1}2.0 %. Air to open; fails closed; position read at the valve. Positioner feedback linkage was slipping; re-tightened and auto-calibrated the positioner. Before you leave: all done (loop back in its normal mode; links closed; forces and bypasses removed; operations told).";
+const TV418B_FOUND: &str = "Stroke check as found: PASS: largest error \u{2212}1.0 % of stroke at 75.0 % demand, tolerance \u{b1}2.0 %. Split range: this valve over 12.0\u{2013}20.0 mA; air to open; fails closed; position read at the valve. Cooling water valve over its half of the split range (12\u{2013}20 mA). Before you leave: all done (loop back in its normal mode; links closed; forces and bypasses removed; operations told).";
+
+/// A demo stroke check's record: five points rising, ±2 % of stroke, read at the valve.
+fn stroke_record(
+    position: &[f64],
+    valve: Valve,
+    stage: Stage,
+    date: chrono::NaiveDate,
+    note: &str,
+) -> Result<StrokeRecord> {
+    let result = StrokeInput {
+        demand_pct: FIVE_POINTS.to_vec(),
+        position_pct: position.to_vec(),
+        tolerance_pct: 2.0,
+        signal: SignalSpan::default(),
+        split_ma: valve.split_ma,
+        action: valve.action,
+        fail: valve.fail,
+    }
+    .judge()?;
+    Ok(StrokeRecord {
+        result,
+        date,
+        stage,
+        read_at: Some(ReadAt::Valve),
+        reference: None,
+        note: note.to_string(),
+        before_leaving: Some(LeaveList::from_done(&Item::ALL)),
+    })
+}
+
+/// A stroke-check entry in the shape `crate::action::stroke::payload` writes (version 1),
+/// with the text `crate::view::wording::stroke::log_text` gives it (a test keeps both
+/// alike; the core does not import the wording).
+pub fn stroke_entry(
+    tag: &TagId,
+    time: DateTime<FixedOffset>,
+    who: &str,
+    record: &StrokeRecord,
+    text: &str,
+) -> Result<Entry> {
+    let mut e = Entry::new(tag, time, who, Kind::StrokeCheck, text)?;
+    let mut value =
+        serde_json::to_value(record).map_err(|e| FieldError::new("demo", e.to_string()))?;
+    value["payload_version"] = json!(1);
+    e.payload = Some(value);
+    Ok(e)
 }
 
 /// What [`fill`] added.
@@ -451,6 +618,7 @@ fn entries_of_the_week(ids: &[TagId], now: DateTime<FixedOffset>) -> Result<Vec<
     };
     let (lt101, pt204, ft310, tt412, at520, lt605, pdt707) =
         (id(0)?, id(1)?, id(2)?, id(3)?, id(4)?, id(5)?, id(6)?);
+    let (fv315, tv418b, ait531, pt208) = (id(7)?, id(9)?, id(10)?, id(11)?);
     let mut v = Vec::new();
     v.push(Entry::new(
         &lt101,
@@ -582,6 +750,61 @@ fn entries_of_the_week(ids: &[TagId], now: DateTime<FixedOffset>) -> Result<Vec<
     )?;
     fix.refers_to = Some(temp.id.clone());
     v.push(fix);
+    let valve = Valve {
+        action: Some(ValveAction::AirToOpen),
+        fail: Some(FailPosition::Closed),
+        split_ma: None,
+    };
+    let found = stroke_record(
+        &[0.0, 24.5, 50.5, 71.0, 99.5],
+        valve,
+        Stage::AsFound,
+        at(2, 9, 0)?.date_naive(),
+        "Blower on manual, operations told. Valve hesitates around 70 %.",
+    )?;
+    let found = stroke_entry(&fv315, at(2, 9, 0)?, "GH", &found, FV315_FOUND)?;
+    let left = stroke_record(
+        &[0.0, 25.0, 50.5, 75.5, 99.5],
+        valve,
+        Stage::AsLeft,
+        at(2, 10, 10)?.date_naive(),
+        "Positioner feedback linkage was slipping; re-tightened and auto-calibrated the positioner.",
+    )?;
+    let mut left = stroke_entry(&fv315, at(2, 10, 10)?, "GH", &left, FV315_LEFT)?;
+    left.refers_to = Some(found.id.clone());
+    v.push(found);
+    v.push(left);
+    let b = stroke_record(
+        &[0.0, 0.0, 0.5, 49.0, 99.0],
+        Valve {
+            split_ma: Some((12.0, 20.0)),
+            ..valve
+        },
+        Stage::AsFound,
+        at(1, 9, 30)?.date_naive(),
+        "Cooling water valve over its half of the split range (12–20 mA).",
+    )?;
+    v.push(stroke_entry(
+        &tv418b,
+        at(1, 9, 30)?,
+        "GH",
+        &b,
+        TV418B_FOUND,
+    )?);
+    v.push(Entry::new(
+        &ait531,
+        at(1, 13, 15)?,
+        "CD",
+        Kind::Finding,
+        "After the PLC card swap turbidity read a steady 21.9 mA. The new channel was set to power the loop while the          analyser's output is active: two sources in one loop. Channel set passive; now 9.60 mA = 17.50 NTU, the analyser's display agrees.",
+    )?);
+    v.push(Entry::new(
+        &pt208,
+        at(1, 16, 0)?,
+        "EF",
+        Kind::Note,
+        "Budget through the isolator, each side on its own: input side 5.95 V spare at 22 mA, output side 6.49 V spare at 22 mA into the PLC input.",
+    )?);
     v.push(Entry::new(
         &pdt707,
         now - Duration::hours(2),
@@ -589,5 +812,7 @@ fn entries_of_the_week(ids: &[TagId], now: DateTime<FixedOffset>) -> Result<Vec<
         Kind::Note,
         "Filter 3 backwashed; differential pressure fell from 180 to 40 mbar (reversed output: 40 mbar is 17.44 mA).",
     )?);
+    // The log is appended in time order, as it was written.
+    v.sort_by_key(|e| e.time);
     Ok(v)
 }

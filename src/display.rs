@@ -40,6 +40,32 @@ pub fn kilohms(value: f64) -> String {
     format!("{} kΩ", fixed(value, 1))
 }
 
+/// Capacitance in nF, one decimal: a HART loop's devices `10.0 nF`.
+pub fn nanofarads(value_nf: f64) -> String {
+    format!("{} nF", quoted_fixed(value_nf, 1))
+}
+
+/// A time constant in µs, one decimal: `20.1 µs`.
+pub fn microseconds(value_us: f64) -> String {
+    format!("{} µs", quoted_fixed(value_us, 1))
+}
+
+/// A valve position or demand in % of stroke, one decimal, a negative one with the
+/// Unicode minus sign: `50.0 %`, `−0.4 %`.
+pub fn stroke_percent(value: f64) -> String {
+    format!("{} %", quoted_fixed(value, 1))
+}
+
+/// An error in % of stroke with its sign, one decimal: `+1.2 %`, `−0.4 %`, `0.0 %`.
+pub fn stroke_error(value: f64) -> String {
+    let s = quoted_fixed(value, 1);
+    if s.starts_with('\u{2212}') || s.chars().all(|c| c == '0' || c == '.') {
+        format!("{s} %")
+    } else {
+        format!("+{s} %")
+    }
+}
+
 /// Metres of cable, no decimals above 10 m: `1432 m`.
 pub fn metres(value: f64) -> String {
     if value.abs() >= 10.0 {

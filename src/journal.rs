@@ -112,11 +112,13 @@ pub enum Kind {
     /// A trip or alarm test: setpoint, trip and reset values over the runs, verdict
     /// (`crate::action::trip`).
     TripTest,
+    /// A control valve's stroke check on an output loop (`crate::action::stroke`).
+    StrokeCheck,
 }
 
 impl Kind {
     /// Every kind, in the order the UI lists them.
-    pub const ALL: [Kind; 7] = [
+    pub const ALL: [Kind; 8] = [
         Kind::Note,
         Kind::Finding,
         Kind::LoopCheck,
@@ -124,6 +126,7 @@ impl Kind {
         Kind::FollowUp,
         Kind::IsCheck,
         Kind::TripTest,
+        Kind::StrokeCheck,
     ];
 
     /// The kind as written on the command line and in files (`loop-check`).
@@ -136,6 +139,7 @@ impl Kind {
             Kind::FollowUp => "follow-up",
             Kind::IsCheck => "is-check",
             Kind::TripTest => "trip-test",
+            Kind::StrokeCheck => "stroke-check",
         }
     }
 
@@ -154,7 +158,7 @@ impl Kind {
                 FieldError::new(
                     "kind",
                     format!(
-                        "'{}' is not a kind; use one of note, finding, loop-check, fault-finding, follow-up, is-check, trip-test",
+                        "'{}' is not a kind; use one of note, finding, loop-check, fault-finding, follow-up, is-check, trip-test, stroke-check",
                         text.trim()
                     ),
                 )

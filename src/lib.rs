@@ -14,6 +14,8 @@
 //! - [`intrinsic`] — intrinsic safety of a loop by the entity concept (barrier or isolator,
 //!   field devices, cable);
 //! - [`calibration`] — trip and alarm tests (and what comes around a loop check);
+//! - [`stroke`] and [`valve`] — a control valve's stroke check on an output loop (split
+//!   range too), and what a tag records of its valve;
 //! - [`caution`] and [`leave`] — the cautions shown before work on a loop, and the
 //!   "before you leave" list recorded after it;
 //! - [`action`] — one function per action a technician takes (notes, tags, checks,
@@ -51,8 +53,10 @@ pub mod scale;
 pub mod sensor;
 pub mod signal;
 pub mod store;
+pub mod stroke;
 pub mod tag;
 pub mod thermocouple;
+pub mod valve;
 pub mod view;
 pub mod wire;
 

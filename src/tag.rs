@@ -61,6 +61,16 @@ pub struct Tag {
     /// when the plant has not set one. Stores written before this field open unchanged.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub calibration_interval_days: Option<u32>,
+    /// The control valve on an output loop (action, fail position, split-range part),
+    /// when the tag drives one; `None` otherwise. Stores written before this field open
+    /// unchanged.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub valve: Option<crate::valve::Valve>,
+    /// For a loop through an isolator or splitter, each output side (a current source
+    /// with the isolator's compliance and what it drives); the input side is
+    /// `loop_config`. Empty for a loop without one.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub isolator_outputs: Vec<LoopConfig>,
 }
 
 /// Shortest calibration interval a tag may carry, days.
@@ -89,6 +99,8 @@ impl Tag {
             sensor: None,
             intrinsic: None,
             calibration_interval_days: None,
+            valve: None,
+            isolator_outputs: Vec::new(),
         };
         tag.validate()?;
         Ok(tag)
@@ -128,6 +140,22 @@ impl Tag {
                     ),
                 ));
             }
+        }
+        if let Some(v) = &self.valve {
+            v.validate()?;
+        }
+        if !self.isolator_outputs.is_empty() {
+            let Some(input) = &self.loop_config else {
+                return Err(FieldError::new(
+                    "isolator outputs",
+                    "need the loop's input side as well (the transmitter to the isolator)",
+                ));
+            };
+            crate::budget::topology::IsolatedLoop {
+                input: input.clone(),
+                outputs: self.isolator_outputs.clone(),
+            }
+            .budget()?;
         }
         for (field, text) in [("service", &self.service), ("area", &self.area)] {
             if text.chars().count() > 200 {

@@ -4,6 +4,17 @@ mod util;
 
 use util::{loopside, loopside_json, loopside_refuses, TempDir};
 
+/// How many tags the demo plant has.
+fn demo_tags() -> usize {
+    loopside::demo::tags().unwrap().len()
+}
+
+/// How many entries the demo plant's log has.
+fn demo_entries() -> usize {
+    use loopside::store::Store;
+    util::brindlemoor(util::afternoon()).entries().len()
+}
+
 fn d(dir: &TempDir) -> [String; 2] {
     ["--data-dir".to_string(), dir.arg()]
 }
@@ -41,7 +52,10 @@ fn demo_fills_an_empty_store_once() {
     let out = run(&dir, &["demo"]);
     assert!(out.contains("Brindlemoor Water Reclamation Works"));
     let tags = json(&dir, &["tag", "list", "--json"]);
-    assert_eq!(tags.as_array().unwrap().len(), 8);
+    assert_eq!(
+        tags.as_array().unwrap().len(),
+        loopside::demo::tags().unwrap().len()
+    );
     let before = json(&dir, &["note", "list", "--json"]);
     let e = refuses(&dir, &["demo"]);
     assert!(
@@ -187,11 +201,15 @@ fn rename_and_archive_keep_the_log() {
     let list = json(&dir, &["tag", "list", "--json"]);
     assert_eq!(
         list.as_array().unwrap().len(),
-        7,
+        demo_tags() - 1,
         "archived tags leave the working list"
     );
     let all = json(&dir, &["tag", "list", "--all", "--json"]);
-    assert_eq!(all.as_array().unwrap().len(), 8, "but are never deleted");
+    assert_eq!(
+        all.as_array().unwrap().len(),
+        demo_tags(),
+        "but are never deleted"
+    );
     run(
         &dir,
         &[
@@ -229,9 +247,10 @@ fn export_and_import_between_devices() {
             bundle.to_str().unwrap(),
         ],
     );
-    assert!(msg.contains("Wrote 17 entries on 8 tags"), "{msg}");
+    let wrote = format!("Wrote {} entries on {} tags", demo_entries(), demo_tags());
+    assert!(msg.contains(&wrote), "{msg}");
     let r1 = json(&b, &["import", bundle.to_str().unwrap(), "--json"]);
-    assert_eq!(r1["entries_added"], 17);
+    assert_eq!(r1["entries_added"], demo_entries());
     let r2 = json(&b, &["import", bundle.to_str().unwrap(), "--json"]);
     assert_eq!(r2["entries_added"], 0);
     assert_eq!(r2["tags_added"], 0);
@@ -243,7 +262,11 @@ fn export_and_import_between_devices() {
     assert!(md.contains("## LT-101 — Inlet wet well level"));
     assert!(!md.contains("PT-204"));
     let csv = run(&a, &["export", "--format", "csv"]);
-    assert_eq!(csv.lines().count(), 1 + 17, "header and one line per entry");
+    assert_eq!(
+        csv.lines().count(),
+        1 + demo_entries(),
+        "header and one line per entry"
+    );
 }
 
 #[test]
@@ -468,7 +491,7 @@ fn the_data_folder_may_be_given_before_or_after_the_subcommand() {
     let before = loopside_json(&["--data-dir", &d, "note", "list", "--json"]);
     let after = loopside_json(&["note", "list", "--data-dir", &d, "--json"]);
     let between = loopside_json(&["note", "--data-dir", &d, "list", "--json"]);
-    assert_eq!(before.as_array().unwrap().len(), 17);
+    assert_eq!(before.as_array().unwrap().len(), demo_entries());
     assert_eq!(before, after);
     assert_eq!(before, between);
     // The environment variable still names it when no flag does.
@@ -478,7 +501,10 @@ fn the_data_folder_may_be_given_before_or_after_the_subcommand() {
         .output()
         .unwrap();
     let tags: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
-    assert_eq!(tags.as_array().unwrap().len(), 8);
+    assert_eq!(
+        tags.as_array().unwrap().len(),
+        loopside::demo::tags().unwrap().len()
+    );
 }
 
 #[test]

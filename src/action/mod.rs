@@ -15,6 +15,7 @@
 //! - [`reference`] — add and edit reference instruments (store records of their own);
 //! - [`trip`] — save a trip or alarm test (`trip-test` kind, payload version 1);
 //! - [`session`] — save a fault-finding session;
+//! - [`stroke`] — save a valve's stroke check (`stroke-check` kind, payload version 1);
 //! - [`bundle`] — export a hand-over, import a bundle.
 //!
 //! No UI types and no printing here; the only I/O is the store's and the hand-over file
@@ -26,6 +27,7 @@ pub mod intrinsic;
 pub mod note;
 pub mod reference;
 pub mod session;
+pub mod stroke;
 pub mod tag;
 pub mod trip;
 

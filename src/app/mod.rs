@@ -311,6 +311,14 @@ pub fn form_field(name: &str) -> FormField {
             Field::Millivolts => FormField::Millivolts,
             Field::ColdJunction => FormField::ColdJunction,
             Field::MeterTolerance => FormField::MeterTolerance,
+            // The topology's fields are typed on the command line only so far: no field
+            // on a screen to outline.
+            Field::Topology
+            | Field::Source
+            | Field::Compliance
+            | Field::OwnCurrent
+            | Field::CableCapacitance
+            | Field::DevicesCapacitance => FormField::None,
         },
     }
 }

@@ -202,13 +202,25 @@ pub fn form_from(tag: &str, c: &LoopConfig) -> PowerForm {
 }
 
 /// Keep what the screens do not show (the HART resistance window, the cable's
-/// temperature) from the loop as it was saved.
+/// temperature, and how the loop is built: its wiring, a current source's compliance and
+/// the cable's capacitance for HART) from the loop as it was saved.
 pub fn keep_unshown(config: &mut LoopConfig, saved: Option<&LoopConfig>) {
     let Some(saved) = saved else { return };
     config.hart_window_ohms = saved.hart_window_ohms;
     if let (Some(cable), Some(old)) = (config.cable.as_mut(), saved.cable) {
         cable.temp_c = old.temp_c;
     }
+    keep_topology(config, Some(saved));
+}
+
+/// Keep how the loop is built (wiring, compliance, the cable's capacitance for HART) from
+/// the loop as saved: the screens do not show a topology picker yet, so a loop driven by
+/// a current output is worked and saved as the tag has it, not as a 0 V supply.
+pub fn keep_topology(config: &mut LoopConfig, saved: Option<&LoopConfig>) {
+    let Some(saved) = saved else { return };
+    config.wiring = saved.wiring;
+    config.compliance = saved.compliance;
+    config.hart_cable = saved.hart_cable;
 }
 
 /// The Power form as the loop form ([`crate::form::loop_form`]): the one parser the tag
@@ -317,7 +329,11 @@ fn update(window: &AppWindow, state: &AppState) {
         }
         None => adapter.set_has_is(false),
     }
-    let worked = read_loop(&state.ui.power).and_then(|c| {
+    let saved = tag
+        .filter(|t| t.number == state.ui.power.tag)
+        .and_then(|t| t.loop_config.as_ref());
+    let worked = read_loop(&state.ui.power).and_then(|mut c| {
+        keep_topology(&mut c, saved);
         view(&c, state.ui.power.hart).map_err(|e| FormError::from_core(e, Field::Supply))
     });
     match worked {
@@ -416,5 +432,24 @@ mod tests {
         let e = read_loop(&bad).unwrap_err();
         assert_eq!((e.field, e.row), (Field::SeriesElement, Some(0)));
         assert!(e.reason.starts_with("PLC input:"), "{e}");
+    }
+
+    #[test]
+    fn an_output_loop_keeps_its_topology_through_the_screens() {
+        // FV-315 is driven by an analog output (max load 750 Ω): the Power form shows its
+        // elements and cable; what it does not show is kept, so saving the form does not
+        // turn it into a 0 V supply loop, and the budget is worked against its compliance.
+        let tags = crate::demo::tags().unwrap();
+        let fv315 = tags.iter().find(|t| t.number == "FV-315").unwrap();
+        let c = fv315.loop_config.clone().unwrap();
+        let mut back = config_from(&form_from("FV-315", &c)).unwrap();
+        keep_unshown(&mut back, Some(&c));
+        assert_eq!(back, c);
+        let b = back.budget().unwrap();
+        assert_eq!(
+            b.source,
+            Some(crate::budget::topology::SourceKind::CurrentOutput)
+        );
+        assert!(b.ok);
     }
 }

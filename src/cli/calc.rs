@@ -7,6 +7,7 @@ use crate::error::FieldError;
 use crate::form::conductor::parse_conductor;
 use crate::form::loop_form::{ElementText, LoopForm};
 use crate::form::range::{Bounds, CutoffOf, RangeForm, TransferChoice};
+use crate::form::topology::TopologyForm;
 use crate::form::FormError;
 use crate::number::{parse_in, parse_number, parse_range};
 use crate::scale::{Scale, SignalSpan, Transfer};
@@ -315,11 +316,23 @@ pub(super) fn convert(args: ConvertArgs, out: &mut dyn Write) -> CliResult {
 #[derive(Debug, Args)]
 #[command(after_help = "Examples:\n  \
     loopside budget --supply 24 --min-volts 10,5 --load 250 --cable-m 180 --mm2 1.0\n  \
-    loopside budget --supply 24 --supply-tolerance 5 --min-volts 12 --load barrier=340 --drop indicator=2.5 --json\n\
-    Name an element with NAME=VALUE so the verdict can say which one limits.")]
+    loopside budget --supply 24 --supply-tolerance 5 --min-volts 12 --load barrier=340 --drop indicator=2.5 --json\n  \
+    loopside budget --source current-output --compliance-volts 18 --drop positioner=9 --cable-m 250 --mm2 1,0\n  \
+    loopside budget --topology four-wire --max-load-ohms 750 --load 'PLC input=250'\n  \
+    loopside budget --source active-input --supply 24 --min-volts 10,5 --load card=250\n  \
+    loopside budget --topology three-wire --own-ma 3 --supply 24 --min-volts 12 --load 250 --cable-m 300 --mm2 1,0\n  \
+    loopside budget --supply 24 --min-volts 10,5 --load 250 --cable-m 1500 --mm2 1,0 --hart --cable-pf-per-m 100\n\
+    Name an element with NAME=VALUE so the verdict can say which one limits. A positioner or\n\
+    I/P converter is a --drop (V at 20 mA) or a --load (input resistance, Ω) as its data sheet\n\
+    gives it; a split-range pair is both devices in series. A loop through an isolator is two\n\
+    budgets: its input side (--source active-input: the isolator powers the transmitter) and\n\
+    each output side (--source current-output with the isolator's compliance).")]
 pub struct BudgetArgs {
     #[command(flatten)]
     pub(crate) loop_args: LoopArgs,
+    /// Work out HART's cable limit by RC time constant (needs --cable-pf-per-m).
+    #[arg(long, requires = TopologyArgs::HART_CABLE_ID)]
+    hart: bool,
     /// Print one JSON object.
     #[arg(long)]
     json: bool,
@@ -359,6 +372,67 @@ pub(crate) struct LoopArgs {
     /// Upper end of the HART resistance window, Ω (default 1100).
     #[arg(long, allow_hyphen_values = true, value_name = "OHMS")]
     hart_max_ohms: Option<String>,
+    #[command(flatten)]
+    topology: TopologyArgs,
+}
+
+/// How the loop is built (shared by `budget`, `tag add` and `tag edit`): read by the
+/// topology form ([`crate::form::topology`]).
+#[derive(Debug, Clone, Default, Args)]
+pub(crate) struct TopologyArgs {
+    /// How the loop is built: two-wire (default), two-wire-active-input, four-wire,
+    /// three-wire or analog-output.
+    #[arg(long, value_name = "KIND")]
+    topology: Option<String>,
+    /// What supplies the loop as wired: supply (default), active-input, current-output, or
+    /// none; repeat (or separate with commas) to describe a loop wired with two.
+    #[arg(long = "source", value_name = "SOURCE")]
+    sources: Vec<String>,
+    /// A current source's compliance: volts it can drive at 20 mA.
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "V",
+        conflicts_with = "max_load_ohms"
+    )]
+    compliance_volts: Option<String>,
+    /// A current source's maximum load at 20 mA, Ω.
+    #[arg(long, allow_hyphen_values = true, value_name = "OHMS")]
+    max_load_ohms: Option<String>,
+    /// A three-wire transmitter's own supply current, mA.
+    #[arg(long, allow_hyphen_values = true, value_name = "MA")]
+    own_ma: Option<String>,
+    /// Cable capacitance for HART's RC limit, pF/m (on `tag add/edit` this is
+    /// --hart-cable-pf-per-m: there --cable-pf-per-m is the IS cable's).
+    #[arg(
+        id = TopologyArgs::HART_CABLE_ID,
+        long = "cable-pf-per-m",
+        allow_hyphen_values = true,
+        value_name = "C"
+    )]
+    cable_pf_per_m: Option<String>,
+    /// The devices' capacitance across the pair for HART's RC limit, nF (default 10).
+    #[arg(long, allow_hyphen_values = true, value_name = "N")]
+    devices_nf: Option<String>,
+}
+
+impl TopologyArgs {
+    /// The id of the HART cable capacitance flag, renamed where the IS flags sit beside it.
+    pub(crate) const HART_CABLE_ID: &'static str = "hart_cable_pf_per_m";
+
+    /// The flags as the topology form.
+    pub(crate) fn form(&self) -> TopologyForm {
+        let text = |t: &Option<String>| t.clone().unwrap_or_default();
+        TopologyForm {
+            topology: text(&self.topology),
+            sources: self.sources.clone(),
+            compliance_volts: text(&self.compliance_volts),
+            max_load_ohms: text(&self.max_load_ohms),
+            own_ma: text(&self.own_ma),
+            cable_pf_per_m: text(&self.cable_pf_per_m),
+            devices_nf: text(&self.devices_nf),
+        }
+    }
 }
 
 /// The conductor size flags, `--awg` or `--mm2` (shared by `budget`, `wire`, `rtd` and
@@ -417,6 +491,7 @@ impl LoopArgs {
             && self.temp_c.is_none()
             && self.fault_ma.is_none()
             && self.hart_max_ohms.is_none()
+            && self.topology.form().is_empty()
     }
 
     /// The flags as the loop form ([`crate::form::loop_form`]), the one parser the Power
@@ -446,14 +521,26 @@ impl LoopArgs {
         }
     }
 
-    /// Build the loop from the flags; `--supply` and `--min-volts` are required.
+    /// Build the loop from the flags; `--supply` and `--min-volts` are required where a
+    /// supply and a transmitter minimum apply (`--compliance-volts` or `--max-load-ohms`
+    /// for a current source instead).
     pub(crate) fn loop_config(&self) -> Result<LoopConfig, FieldError> {
-        self.form().parse().map_err(FormError::on_command_line)
+        self.topology
+            .form()
+            .parse(&self.form())
+            .map_err(FormError::on_command_line)
     }
 }
 
 pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
     let config = args.loop_args.loop_config()?;
+    if config.hart_cable.is_some() && !args.hart {
+        return Err(FieldError::new(
+            "cable capacitance (--cable-pf-per-m)",
+            "is for HART's cable limit: add --hart",
+        )
+        .into());
+    }
     let b = config.budget()?;
     if args.json {
         let obj = json!({
@@ -481,25 +568,93 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
             "ok": b.ok,
             "ok_full_scale": b.ok_full_scale,
             "ok_fault": b.ok_fault,
-            "limit": crate::view::wording::power::limit(&b.limit),
+            "limit": crate::view::wording::power::verdict(&b),
             "hart_ok": b.hart_ok,
             "hart_note": crate::view::wording::power::hart(&b.hart),
+            "source": b.source.map(|s| s.code()),
+            "topology": b.topology.code(),
+            "driver_min_volts": b.driver_min_volts,
         });
+        let mut obj = obj;
+        if let Some(f) = &b.topology_fault {
+            obj["topology_fault"] = json!({
+                "code": f.code(),
+                "sources": match f {
+                    crate::budget::topology::TopologyFault::TwoSources { sources } =>
+                        sources.iter().map(|s| s.code()).collect::<Vec<_>>(),
+                    crate::budget::topology::TopologyFault::NoSource => Vec::new(),
+                },
+                "text": crate::view::wording::power::topology_fault(f),
+            });
+        }
+        if let Some(h) = &b.hart_cable {
+            obj["hart_max_cable_m"] = json!(h.max_cable_m);
+            obj["hart_time_constant_s"] = json!(h.time_constant_s);
+            obj["hart_cable_binding"] = json!(h.binding);
+            obj["hart_devices_nf"] = json!(h.devices_farads * 1e9);
+            obj["hart_cable_note"] = json!(crate::view::wording::power::hart_cable(
+                h,
+                b.max_cable_fault_m
+            ));
+        }
         return print_json(out, &obj);
     }
-    let mut lines = vec![format!(
-        "lowest supply {}   loop resistance {} (cable {})",
+    let current_source = b.worked_from == Some(crate::budget::topology::SourceKind::CurrentOutput);
+    let mut lines = Vec::new();
+    let default_topology =
+        b.topology == crate::budget::topology::Topology::TwoWireSupply && b.hart_cable.is_none();
+    if !default_topology {
+        lines.push(format!(
+            "topology: {}",
+            crate::view::wording::power::wiring(&config.wiring)
+        ));
+    }
+    if let Some(f) = &b.topology_fault {
+        lines.push(format!(
+            "TOPOLOGY FAULT: {}",
+            crate::view::wording::power::topology_fault(f)
+        ));
+        lines.push(match config.working_source() {
+            Some(s) => format!(
+                "the figures below are worked from {} alone, as if the other were not there",
+                crate::view::wording::power::source(s)
+            ),
+            None => "the figures below are worked from 0 V: nothing drives the loop".to_string(),
+        });
+    }
+    lines.push(format!(
+        "{} {}   loop resistance {} (cable {})",
+        if current_source {
+            "compliance"
+        } else {
+            "lowest supply"
+        },
         display::volts(b.lowest_supply_volts),
         display::ohms(b.loop_ohms),
         display::ohms(b.cable_ohms)
-    )];
+    ));
     for p in [&b.at_low, &b.at_full_scale, &b.at_fault] {
         lines.push(format!(
-            "at {:>6}: transmitter gets {:>8}, headroom {:>8}  {}",
+            "at {:>6}: {} {:>8}, headroom {:>8}  {}",
             display::ma_setting(p.current_ma),
-            display::volts(p.terminal_volts),
+            if current_source {
+                "the loads take"
+            } else {
+                "transmitter gets"
+            },
+            display::volts(if current_source {
+                b.lowest_supply_volts - p.terminal_volts
+            } else {
+                p.terminal_volts
+            }),
             display::volts(p.headroom_volts),
-            if p.ok { "ok" } else { "NOT ENOUGH" }
+            if !p.ok {
+                "NOT ENOUGH"
+            } else if b.topology_fault.is_some() {
+                "(topology fault)"
+            } else {
+                "ok"
+            }
         ));
     }
     // One line per current, so every spare and cable figure sits beside the current it
@@ -521,10 +676,15 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
         ),
     ] {
         let mut line = format!(
-            "limits at {}: max loop resistance {} (spare {}), supply needed {}",
+            "limits at {}: max loop resistance {} (spare {}), {} needed {}",
             display::ma_setting(at_ma),
             display::ohms(max_load),
             display::ohms(spare),
+            if current_source {
+                "compliance"
+            } else {
+                "supply"
+            },
             display::volts(supply)
         );
         if let Some(m) = cable {
@@ -542,14 +702,26 @@ pub(super) fn budget(args: BudgetArgs, out: &mut dyn Write) -> CliResult {
     ));
     lines.push(format!(
         "verdict: {} — {}",
-        if b.ok { "OK" } else { "NOT ENOUGH VOLTAGE" },
-        crate::view::wording::power::limit(&b.limit)
+        if b.topology_fault.is_some() {
+            "TOPOLOGY FAULT"
+        } else if b.ok {
+            "OK"
+        } else {
+            "NOT ENOUGH VOLTAGE"
+        },
+        crate::view::wording::power::verdict(&b)
     ));
     lines.push(format!(
         "HART: {} — {}",
         if b.hart_ok { "ok" } else { "outside window" },
         crate::view::wording::power::hart(&b.hart)
     ));
+    if let Some(h) = &b.hart_cable {
+        lines.push(format!(
+            "HART cable: {}",
+            crate::view::wording::power::hart_cable(h, b.max_cable_fault_m)
+        ));
+    }
     print_lines(out, &lines)
 }
 

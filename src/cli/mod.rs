@@ -17,6 +17,7 @@ mod intrinsic;
 mod note;
 mod reference;
 mod sensors;
+mod stroke;
 mod tag;
 mod trip;
 
@@ -85,6 +86,8 @@ pub enum Command {
     Ref(reference::RefArgs),
     /// Judge a trip or alarm test: trip error, deadband, repeatability, the mA to inject.
     Trip(trip::TripArgs),
+    /// Stroke-check a control valve on an output loop: demand against position, % of stroke.
+    Stroke(stroke::StrokeArgs),
     /// Find a fault step by step from a symptom and your measurements.
     Diagnose(check::DiagnoseArgs),
     /// Intrinsic safety by the entity concept: check a barrier or isolator, field devices
@@ -150,6 +153,7 @@ pub fn run_command(command: Command, out: &mut dyn Write) -> CliResult {
         Command::Ref(args) => reference::reference(args, out),
         Command::Due(args) => due::due(args, out),
         Command::Drift(args) => drift::drift_command(args, out),
+        Command::Stroke(args) => stroke::stroke(args, out),
         Command::Diagnose(args) => check::diagnose(args, &mut std::io::stdin().lock(), out),
         Command::Intrinsic(args) => intrinsic::intrinsic(args, out),
         Command::Entity(args) => intrinsic::check(args, out),

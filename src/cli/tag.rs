@@ -1,6 +1,6 @@
 //! `loopside tag …`: keep the tag register (add, edit, list, show, rename, archive).
 
-use super::calc::{LoopArgs, RangeArgs, RANGE_REQUIRED, UNIT_REQUIRED};
+use super::calc::{LoopArgs, RangeArgs, TopologyArgs, RANGE_REQUIRED, UNIT_REQUIRED};
 use super::data::{store_error, DataArgs};
 use super::intrinsic::CircuitArgs;
 use super::note::{entry_json, entry_line};
@@ -13,6 +13,7 @@ use crate::number::parse_in;
 use crate::sensor::Sensor;
 use crate::store::{FileStore, Store, TagRecord};
 use crate::tag::Tag;
+use crate::valve::{FailPosition, ValveAction};
 use clap::{Args, Subcommand};
 use serde_json::json;
 use std::io::Write;
@@ -97,6 +98,23 @@ pub struct DescribeArgs {
     /// Forget the calibration interval.
     #[arg(long)]
     no_interval: bool,
+    /// The valve this output loop drives: air-to-open or air-to-close.
+    #[arg(long, value_name = "ACTION", conflicts_with = "no_valve")]
+    valve_action: Option<String>,
+    /// Where the valve fails: closed, open or last.
+    #[arg(long, value_name = "POSITION", conflicts_with = "no_valve")]
+    fail: Option<String>,
+    /// For one valve of a split-range pair, its part of the signal, mA (e.g. 4..12).
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "LOW..HIGH",
+        conflicts_with = "no_valve"
+    )]
+    split: Option<String>,
+    /// Forget the valve.
+    #[arg(long)]
+    no_valve: bool,
 }
 
 impl DescribeArgs {
@@ -173,6 +191,23 @@ impl DescribeArgs {
         if self.no_interval {
             tag.calibration_interval_days = None;
         }
+        if self.valve_action.is_some() || self.fail.is_some() || self.split.is_some() {
+            let mut valve = tag.valve.unwrap_or_default();
+            if let Some(a) = &self.valve_action {
+                valve.action = Some(ValveAction::parse(a).map_err(|e| e.renamed("valve-action"))?);
+            }
+            if let Some(f) = &self.fail {
+                valve.fail = Some(FailPosition::parse(f)?);
+            }
+            if let Some(t) = &self.split {
+                valve.split_ma = Some(crate::number::parse_range("split", t)?);
+            }
+            valve.validate()?;
+            tag.valve = Some(valve);
+        }
+        if self.no_valve {
+            tag.valve = None;
+        }
         Ok(())
     }
 }
@@ -183,12 +218,15 @@ impl DescribeArgs {
     loopside tag add PT-204 --range 0..10 --unit bar --hart --supply 24 --min-volts 10,5 --load \"HART resistor=250\"\n  \
     loopside tag add FT-310 --range 0..3000 --unit m3/h --sqrt --cutoff 1 --service \"Aeration air header flow\"\n  \
     loopside tag add TT-415 --range 0..150 --unit °C --rtd pt100 --wires 3\n  \
+    loopside tag add FV-316 --range 0..100 --unit % --source current-output --compliance-volts 18 --drop positioner=9 --valve-action air-to-open --fail closed\n  \
+    loopside tag add AIT-532 --range 0..50 --unit NTU --topology four-wire --max-load-ohms 750 --load 'PLC input=250'\n  \
     loopside tag add TT-420 --range -20..80 --unit °C --uo 28 --io 93 --po 0.65 --co 83nF --lo 4.2mH \\\n    \
       --device \"TT-420 tx:ui=30,ii=100,pi=0.75,ci=5nF,li=10uH,group=IIC,t=T4\" --is-cable-m 150 --group IIC\n\
     The intrinsic-safety flags are the ones `loopside intrinsic set` takes; the IS cable length is\n\
     --is-cable-m here (--cable-m is the loop's cable for the voltage budget).")]
 #[command(group = RANGE_REQUIRED(), group = UNIT_REQUIRED())]
 #[command(mut_arg(CircuitArgs::TAG_CABLE_ID, |a| a.long("is-cable-m")))]
+#[command(mut_arg(TopologyArgs::HART_CABLE_ID, |a| a.long("hart-cable-pf-per-m")))]
 pub struct TagAddArgs {
     /// Tag number, e.g. LT-101 (any text; never used as a file name).
     number: String,
@@ -214,6 +252,7 @@ pub struct TagAddArgs {
     Intrinsic-safety flags change the stored IS data as `loopside intrinsic set` does (a --device list replaces\n\
     the devices); the IS cable length is --is-cable-m here; --no-intrinsic removes the IS data.")]
 #[command(mut_arg(CircuitArgs::TAG_CABLE_ID, |a| a.long("is-cable-m")))]
+#[command(mut_arg(TopologyArgs::HART_CABLE_ID, |a| a.long("hart-cable-pf-per-m")))]
 pub struct TagEditArgs {
     /// Tag number.
     number: String,

@@ -74,11 +74,23 @@ pub enum Field {
     ColdJunction,
     /// The allowance between two mA readings in fault-finding.
     MeterTolerance,
+    /// How the loop is built, from the short list (two-wire, four-wire, analog output …).
+    Topology,
+    /// What supplies the loop's voltage, as wired (supply, active input, current output).
+    Source,
+    /// A current source's compliance: volts at 20 mA or maximum load.
+    Compliance,
+    /// A three-wire transmitter's own supply current.
+    OwnCurrent,
+    /// The cable's capacitance per metre, for HART's RC limit.
+    CableCapacitance,
+    /// The devices' capacitance across the pair, for HART's RC limit.
+    DevicesCapacitance,
 }
 
 impl Field {
     /// Every field, in the order the forms show them.
-    pub const ALL: [Field; 33] = [
+    pub const ALL: [Field; 39] = [
         Field::Tag,
         Field::Service,
         Field::Area,
@@ -112,6 +124,12 @@ impl Field {
         Field::Millivolts,
         Field::ColdJunction,
         Field::MeterTolerance,
+        Field::Topology,
+        Field::Source,
+        Field::Compliance,
+        Field::OwnCurrent,
+        Field::CableCapacitance,
+        Field::DevicesCapacitance,
     ];
 
     /// The field's name in every error message, as the screen labels it.
@@ -150,6 +168,12 @@ impl Field {
             Field::Millivolts => "millivolts",
             Field::ColdJunction => "cold junction",
             Field::MeterTolerance => "meter tolerance",
+            Field::Topology => "topology",
+            Field::Source => "source",
+            Field::Compliance => "compliance",
+            Field::OwnCurrent => "transmitter's own current",
+            Field::CableCapacitance => "cable capacitance",
+            Field::DevicesCapacitance => "devices' capacitance",
         }
     }
 
@@ -187,6 +211,12 @@ impl Field {
             Field::Millivolts => "--mv",
             Field::ColdJunction => "--cj-c",
             Field::MeterTolerance => "--meter-tolerance",
+            Field::Topology => "--topology",
+            Field::Source => "--source",
+            Field::Compliance => "--compliance-volts / --max-load-ohms",
+            Field::OwnCurrent => "--own-ma",
+            Field::CableCapacitance => "--cable-pf-per-m",
+            Field::DevicesCapacitance => "--devices-nf",
         }
     }
 
@@ -205,6 +235,10 @@ impl Field {
             "cable_m" | "length_m" => Field::CableLength,
             "awg" | "mm2" => Field::Conductor,
             "temp_c" => Field::ConductorTemp,
+            "compliance_volts" | "max_load_ohms" => Field::Compliance,
+            "own_ma" => Field::OwnCurrent,
+            "cable_pf_per_m" => Field::CableCapacitance,
+            "devices_nf" => Field::DevicesCapacitance,
             "signal (low mA)" | "signal (high mA)" => Field::Signal,
             _ if name.starts_with("table") => Field::Table,
             _ => return None,

@@ -4,7 +4,10 @@
 //!
 //! - [`range`] — LRV, URV, unit, signal span and transfer;
 //! - [`loop_form`] — supply, sag, transmitter minimum, fault current, series elements, cable;
+//! - [`topology`] — how the loop is built, what supplies it, a current source's
+//!   compliance, and the cable's capacitance for HART;
 //! - [`conductor`] — conductor size and temperature;
+//! - [`stroke`] — a valve's stroke check (its own field names, as the core gives them);
 //! - [`sensor`] — the temperature sensor (RTD and its wiring, or thermocouple and cold junction);
 //! - [`intrinsic`] — an intrinsically safe circuit: barrier or isolator, devices, cable
 //!   (its own field names, not the [`Field`] table: values carry unit suffixes);
@@ -23,6 +26,8 @@ pub mod loop_form;
 pub mod range;
 pub mod reference;
 pub mod sensor;
+pub mod stroke;
+pub mod topology;
 pub mod trip;
 
 pub use field::{Field, FormError};

@@ -90,9 +90,10 @@ fn is_check_ok(e: &Entry) -> Option<bool> {
     e.payload.as_ref()?.get("verdict")?.get("ok")?.as_bool()
 }
 
-/// Did a trip test pass? Read from its stored verdict (`pass`, payload version 1 of
-/// `crate::action::trip`). `None` when the entry does not say.
-fn trip_passed(e: &Entry) -> Option<bool> {
+/// Did a trip test or a stroke check pass? Read from its stored verdict (`pass`, payload
+/// version 1 of `crate::action::trip` and of `crate::action::stroke`). `None` when the
+/// entry does not say.
+fn payload_passed(e: &Entry) -> Option<bool> {
     e.payload.as_ref()?.get("pass")?.as_bool()
 }
 
@@ -116,7 +117,7 @@ pub fn row_kind(e: &Entry, closed: &HashSet<&journal::EntryId>) -> RowKind {
             Some(true) => RowKind::CheckPassed,
             _ => RowKind::CheckFailed,
         },
-        Kind::TripTest => match trip_passed(e) {
+        Kind::TripTest | Kind::StrokeCheck => match payload_passed(e) {
             Some(true) => RowKind::CheckPassed,
             _ => RowKind::CheckFailed,
         },
@@ -142,7 +143,10 @@ pub fn title(e: &Entry, kind: RowKind) -> String {
         (Kind::IsCheck, _) => {
             crate::view::wording::intrinsic::log_title(is_check_ok(e)).to_string()
         }
-        (Kind::TripTest, _) => crate::view::wording::trip::log_title(trip_passed(e)).to_string(),
+        (Kind::TripTest, _) => crate::view::wording::trip::log_title(payload_passed(e)).to_string(),
+        (Kind::StrokeCheck, _) => {
+            crate::view::wording::stroke::log_title(payload_passed(e)).to_string()
+        }
     }
 }
 

@@ -5,6 +5,7 @@
 //! the fault current, so a shortfall shows as a red slice past the supply line and the two
 //! bars can be compared at a glance.
 
+use crate::budget::topology::SourceKind;
 use crate::budget::{Budget, LoopConfig, OperatingPoint, PartRole};
 use crate::display;
 use crate::error::Result;
@@ -100,28 +101,40 @@ pub struct PowerView {
     pub notes: Vec<String>,
     /// HART verdict (title, detail, tone) when the tag talks HART.
     pub hart: Option<(String, String, Tone)>,
+    /// How the loop is built, in words (`two-wire transmitter on a DC supply into a
+    /// passive input`).
+    pub topology: String,
+    /// The topology fault in words, when the loop has two sources or none.
+    pub topology_fault: Option<String>,
 }
 
 /// Work out the view. Errors only for invalid input, never for "not enough volts".
 pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
     let b = config.budget()?;
-    let need =
-        |p: &OperatingPoint| config.tx_min_volts + p.parts.iter().map(|x| x.volts).sum::<f64>();
+    let driver_min = b.driver_min_volts;
+    let need = |p: &OperatingPoint| driver_min + p.parts.iter().map(|x| x.volts).sum::<f64>();
     let total = b
         .lowest_supply_volts
         .max(need(&b.at_full_scale))
         .max(need(&b.at_fault))
         .max(1e-9);
-    let full = slices(config, &b.at_full_scale, b.lowest_supply_volts, total);
-    let fault = slices(config, &b.at_fault, b.lowest_supply_volts, total);
+    let current_source = b.worked_from == Some(SourceKind::CurrentOutput);
+    let driver = (!current_source).then_some(driver_min);
+    let full = slices(driver, &b.at_full_scale, b.lowest_supply_volts, total);
+    let fault = slices(driver, &b.at_fault, b.lowest_supply_volts, total);
     let fault_ma = display::ma_setting(b.at_fault.current_ma);
 
-    let mut legend = vec![LegendLine {
-        kind: SliceKind::Transmitter,
-        name: "Transmitter minimum".to_string(),
-        full: display::volts(config.tx_min_volts),
-        fault: display::volts(config.tx_min_volts),
-    }];
+    // A current source's compliance already counts its own drop: no transmitter slice.
+    let mut legend = if current_source {
+        Vec::new()
+    } else {
+        vec![LegendLine {
+            kind: SliceKind::Transmitter,
+            name: "Transmitter minimum".to_string(),
+            full: display::volts(driver_min),
+            fault: display::volts(driver_min),
+        }]
+    };
     for (p_full, p_fault) in b.at_full_scale.parts.iter().zip(&b.at_fault.parts) {
         legend.push(LegendLine {
             kind: role_kind(p_full.role),
@@ -142,7 +155,9 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
         fault: spare_line(&b.at_fault),
     });
 
-    let verdict_title = if b.ok {
+    let verdict_title = if b.topology_fault.is_some() {
+        "Wired with two sources or none: no figure makes it work".to_string()
+    } else if b.ok {
         "Enough voltage at 20 mA and at the fault current".to_string()
     } else if b.ok_full_scale {
         format!("Reaches 20 mA but not {fault_ma}: a fault would be hidden")
@@ -177,7 +192,11 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
             tone: tone_of(b.spare_fault_ohms >= 0.0),
         },
         Figure {
-            label: format!("Lowest supply needed at {fault_ma}"),
+            label: if current_source {
+                format!("Compliance needed at {fault_ma}")
+            } else {
+                format!("Lowest supply needed at {fault_ma}")
+            },
             value: display::volts(b.min_supply_fault_volts),
             tone: tone_of(b.min_supply_fault_volts <= b.lowest_supply_volts + 1e-9),
         },
@@ -194,11 +213,30 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
             });
         }
     }
-    let notes = notes(
+    if let Some(h) = &b.hart_cable {
+        if let Some(m) = h.max_cable_m {
+            figures.push(Figure {
+                label: "Longest cable HART allows (one way, RC at most 65 µs)".to_string(),
+                value: display::metres(m),
+                tone: match h.time_constant_s {
+                    Some(t) if t > crate::budget::hart::MAX_TIME_CONSTANT_S => Tone::Bad,
+                    Some(_) => Tone::Good,
+                    None => Tone::Neutral,
+                },
+            });
+        }
+    }
+    let mut notes = notes(
         &b,
         "in the Supply may sag field",
         "in the Fault current field",
     );
+    if let Some(h) = &b.hart_cable {
+        notes.push(capitalised(&crate::view::wording::power::hart_cable(
+            h,
+            b.max_cable_fault_m,
+        )));
+    }
     let hart = hart.then(|| {
         (
             if b.hart_ok {
@@ -211,12 +249,20 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
         )
     });
     let describe = |p: &OperatingPoint| {
-        format!(
-            "At {} the transmitter keeps {} ({} needed)",
-            display::ma(p.current_ma),
-            display::volts(p.terminal_volts),
-            display::volts(config.tx_min_volts)
-        )
+        if current_source {
+            format!(
+                "At {} the current output has {} of compliance left",
+                display::ma(p.current_ma),
+                display::volts_spare(p.headroom_volts)
+            )
+        } else {
+            format!(
+                "At {} the transmitter keeps {} ({} needed)",
+                display::ma(p.current_ma),
+                display::volts(p.terminal_volts),
+                display::volts(driver_min)
+            )
+        }
     };
     Ok(PowerView {
         full_title: "At 20 mA".to_string(),
@@ -226,10 +272,19 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
         full,
         fault,
         supply_pos: b.lowest_supply_volts / total,
-        supply_label: format!("Supply {}", display::volts(b.lowest_supply_volts)),
+        supply_label: if current_source {
+            format!("Compliance {}", display::volts(b.lowest_supply_volts))
+        } else {
+            format!("Supply {}", display::volts(b.lowest_supply_volts))
+        },
         legend,
         verdict_title,
-        verdict_detail: capitalised(&crate::view::wording::power::limit(&b.limit)),
+        verdict_detail: capitalised(&crate::view::wording::power::verdict(&b)),
+        topology: crate::view::wording::power::topology(b.topology).to_string(),
+        topology_fault: b
+            .topology_fault
+            .as_ref()
+            .map(|f| capitalised(&crate::view::wording::power::topology_fault(f))),
         verdict_tone: tone_of(b.ok),
         figures,
         notes,
@@ -246,7 +301,12 @@ pub fn view(config: &LoopConfig, hart: bool) -> Result<PowerView> {
 /// gives the sag and the fault current (`in the Supply may sag field`, `with --fault-ma`).
 pub fn notes(b: &Budget, give_sag: &str, give_fault: &str) -> Vec<String> {
     let mut out = Vec::new();
-    if b.supply_sag_percent > 0.0 {
+    if b.worked_from == Some(SourceKind::CurrentOutput) {
+        out.push(format!(
+            "Worked at the current output's compliance, {}, the same at every current up to the highest it drives; no sag applied.",
+            display::volts(b.lowest_supply_volts)
+        ));
+    } else if b.supply_sag_percent > 0.0 {
         out.push(format!(
             "Worked at the lowest supply, {}: the nominal less {} % sag.",
             display::volts(b.lowest_supply_volts),
@@ -264,7 +324,7 @@ pub fn notes(b: &Budget, give_sag: &str, give_fault: &str) -> Vec<String> {
             display::ma_setting(b.at_fault.current_ma)
         ));
     }
-    if b.max_cable_m.is_some() {
+    if b.max_cable_m.is_some() && b.hart_cable.is_none() {
         out.push(
             "Cable lengths are by voltage only: HART and cable capacitance set their own limits."
                 .to_string(),
@@ -282,7 +342,9 @@ fn role_kind(role: PartRole) -> SliceKind {
 }
 
 /// The slices of one bar: transmitter minimum, each part, then spare or shortfall.
-fn slices(config: &LoopConfig, point: &OperatingPoint, supply: f64, total: f64) -> Vec<Slice> {
+/// A current source (`driver` `None`) has no transmitter slice: its compliance is what it
+/// has left for the loop.
+fn slices(driver: Option<f64>, point: &OperatingPoint, supply: f64, total: f64) -> Vec<Slice> {
     let mut out = Vec::new();
     let mut at = 0.0;
     let mut push = |volts: f64, kind: SliceKind, out: &mut Vec<Slice>| {
@@ -295,11 +357,13 @@ fn slices(config: &LoopConfig, point: &OperatingPoint, supply: f64, total: f64) 
         });
         at += volts.max(0.0);
     };
-    push(config.tx_min_volts, SliceKind::Transmitter, &mut out);
+    if let Some(min) = driver {
+        push(min, SliceKind::Transmitter, &mut out);
+    }
     for p in &point.parts {
         push(p.volts, role_kind(p.role), &mut out);
     }
-    let used = config.tx_min_volts + point.parts.iter().map(|p| p.volts).sum::<f64>();
+    let used = driver.unwrap_or(0.0) + point.parts.iter().map(|p| p.volts).sum::<f64>();
     if supply >= used {
         push(supply - used, SliceKind::Spare, &mut out);
     } else {

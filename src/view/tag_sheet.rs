@@ -2,7 +2,8 @@
 //! signal and tolerance, sensor, loop), with its open follow-ups and latest log entries.
 //! Shown beside the register on a wide screen, and printed by `loopside tag show`.
 
-use crate::budget::ElementKind;
+use crate::budget::topology::{Compliance, Wiring};
+use crate::budget::{ElementKind, LoopConfig};
 use crate::display;
 use crate::journal::{self, Entry};
 use crate::scale::Transfer;
@@ -121,35 +122,24 @@ pub fn facts(tag: &Tag) -> Vec<Fact> {
     }
     match &tag.loop_config {
         Some(l) => {
-            let mut parts = vec![format!(
-                "{} V supply{}, transmitter min {} V",
-                display::trimmed(l.supply_volts),
-                if l.supply_tolerance_percent > 0.0 {
-                    format!(
-                        " (may sag {} %)",
-                        display::trimmed(l.supply_tolerance_percent)
-                    )
-                } else {
-                    String::new()
-                },
-                display::trimmed(l.tx_min_volts)
-            )];
-            parts.extend(l.elements.iter().map(|e| match e.kind {
-                ElementKind::Resistance { ohms } => {
-                    format!("{} {} Ω", e.name, display::trimmed(ohms))
-                }
-                ElementKind::Drop { volts } => format!("{} {} V", e.name, display::trimmed(volts)),
-            }));
-            if let Some(c) = &l.cable {
-                parts.push(format!(
-                    "cable {} m {}",
-                    display::trimmed(c.one_way_m),
-                    c.conductor.label()
+            if l.wiring != Wiring::default() {
+                out.push(fact(
+                    "Topology",
+                    crate::view::wording::power::wiring(&l.wiring),
                 ));
             }
-            out.push(fact("Loop", parts.join(", ")));
+            out.push(fact("Loop", loop_words(l)));
         }
         None => out.push(fact("Loop", "not recorded".to_string())),
+    }
+    for (i, side) in tag.isolator_outputs.iter().enumerate() {
+        out.push(fact(
+            &format!("Isolator output {}", i + 1),
+            loop_words(side),
+        ));
+    }
+    if let Some(v) = &tag.valve {
+        out.push(fact("Valve", crate::view::wording::stroke::valve_words(v)));
     }
     if let Some(c) = &tag.intrinsic {
         out.push(fact(
@@ -164,6 +154,66 @@ pub fn facts(tag: &Tag) -> Vec<Fact> {
         out.push(fact("Archived", "yes".to_string()));
     }
     out
+}
+
+/// A loop's figures in one line: what supplies it and the transmitter minimum (today's
+/// `24 V supply, transmitter min 10.5 V`, or a current source's compliance), then each
+/// series element and the cable.
+pub fn loop_words(l: &LoopConfig) -> String {
+    let source = if l.wiring.device.is_current_source() {
+        match l.compliance {
+            Some(Compliance::Volts { volts }) => {
+                format!("current output, compliance {} V", display::trimmed(volts))
+            }
+            Some(Compliance::MaxLoad { ohms }) => {
+                format!("current output, max load {} Ω", display::trimmed(ohms))
+            }
+            None => "current output".to_string(),
+        }
+    } else {
+        format!(
+            "{} V {}{}, transmitter min {} V",
+            display::trimmed(l.supply_volts),
+            if l.wiring.active_input && !l.wiring.supply {
+                "from the input card"
+            } else {
+                "supply"
+            },
+            if l.supply_tolerance_percent > 0.0 {
+                format!(
+                    " (may sag {} %)",
+                    display::trimmed(l.supply_tolerance_percent)
+                )
+            } else {
+                String::new()
+            },
+            display::trimmed(l.tx_min_volts)
+        )
+    };
+    let mut parts = vec![source];
+    if l.wiring.device.own_ma() > 0.0 {
+        parts.push(format!(
+            "own current {} mA",
+            display::trimmed(l.wiring.device.own_ma())
+        ));
+    }
+    parts.extend(l.elements.iter().map(|e| match e.kind {
+        ElementKind::Resistance { ohms } => {
+            format!("{} {} Ω", e.name, display::trimmed(ohms))
+        }
+        ElementKind::Drop { volts } => format!("{} {} V", e.name, display::trimmed(volts)),
+    }));
+    if let Some(c) = &l.cable {
+        parts.push(format!(
+            "cable {} m {}",
+            display::trimmed(c.one_way_m),
+            c.conductor.label()
+        ));
+    }
+    if let Some(h) = &l.hart_cable {
+        parts.push(format!("cable {} pF/m", display::trimmed(h.cable_pf_per_m)));
+    }
+    parts.join(", ")
 }
 
 /// The sheet of one tag in `store`.

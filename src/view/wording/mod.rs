@@ -12,7 +12,9 @@
 //! - [`trip`] — a trip or alarm test: the caution at the step, verdict, log text, report;
 //! - [`uncertainty`] — reference instruments and a check judged with them (TUR, the
 //!   ILAC-G8 decision rule);
-//! - [`power`] — what limits a loop's voltage budget, and its HART verdict.
+//! - [`power`] — what limits a loop's voltage budget, its topology and topology faults,
+//!   its HART verdict and HART's cable limit;
+//! - [`stroke`] — a valve's stroke check: verdict, table lines, log title and text.
 
 pub mod check;
 pub mod drift;
@@ -21,5 +23,6 @@ pub mod fault;
 pub mod finding;
 pub mod intrinsic;
 pub mod power;
+pub mod stroke;
 pub mod trip;
 pub mod uncertainty;
