@@ -266,7 +266,12 @@ pub fn tags() -> Result<Vec<Tag>> {
     for (t, days) in all.iter_mut().zip([365, 365, 180, 365, 90, 730, 365, 365]) {
         t.calibration_interval_days = Some(days);
     }
-    all.extend(loops_beyond_two_wire()?);
+    // The loops beyond two-wire inputs: a yearly check, the analyser every quarter
+    // (invented plant policy, as above).
+    for mut t in loops_beyond_two_wire()? {
+        t.calibration_interval_days = Some(if t.number.starts_with("AIT") { 90 } else { 365 });
+        all.push(t);
+    }
     Ok(all)
 }
 

@@ -208,9 +208,9 @@ fn demo_plant_matches_the_brief() {
         numbers[..8],
         ["LT-101", "PT-204", "FT-310", "TT-412", "AT-520", "LT-605", "PDT-707", "LT-610"]
     );
-    // The brief's loops beyond two-wire inputs follow (tests/topology_demo.rs).
+    // The trip loop, then the loops beyond two-wire inputs (tests/topology_demo.rs).
     assert_eq!(
-        numbers[7..],
+        numbers[8..],
         ["FV-315", "TV-418A", "TV-418B", "AIT-531", "PT-208"]
     );
     // LT-605: horizontal cylinder, 2.0 m diameter, 12 m³ full. Half the height holds
