@@ -460,12 +460,6 @@ pub(super) fn diagnose(
                 json["text"] = serde_json::json!(finding::text(f));
             }
         }
-        // Each finding with its words (the payload keeps the code and detail only).
-        if let Some(list) = value["findings"].as_array_mut() {
-            for (json, f) in list.iter_mut().zip(&session.findings) {
-                json["text"] = serde_json::json!(finding::text(f));
-            }
-        }
         if let Some(saved) = &saved {
             value["saved"] = serde_json::json!(saved.id);
         }

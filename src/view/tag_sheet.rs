@@ -258,11 +258,8 @@ mod tests {
     use super::*;
     use crate::store::MemoryStore;
 
-    #[test]
-    fn a_loop_through_a_barrier_shows_its_is_circuit_on_the_sheet() {
-        // TT-412 in the demo plant runs through a barrier (invented entity values: Uo 28 V,
-        // Io 93 mA, Po 0.65 W, Co 650 nF, Lo 12.6 mH) to the transmitter and a Pt100 on
-        // 185 m of cable, in an area asking IIB T3. LT-101 has no IS circuit and no line.
+    /// The demo plant as filled on 1 December 2026, 16:30 (+01:00).
+    fn demo_store() -> MemoryStore {
         let mut store = MemoryStore::new();
         let now = chrono::TimeZone::with_ymd_and_hms(
             &chrono::FixedOffset::east_opt(3600).unwrap(),
@@ -275,6 +272,15 @@ mod tests {
         )
         .unwrap();
         crate::demo::fill(&mut store, now).unwrap();
+        store
+    }
+
+    #[test]
+    fn a_loop_through_a_barrier_shows_its_is_circuit_on_the_sheet() {
+        // TT-412 in the demo plant runs through a barrier (invented entity values: Uo 28 V,
+        // Io 93 mA, Po 0.65 W, Co 650 nF, Lo 12.6 mH) to the transmitter and a Pt100 on
+        // 185 m of cable, in an area asking IIB T3. LT-101 has no IS circuit and no line.
+        let store = demo_store();
         let tt = store.tag("TT-412").unwrap().clone();
         let facts = facts(&tt.tag);
         let is = facts.iter().find(|f| f.label == "Intrinsic").unwrap();
@@ -297,18 +303,7 @@ mod tests {
 
     #[test]
     fn the_demo_level_loop_reads_as_a_sheet() {
-        let mut store = MemoryStore::new();
-        let now = chrono::TimeZone::with_ymd_and_hms(
-            &chrono::FixedOffset::east_opt(3600).unwrap(),
-            2026,
-            12,
-            1,
-            16,
-            30,
-            0,
-        )
-        .unwrap();
-        crate::demo::fill(&mut store, now).unwrap();
+        let store = demo_store();
         let record = store.tag("LT-101").unwrap().clone();
         let s = sheet(&store, &record);
         assert_eq!(s.title, "LT-101 · Inlet wet well level");
