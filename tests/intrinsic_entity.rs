@@ -314,7 +314,8 @@ fn the_halved_capacitance_is_capped_at_600_nf_in_iic_and_1_uf_in_iib() {
 
 #[test]
 fn the_l_over_r_route_passes_a_cable_whose_inductance_alone_would_fail() {
-    // Worked by hand (no published example of the L/R route was found). Lo route:
+    // Worked by hand (the same route on a barrier's published limits and a published
+    // cable is in tests/intrinsic_published.rs, [AM-3041]). Lo route:
     // 5000 m × 1 µH/m = 5 mH > 4.2 mH → fails. The barrier gives Lo/Ro 55 µH/Ω and the
     // cable's L/R is 25 µH/Ω ≤ 55 µH/Ω (margin 30 µH/Ω, 54.5 %), and the transmitter has
     // no Li: the cable's inductance need not be counted (IEC 60079-14 L/R route).

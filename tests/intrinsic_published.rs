@@ -23,6 +23,15 @@
 //!   with Co = 705 nF, a sensor head with Ci = 24 nF and LiYCY 0.75 mm² cable of
 //!   150 nF/km: l_max = 4540 m (as published at
 //!   easymanua.ls/compur-monitors/statox-506/manual?p=6).
+//! - [AM-3041] Ampac, "Orbis IS" fire detection installation manual MAN3041-1, p. 21,
+//!   section 11 "Wiring and cable types": "The capacitance and either the inductance or
+//!   the inductance to resistance (L/R) ratio of the hazardous area cables must not exceed
+//!   the parameters specified in Table 4" (the L/R route, as a barrier's conditions of use
+//!   state it); Table 4 for the barrier, IIC: 0.083 µF, 4.2 mH, 55 µH/Ω; Table 5 for a
+//!   two-core 1.5 mm² mineral-insulated light-duty cable: 12.1 Ω/km per core, 0.534 mH/km,
+//!   0.19 µF/km core to core and 0.21 µF/km core to sheath; and "All Orbis IS devices have
+//!   zero equivalent capacitance and inductance" (as published at
+//!   manualshive.com/en/manual/halma/ampac-orbis-is-orb-op-52027-apo/3371377?page=21).
 //!
 //! Both worked examples predate, or do not apply, the 1 % rule: their arithmetic compares
 //! the sums with the full Co and Lo. loopside applies the rule, so where it changes an
@@ -31,9 +40,11 @@
 //!
 //! What no published source was found for (kept hand-worked in tests/intrinsic_entity.rs
 //! and said so there): a whole circuit failing on capacitance because of the cable alone
-//! ([CM-S506] publishes the capacitance limit only, checked below), and one passed by the
-//! L/R route. The voltage failure below combines two parameter sets the same manual
-//! publishes; the combination itself is ours, not the manual's.
+//! ([CM-S506] publishes the capacitance limit only, checked below). The voltage failure
+//! below combines two parameter sets the same manual publishes; the combination itself is
+//! ours, not the manual's. The L/R route is checked on [AM-3041]'s published limits and
+//! cable data; the manual states the rule and the figures but works no length itself, so
+//! the lengths and sums there are ours (worked by hand beside each).
 
 use loopside::intrinsic::{
     check, Cable, CableLimit, Check, CheckName, Circuit, Compared, Device, DeviceKind, GasGroup,
@@ -413,4 +424,105 @@ fn a_sensor_head_cable_longer_than_the_manuals_4540_m_fails_on_capacitance() {
         1e-15,
         "C margin",
     );
+}
+
+// ---------------------------------------------------------------------------------------
+// [AM-3041]: the L/R route on a barrier's published cable limits and a published cable.
+// ---------------------------------------------------------------------------------------
+
+/// [AM-3041] Table 5: 0.534 mH/km; the resistance is 12.1 Ω/km per core, so 24.2 Ω/km for
+/// the pair (both cores carry the loop current): L/R = 0.534 mH / 24.2 Ω = 22.07 µH/Ω.
+/// Capacitance: the larger of the two published figures, 0.21 µF/km core to sheath
+/// (safe side, our choice: the manual does not say which one to count).
+fn am_cable(length_m: f64) -> Cable {
+    Cable {
+        length_m,
+        farads_per_m: Some(0.21e-6 / 1000.0),
+        henries_per_m: Some(0.534e-3 / 1000.0),
+        lr_henries_per_ohm: Some(0.534e-3 / (2.0 * 12.1)),
+    }
+}
+
+/// The manual publishes the barrier's cable limits, not its Uo, Io and Po, nor the
+/// detectors' Ui, Ii and Pi: the same value is put on each side (NOT from the manual), so
+/// those checks pass with 0 margin and only the cable decides.
+fn am_example(length_m: f64) -> Circuit {
+    Circuit {
+        source: Source {
+            name: "IS barrier".into(),
+            certificate: String::new(),
+            uo_volts: 24.0,
+            io_ma: 100.0,
+            po_watts: POWER_NOT_GIVEN_W,
+            co_farads: 83.0 * NF, // [AM-3041] Table 4, IIC: 0.083 µF
+            lo_henries: 4.2 * MH, // [AM-3041] Table 4, IIC: 4.2 mH
+            lo_ro_henries_per_ohm: Some(55.0 * UH), // [AM-3041] Table 4, IIC: 55 µH/Ω
+            group: Some(GasGroup::IIC),
+        },
+        // [AM-3041] "zero equivalent capacitance and inductance".
+        devices: vec![entity("detector", 24.0, 100.0, POWER_NOT_GIVEN_W, 0.0, 0.0)],
+        cable: am_cable(length_m),
+        area_group: GasGroup::IIC,
+        area_t_class: None,
+    }
+}
+
+#[test]
+fn a_mineral_insulated_cable_passes_the_barriers_l_over_r_limit_at_any_length() {
+    // By hand from [AM-3041]: cable L/R = 0.534 mH/km ÷ 24.2 Ω/km = 22.066 µH/Ω ≤ 55 µH/Ω,
+    // margin 32.934 µH/Ω = 59.88 % of Lo/Ro. Read the other way (12.1 Ω of one core only)
+    // it would be 44.13 µH/Ω, still within 55 µH/Ω: the verdict does not hang on it.
+    assert!(0.534e-3 / 12.1 <= 55.0 * UH);
+    let v = check(&am_example(380.0)).unwrap();
+    let lr = find(&v, CheckName::InductanceLr, None);
+    assert!(lr.ok);
+    let (lo_ro, cable_lr, m) = numbers(lr);
+    close(lo_ro, 55.0 * UH, 1e-15, "Lo/Ro");
+    close(cable_lr, 22.066_115_7 * UH, 1e-12, "cable L/R");
+    close(m, 32.933_884_3 * UH, 1e-12, "L/R margin");
+    // 380 m: C = 0.38 km × 0.21 µF/km = 79.8 nF ≤ 83 nF (margin 3.2 nF); L = 0.38 km ×
+    // 0.534 mH/km = 0.20292 mH ≤ 4.2 mH, so the Lo comparison passes and decides; the
+    // detectors add nothing, so the full Co and Lo are used (1 % rule not met).
+    assert!(v.ok && !v.halved);
+    assert!(!v.lr_route);
+    close(
+        numbers(find(&v, CheckName::Capacitance, None)).2,
+        3.2 * NF,
+        1e-15,
+        "C margin",
+    );
+    close(v.l_total_henries, 0.20292 * MH, 1e-12, "L total");
+    // Longest cable, by capacitance: 83 nF / 0.21 µF/km = 395.238 m (the inductance
+    // would allow 4.2 / 0.534 = 7865 m, and the L/R route lifts even that).
+    match v.max_cable {
+        CableLimit::Metres { metres, by } => {
+            close(metres, 83.0 / 0.21, 1e-6, "longest cable");
+            assert_eq!(by, CheckName::Capacitance);
+        }
+        other => panic!("{other:?}"),
+    }
+}
+
+#[test]
+fn past_the_inductance_limit_the_l_over_r_route_decides_the_inductance_but_not_the_capacitance() {
+    // [AM-3041]: "the capacitance and EITHER the inductance OR the L/R ratio". At 8 km (by
+    // hand): L = 8 × 0.534 mH = 4.272 mH > 4.2 mH, so the Lo comparison fails; the cable's
+    // L/R (22.07 µH/Ω ≤ 55 µH/Ω) passes and decides instead. The capacitance still counts:
+    // 8 × 0.21 µF = 1.68 µF > 0.083 µF, and the circuit fails on it alone.
+    let v = check(&am_example(8000.0)).unwrap();
+    assert!(v.lr_route);
+    let lo = find(&v, CheckName::Inductance, None);
+    assert!(!lo.ok && !lo.decides);
+    close(numbers(lo).2, -0.072 * MH, 1e-12, "Lo margin");
+    let lr = find(&v, CheckName::InductanceLr, None);
+    assert!(lr.ok && lr.decides);
+    assert!(!v.ok);
+    let failed: Vec<CheckName> = v
+        .checks
+        .iter()
+        .filter(|c| !c.ok && c.decides)
+        .map(|c| c.name)
+        .collect();
+    assert_eq!(failed, vec![CheckName::Capacitance]);
+    close(v.cable_farads, 1680.0 * NF, 1e-12, "cable C");
 }

@@ -52,10 +52,15 @@
 //! (IEC 60079-11 definition: passive components, or sources of at most 1.5 V, 100 mA and
 //! 25 mW). They take the circuit's gas group; their Ci and Li count where known (zero
 //! otherwise). Their temperature class is assessed from the source's power: T4 where
-//! Po ≤ 1.3 W at an ambient of at most 40 °C ([`SIMPLE_APPARATUS_T4_WATTS`]; from memory of
-//! IEC 60079-11 clause 5.6 / IEC 60079-14, NOT confirmed: no published text quoting the
-//! rule was found in this session). An area needing T5 or T6 fails this check: showing it
-//! needs an assessment this tool does not make. (North American texts define simple
+//! Po ≤ 1.3 W at an ambient of at most 40 °C ([`SIMPLE_APPARATUS_T4_WATTS`]). The figure
+//! is the standard's small-component relaxation for T4 as a published summary gives it:
+//! "power dissipation < 1.3 W at 40 °C ambient, < 1.2 W at 60 °C, < 1.0 W at 80 °C"
+//! (contractorsunlimited.co.uk toolbox, "Temperature Classification"); that it is applied
+//! to a simple apparatus through the source's Po, and the clause numbers (IEC 60079-11
+//! clause 5.6, IEC 60079-14), are from memory: the standards' own text could not be read.
+//! This tool has no ambient field and takes the 40 °C figure; above 40 °C the lower
+//! figures apply and the technician must check them. An area needing T5 or T6 fails this
+//! check: showing it needs an assessment this tool does not make. (North American texts define simple
 //! apparatus with 1.2 V, 0.1 A, 25 mW and 20 µJ instead: API RP 14FZ as quoted in the
 //! IADC lexicon; the tool does not test these, it takes the technician's word that the
 //! device is simple apparatus.)
@@ -93,7 +98,7 @@ pub const DEFAULT_CABLE_FARADS_PER_M: f64 = 200.0e-12;
 /// IEC 60079-25 default for conventional cables, see the module).
 pub const DEFAULT_CABLE_HENRIES_PER_M: f64 = 1.0e-6;
 /// Source power up to which simple apparatus is given T4 at an ambient of at most 40 °C,
-/// watts (from memory of IEC 60079-11 clause 5.6, not confirmed; see the module).
+/// watts (the small-component relaxation for T4 as published; see the module).
 pub const SIMPLE_APPARATUS_T4_WATTS: f64 = 1.3;
 
 /// Largest voltage accepted for Uo or Ui, V (IS circuits are far below; a larger number is
