@@ -1256,7 +1256,22 @@ fn builtin_steps() -> Vec<(String, String, Vec<String>)> {
 fn the_first_current_reading_keeps_the_loop_closed_where_it_can() {
     for p in procedure::builtin().unwrap() {
         let first = p.step(&p.start).unwrap();
-        assert_eq!(first.measurements()[0], Measurement::TxMa, "{}", p.id);
+        // The first current read: at the transmitter, or (an output loop, after the
+        // demand the control system sends) at the field device.
+        let current = match first.measurements() {
+            [Measurement::DemandPct, m, ..] => *m,
+            [m, ..] => *m,
+            [] => panic!("{}: the first step measures nothing", p.id),
+        };
+        let expected = if p
+            .loops
+            .contains(&loopside::budget::topology::Topology::AnalogOutput)
+        {
+            Measurement::DeviceMa
+        } else {
+            Measurement::TxMa
+        };
+        assert_eq!(current, expected, "{}", p.id);
         let i = &first.instruction;
         assert!(
             i.contains("test terminals") && i.contains("the loop stays closed"),

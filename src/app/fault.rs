@@ -48,6 +48,17 @@ fn procedures(state: &AppState) -> Result<Vec<Procedure>> {
     Ok(all)
 }
 
+/// The procedures the menu offers for the open tag: one per symptom, the one written for
+/// how its loop is built (a four-wire transmitter, an analog output …; see
+/// [`procedure::for_loop`]).
+fn menu(state: &AppState) -> Result<Vec<Procedure>> {
+    let topology = state.open_tag().map_or(
+        crate::budget::topology::Topology::TwoWireSupply,
+        procedure::loop_of,
+    );
+    Ok(procedure::for_loop(&procedures(state)?, topology))
+}
+
 /// Read a plant's procedures: every `*.json` file in `folder`, in file-name order, each
 /// checked as the built-in ones are. A file that cannot be read or fails a check is left
 /// out and named in the second list, with why. A missing folder is no procedures.
@@ -166,7 +177,7 @@ pub fn start(state: &mut AppState, index: usize) -> Result<()> {
         .open_tag()
         .cloned()
         .ok_or_else(|| FieldError::new("tag", "none is open; open a tag on Tags first"))?;
-    let procedure = procedures(state)?
+    let procedure = menu(state)?
         .into_iter()
         .nth(index)
         .ok_or_else(|| FieldError::new("symptom", "is not on the list; choose one shown"))?;
@@ -446,7 +457,7 @@ pub fn refresh(window: &AppWindow, state: &AppState) {
     a.set_cautions_read(f.cautions_read);
     a.set_procedure_problems(state.procedure_problems.join(" ").into());
     a.set_symptoms(model(
-        procedures(state)
+        menu(state)
             .map(|all| fv::symptoms(&all))
             .unwrap_or_default()
             .into_iter()

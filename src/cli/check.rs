@@ -410,7 +410,7 @@ pub(super) fn diagnose(
             )
         })?);
     }
-    let procedure = procedure::find(&args.symptom, &extra)?;
+    let procedure = procedure::find_for(&args.symptom, procedure::loop_of(&tag), &extra)?;
     let mut settings = Settings::default();
     if let Some(t) = &args.meter_tolerance {
         settings.meter_tolerance_ma = parse_in("meter-tolerance", t, "mA")?;

@@ -40,10 +40,19 @@ pub enum Measurement {
     /// The true process value (applied by a calibrator, or read on a trusted local gauge),
     /// in the tag's range unit.
     ProcessValue,
+    /// The demand the control system sends to an output (its output value), % of the
+    /// output span.
+    DemandPct,
+    /// Loop current measured at the field device an output drives (positioner, I/P
+    /// converter, indicator), mA.
+    DeviceMa,
+    /// Voltage across a current source's output terminals (an analog output channel, or a
+    /// four-wire transmitter's output), V DC.
+    SourceV,
 }
 
 /// Every measurement, in catalogue order.
-pub const ALL: [Measurement; 12] = [
+pub const ALL: [Measurement; 15] = [
     Measurement::TxMa,
     Measurement::RxMa,
     Measurement::SupplyV,
@@ -56,6 +65,9 @@ pub const ALL: [Measurement; 12] = [
     Measurement::Displayed,
     Measurement::ControlValue,
     Measurement::ProcessValue,
+    Measurement::DemandPct,
+    Measurement::DeviceMa,
+    Measurement::SourceV,
 ];
 
 impl Measurement {
@@ -74,6 +86,9 @@ impl Measurement {
             Measurement::Displayed => "displayed",
             Measurement::ControlValue => "control_value",
             Measurement::ProcessValue => "process_value",
+            Measurement::DemandPct => "demand_pct",
+            Measurement::DeviceMa => "device_ma",
+            Measurement::SourceV => "source_v",
         }
     }
 
@@ -103,17 +118,27 @@ impl Measurement {
             Measurement::ProcessValue => {
                 "True process value (applied with a calibrator or read on a trusted gauge)"
             }
+            Measurement::DemandPct => "Output demand the control system sends now (its output value)",
+            Measurement::DeviceMa => "Loop current at the field device (positioner, I/P converter)",
+            Measurement::SourceV => {
+                "Voltage across the current source's output terminals (output channel or four-wire transmitter, DC)"
+            }
         }
     }
 
     /// The unit the answer is in: a fixed unit, or the tag's unit for process values.
     pub fn unit(self, tag: &Tag) -> String {
         match self {
-            Measurement::TxMa | Measurement::RxMa | Measurement::SwingMa => "mA".to_string(),
+            Measurement::TxMa
+            | Measurement::RxMa
+            | Measurement::SwingMa
+            | Measurement::DeviceMa => "mA".to_string(),
+            Measurement::DemandPct => "%".to_string(),
             Measurement::SupplyV
             | Measurement::TerminalV
             | Measurement::ResistorV
-            | Measurement::ShieldAcV => "V".to_string(),
+            | Measurement::ShieldAcV
+            | Measurement::SourceV => "V".to_string(),
             Measurement::ResistorOhms | Measurement::LoopOhms => "Ω".to_string(),
             Measurement::Displayed | Measurement::ControlValue => {
                 tag.scale.value_unit().to_string()
@@ -125,11 +150,15 @@ impl Measurement {
     /// The values accepted, in the answer's unit (None = any finite number).
     pub fn limits(self) -> Option<(f64, f64)> {
         match self {
-            Measurement::TxMa | Measurement::RxMa => Some((0.0, 50.0)),
+            Measurement::TxMa | Measurement::RxMa | Measurement::DeviceMa => Some((0.0, 50.0)),
+            // An output's demand may run a little past its span (over-range, common
+            // practice about −2.5 % to 102.5 %); ±25 % covers any configuration.
+            Measurement::DemandPct => Some((-25.0, 125.0)),
             Measurement::SwingMa => Some((0.0, 50.0)),
-            Measurement::SupplyV | Measurement::TerminalV | Measurement::ResistorV => {
-                Some((0.0, 1000.0))
-            }
+            Measurement::SupplyV
+            | Measurement::TerminalV
+            | Measurement::ResistorV
+            | Measurement::SourceV => Some((0.0, 1000.0)),
             Measurement::ShieldAcV => Some((0.0, 1000.0)),
             Measurement::ResistorOhms => Some((0.001, 1.0e6)),
             Measurement::LoopOhms => Some((0.0, 1.0e9)),

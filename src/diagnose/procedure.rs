@@ -26,7 +26,9 @@
 
 use super::evaluate::Evaluation;
 use super::measure::Measurement;
+use crate::budget::topology::Topology;
 use crate::error::{FieldError, Result};
+use crate::tag::Tag;
 use serde::{Deserialize, Serialize};
 use std::collections::{BTreeMap, BTreeSet};
 
@@ -34,7 +36,10 @@ use std::collections::{BTreeMap, BTreeSet};
 pub const FORMAT: u32 = 1;
 
 /// The built-in procedure files, embedded at build time: (file name, JSON).
-pub const BUILTIN_SOURCES: [(&str, &str); 7] = [
+/// The procedures written for every loop or for two- and three-wire transmitters come
+/// first, so that [`find`] by symptom name gives them; those for four-wire transmitters and
+/// analog outputs follow ([`find_for`] picks them by the tag's loop).
+pub const BUILTIN_SOURCES: [(&str, &str); 13] = [
     (
         "stuck-low.json",
         include_str!("../../procedures/stuck-low.json"),
@@ -60,6 +65,30 @@ pub const BUILTIN_SOURCES: [(&str, &str); 7] = [
         "hart-no-answer.json",
         include_str!("../../procedures/hart-no-answer.json"),
     ),
+    (
+        "stuck-low-four-wire.json",
+        include_str!("../../procedures/stuck-low-four-wire.json"),
+    ),
+    (
+        "pegged-high-four-wire.json",
+        include_str!("../../procedures/pegged-high-four-wire.json"),
+    ),
+    (
+        "short-of-top-four-wire.json",
+        include_str!("../../procedures/short-of-top-four-wire.json"),
+    ),
+    (
+        "stuck-low-output.json",
+        include_str!("../../procedures/stuck-low-output.json"),
+    ),
+    (
+        "pegged-high-output.json",
+        include_str!("../../procedures/pegged-high-output.json"),
+    ),
+    (
+        "short-of-top-output.json",
+        include_str!("../../procedures/short-of-top-output.json"),
+    ),
 ];
 
 /// A procedure file as written.
@@ -79,6 +108,11 @@ pub struct ProcedureFile {
     pub summary: String,
     /// Id of the first step.
     pub start: String,
+    /// The loop topologies it is written for (codes of
+    /// [`crate::budget::topology::Topology`]: `two-wire`, `four-wire`, `analog-output` …);
+    /// empty for every loop.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub loops: Vec<String>,
     /// The steps.
     pub steps: Vec<StepFile>,
 }
@@ -201,6 +235,11 @@ pub struct Procedure {
     pub summary: String,
     /// First step id.
     pub start: String,
+    /// The loop topologies it is written for; empty for every loop. The physics of a
+    /// symptom can differ with who drives the current: a four-wire transmitter has no
+    /// lift-off voltage, and no current on an output loop points at the output card, its
+    /// configuration or the device.
+    pub loops: Vec<Topology>,
     /// Steps, in file order.
     pub steps: Vec<Step>,
 }
@@ -249,7 +288,28 @@ impl Procedure {
             }
             steps.push(step);
         }
+        let mut loops = Vec::with_capacity(file.loops.len());
+        for code in &file.loops {
+            let t = Topology::ALL
+                .into_iter()
+                .find(|t| t.code() == code.trim())
+                .ok_or_else(|| {
+                    let codes: Vec<&str> = Topology::ALL.iter().map(|t| t.code()).collect();
+                    err(
+                        "loops",
+                        format!(
+                            "'{}' is not a loop topology; use one of {}",
+                            code.trim(),
+                            codes.join(", ")
+                        ),
+                    )
+                })?;
+            if !loops.contains(&t) {
+                loops.push(t);
+            }
+        }
         let procedure = Procedure {
+            loops,
             id: file.id.trim().to_string(),
             symptom: file.symptom.trim().to_string(),
             title: file.title.trim().to_string(),
@@ -259,6 +319,12 @@ impl Procedure {
         };
         procedure.check_graph()?;
         Ok(procedure)
+    }
+
+    /// Whether it is written for a loop built as `topology` (a procedure with no `loops`
+    /// is written for every loop).
+    pub fn fits(&self, topology: Topology) -> bool {
+        self.loops.is_empty() || self.loops.contains(&topology)
     }
 
     /// The step with this id.
@@ -533,6 +599,53 @@ pub fn builtin() -> Result<Vec<Procedure>> {
                 .map_err(|e| FieldError::new(format!("{name}: {}", e.field), e.reason))
         })
         .collect()
+}
+
+/// How a tag's loop is built, for choosing its procedures: from its loop data, or a
+/// two-wire transmitter on a DC supply (the loop most tags are) when it has none.
+pub fn loop_of(tag: &Tag) -> Topology {
+    tag.loop_config
+        .as_ref()
+        .map_or(Topology::TwoWireSupply, |c| c.wiring.topology())
+}
+
+/// The procedures offered for a loop built as `topology`, one per symptom, in the order
+/// given (a plant's own first, then the built-ins): for each symptom, the first procedure
+/// that fits the topology (written for it by name, or for every loop), else (none of that
+/// symptom fits, for example a loop recorded with two sources) the first of that symptom.
+pub fn for_loop(procedures: &[Procedure], topology: Topology) -> Vec<Procedure> {
+    let mut symptoms: Vec<&str> = Vec::new();
+    for p in procedures {
+        if !symptoms.contains(&p.symptom.as_str()) {
+            symptoms.push(&p.symptom);
+        }
+    }
+    symptoms
+        .into_iter()
+        .filter_map(|symptom| {
+            let of: Vec<&Procedure> = procedures.iter().filter(|p| p.symptom == symptom).collect();
+            of.iter()
+                .find(|p| p.fits(topology))
+                .or_else(|| of.first())
+                .map(|p| (*p).clone())
+        })
+        .collect()
+}
+
+/// The procedure for `symptom` on a loop built as `topology`: a symptom name picks as
+/// [`for_loop`] does; any other procedure id names that procedure whatever the loop. Looks first in
+/// `extra` (a plant's own files) and then in the built-ins.
+pub fn find_for(symptom: &str, topology: Topology, extra: &[Procedure]) -> Result<Procedure> {
+    let wanted = symptom.trim();
+    let mut all: Vec<Procedure> = extra.to_vec();
+    all.extend(builtin()?);
+    if let Some(p) = for_loop(&all, topology)
+        .into_iter()
+        .find(|p| p.symptom == wanted)
+    {
+        return Ok(p);
+    }
+    find(wanted, extra)
 }
 
 /// The procedure for `symptom` (matched on symptom name or id), looking first in

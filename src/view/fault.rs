@@ -304,11 +304,15 @@ pub fn measured_line(m: Measurement, r: &Recorded, tag: &Tag) -> String {
 /// A recorded value with its unit, rounded as [`crate::display`] rounds that quantity.
 pub fn measured_value(m: Measurement, r: &Recorded, tag: &Tag) -> String {
     match m {
-        Measurement::TxMa | Measurement::RxMa | Measurement::SwingMa => display::ma(r.value),
+        Measurement::TxMa | Measurement::RxMa | Measurement::SwingMa | Measurement::DeviceMa => {
+            display::ma(r.value)
+        }
+        Measurement::DemandPct => display::percent(r.value),
         Measurement::SupplyV
         | Measurement::TerminalV
         | Measurement::ResistorV
-        | Measurement::ShieldAcV => display::volts(r.value),
+        | Measurement::ShieldAcV
+        | Measurement::SourceV => display::volts(r.value),
         Measurement::ResistorOhms | Measurement::LoopOhms => display::ohms(r.value),
         Measurement::Displayed | Measurement::ControlValue => display::value(
             r.value,
@@ -357,6 +361,14 @@ pub fn outcome_words(outcome: &str) -> String {
         "noisy" => "Interference on the shield",
         "steady" => "The loop current is steady",
         "swinging" => "The loop current swings",
+        "no-current-at-device" => "No current at the device",
+        "follows-demand" => "The current follows the demand",
+        "below-demand" => "Less current than the demand asks for",
+        "above-demand" => "More current than the demand asks for",
+        "source-dead" => "The source is not driving",
+        "source-has-headroom" => "The source has voltage in hand",
+        "source-at-compliance" => "The source is at its compliance",
+        "compliance-not-recorded" => "Compliance not recorded for this tag",
         "yes" => "Yes",
         "no" => "No",
         "otherwise" => "Recorded",
@@ -371,11 +383,20 @@ pub fn outcome_words(outcome: &str) -> String {
 /// mistakes that explain them) is bad.
 pub fn finding_tone(code: &str) -> Tone {
     match code {
-        "band-in-range" | "supply-ok" | "enough-voltage" | "currents-match" | "reading-agrees"
-        | "shield-quiet" | "current-steady" | "hart-in-window" => Tone::Good,
+        "band-in-range"
+        | "supply-ok"
+        | "enough-voltage"
+        | "currents-match"
+        | "reading-agrees"
+        | "shield-quiet"
+        | "current-steady"
+        | "hart-in-window"
+        | "output-follows-demand"
+        | "source-has-headroom" => Tone::Good,
         "band-under-range" | "band-over-range" => Tone::Outside,
         "band-suspect-low" | "band-suspect-high" | "short-at-top" => Tone::Caution,
-        "band-no-loop-current" => Tone::Dead,
+        "band-no-loop-current" | "output-no-current-at-device" | "source-dead" => Tone::Dead,
+        "source-compliance-not-recorded" => Tone::Caution,
         _ => Tone::Bad,
     }
 }
@@ -426,7 +447,12 @@ mod tests {
 
     #[test]
     fn the_menu_lists_every_builtin_symptom_with_its_summary() {
-        let menu = symptoms(&procedure::builtin().unwrap());
+        // A two-wire loop's menu: one procedure per symptom, in the built-in order.
+        let two_wire = procedure::for_loop(
+            &procedure::builtin().unwrap(),
+            crate::budget::topology::Topology::TwoWireSupply,
+        );
+        let menu = symptoms(&two_wire);
         assert_eq!(menu.len(), crate::diagnose::SYMPTOMS.len());
         for ((id, title), s) in crate::diagnose::SYMPTOMS.iter().zip(&menu) {
             assert_eq!(&s.id, id);

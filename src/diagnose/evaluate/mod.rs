@@ -15,6 +15,7 @@ pub mod band;
 pub mod current_swing;
 pub mod hart;
 pub mod leakage;
+pub mod output;
 pub mod readings;
 pub mod shield_noise;
 pub mod supply;
@@ -24,6 +25,7 @@ pub use band::{signal_band, BandFinding};
 pub use current_swing::SwingFinding;
 pub use hart::{hart_window, HartFinding};
 pub use leakage::{leakage, LeakageFinding};
+pub use output::{ComplianceFinding, OutputFinding};
 pub use readings::{ExplanationFinding, Reader, ReadingFinding};
 pub use shield_noise::ShieldFinding;
 pub use supply::{supply, SupplyFinding};
@@ -248,6 +250,11 @@ pub enum Detail {
     ShieldNoise(ShieldFinding),
     /// `current-swinging`, `current-steady`.
     CurrentSwing(SwingFinding),
+    /// `output-…`: the current at an output's field device against the demand.
+    Output(OutputFinding),
+    /// `source-dead`, `source-has-headroom`, `source-at-compliance`,
+    /// `source-compliance-not-recorded`: a current source's output voltage against its compliance.
+    Compliance(ComplianceFinding),
 }
 
 /// The codes of the explanations of a reading (the hypotheses' codes).
@@ -300,6 +307,11 @@ impl Detail {
                 "current-steady"
             }
             .to_string(),
+            Detail::Output(f) => format!("output-{}", f.outcome),
+            Detail::Compliance(f) => match f.outcome.strip_prefix("source-") {
+                Some(_) => f.outcome.clone(),
+                None => format!("source-{}", f.outcome),
+            },
         }
     }
 
@@ -316,6 +328,10 @@ impl Detail {
             Detail::Supply(take(detail)?)
         } else if code.starts_with("hart-") {
             Detail::Hart(take(detail)?)
+        } else if code.starts_with("output-") {
+            Detail::Output(take(detail)?)
+        } else if code.starts_with("source-") {
+            Detail::Compliance(take(detail)?)
         } else {
             match code {
                 "enough-voltage"
@@ -348,6 +364,8 @@ impl Detail {
             Detail::Hart(f) => serde_json::to_value(f),
             Detail::ShieldNoise(f) => serde_json::to_value(f),
             Detail::CurrentSwing(f) => serde_json::to_value(f),
+            Detail::Output(f) => serde_json::to_value(f),
+            Detail::Compliance(f) => serde_json::to_value(f),
         };
         value.unwrap_or(serde_json::Value::Null)
     }
@@ -408,10 +426,14 @@ pub enum Evaluation {
     ShieldNoise,
     /// Swing of the loop current against the tolerance.
     CurrentSwing,
+    /// Current at an output's field device against the control system's demand.
+    OutputFollowsDemand,
+    /// Voltage across a current source's output against its compliance.
+    SourceCompliance,
 }
 
 /// Every evaluation.
-pub const ALL: [Evaluation; 12] = [
+pub const ALL: [Evaluation; 14] = [
     Evaluation::BandAtTransmitter,
     Evaluation::BandAtReceiver,
     Evaluation::Supply,
@@ -424,6 +446,8 @@ pub const ALL: [Evaluation; 12] = [
     Evaluation::HartWindow,
     Evaluation::ShieldNoise,
     Evaluation::CurrentSwing,
+    Evaluation::OutputFollowsDemand,
+    Evaluation::SourceCompliance,
 ];
 
 const BAND_OUTCOMES: [&str; 8] = [
@@ -453,6 +477,8 @@ impl Evaluation {
             Evaluation::HartWindow => "hart-window",
             Evaluation::ShieldNoise => "shield-noise",
             Evaluation::CurrentSwing => "current-swing",
+            Evaluation::OutputFollowsDemand => "output-follows-demand",
+            Evaluation::SourceCompliance => "source-compliance",
         }
     }
 
@@ -477,6 +503,8 @@ impl Evaluation {
             Evaluation::HartWindow => &[LoopOhms],
             Evaluation::ShieldNoise => &[ShieldAcV],
             Evaluation::CurrentSwing => &[SwingMa],
+            Evaluation::OutputFollowsDemand => &[DemandPct, DeviceMa],
+            Evaluation::SourceCompliance => &[SourceV],
         }
     }
 
@@ -486,6 +514,7 @@ impl Evaluation {
         match self {
             Evaluation::TerminalVolts => &[TxMa, SupplyV],
             Evaluation::Leakage | Evaluation::LeakageFromResistor => &[TerminalV],
+            Evaluation::SourceCompliance => &[DeviceMa],
             _ => &[],
         }
     }
@@ -511,6 +540,18 @@ impl Evaluation {
             Evaluation::HartWindow => &["too-low", "in-window", "too-high", "open"],
             Evaluation::ShieldNoise => &["quiet", "noisy"],
             Evaluation::CurrentSwing => &["steady", "swinging"],
+            Evaluation::OutputFollowsDemand => &[
+                "no-current-at-device",
+                "follows-demand",
+                "below-demand",
+                "above-demand",
+            ],
+            Evaluation::SourceCompliance => &[
+                "source-dead",
+                "source-has-headroom",
+                "source-at-compliance",
+                "compliance-not-recorded",
+            ],
         }
     }
 
@@ -650,6 +691,23 @@ impl Evaluation {
                 shield_noise::evaluated(get(Measurement::ShieldAcV)?, settings)
             }
             Evaluation::CurrentSwing => current_swing::evaluated(tag, get(Measurement::SwingMa)?),
+            Evaluation::OutputFollowsDemand => output::follows_demand(
+                tag,
+                get(Measurement::DemandPct)?,
+                get(Measurement::DeviceMa)?,
+                settings.fit_tolerance_pct(tag),
+            ),
+            Evaluation::SourceCompliance => {
+                let f = output::compliance(
+                    tag,
+                    get(Measurement::SourceV)?,
+                    values.get(&Measurement::DeviceMa).copied(),
+                )?;
+                Ok(Evaluated {
+                    outcome: self.outcome(&f.outcome),
+                    findings: vec![Finding::new(Detail::Compliance(f))],
+                })
+            }
         }
     }
 }

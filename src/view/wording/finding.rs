@@ -10,8 +10,9 @@
 //! technician was shown with a marked note after it.
 
 use crate::diagnose::evaluate::{
-    BandFinding, Detail, ExplanationFinding, Finding, HartFinding, LeakageFinding, Reader,
-    ReadingFinding, ShieldFinding, SupplyFinding, SwingFinding, VoltageFinding, OLD_LEAK_PATH_KEY,
+    BandFinding, ComplianceFinding, Detail, ExplanationFinding, Finding, HartFinding,
+    LeakageFinding, OutputFinding, Reader, ReadingFinding, ShieldFinding, SupplyFinding,
+    SwingFinding, VoltageFinding, OLD_LEAK_PATH_KEY,
 };
 use crate::diagnose::mismatch::{round2, Hypothesis, KeptEnd, MismatchAt, Reading};
 use crate::display;
@@ -54,6 +55,8 @@ pub fn detail(d: &Detail) -> String {
         Detail::Hart(f) => hart(f),
         Detail::ShieldNoise(f) => shield_noise(f),
         Detail::CurrentSwing(f) => current_swing(f),
+        Detail::Output(f) => output(f),
+        Detail::Compliance(f) => compliance(f),
     }
 }
 
@@ -472,6 +475,62 @@ pub fn current_swing(f: &SwingFinding) -> String {
         format!(
             "The loop current is steady (swing {swing} = {pct} of span): the jumping is added after the transmitter, at the receiver or its input."
         )
+    }
+}
+
+/// The current at an output's field device against the control system's demand.
+pub fn output(f: &OutputFinding) -> String {
+    let (measured, expected) = (display::ma(f.measured_ma), display::ma(f.expected_ma));
+    let demand = display::percent(f.demand_pct);
+    match f.outcome.as_str() {
+        "no-current-at-device" => format!(
+            "No current reaches the device ({measured}) although the control system sends {demand} (which asks for {expected}): the output is not driving, or the loop is open between the output and the device."
+        ),
+        "follows-demand" => format!(
+            "The device gets {measured} for a demand of {demand} ({expected} expected; off by {} of span, within ±{}): the output and the loop carry the demand faithfully.",
+            display::percent(f.error_pct),
+            display::percent(f.tolerance_pct)
+        ),
+        "below-demand" => format!(
+            "The device gets {measured}, short of the {expected} a demand of {demand} asks for ({} of span, beyond ±{}): the source is losing current to a leak, running out of voltage, or is scaled differently.",
+            display::percent(f.error_pct),
+            display::percent(f.tolerance_pct)
+        ),
+        _ => format!(
+            "The device gets {measured}, more than the {expected} a demand of {demand} asks for ({} of span, beyond ±{}): the output is scaled or calibrated differently, held at a fail-safe value, or a second source feeds the loop.",
+            display::percent(f.error_pct),
+            display::percent(f.tolerance_pct)
+        ),
+    }
+}
+
+/// A current source's output voltage against its compliance.
+pub fn compliance(f: &ComplianceFinding) -> String {
+    let v = display::volts(f.measured_v);
+    let load = match (f.load_ohms, f.current_ma) {
+        (Some(r), Some(i)) => format!(
+            " At {} that is a load of {}.",
+            display::ma(i),
+            display::ohms(r)
+        ),
+        _ => String::new(),
+    };
+    match (f.outcome.as_str(), f.compliance_v, f.headroom_v) {
+        ("source-dead", _, _) => format!(
+            "{v} across the source's output: it is not driving at all (output off, failed, fused, unpowered, or the meter is not on its terminals).{load}"
+        ),
+        ("source-at-compliance", Some(c), _) => format!(
+            "{v} across the source's output, at its {} compliance: it has run out of voltage and cannot push more current through the loop.{load}",
+            display::volts(c)
+        ),
+        ("source-has-headroom", Some(c), Some(h)) => format!(
+            "{v} across the source's output, {} below its {} compliance: it has voltage in hand, so it is not the loop's resistance that holds the current back.{load}",
+            display::volts(h),
+            display::volts(c)
+        ),
+        _ => format!(
+            "{v} across the source's output; the tag records no compliance for it, so compare with the output's data sheet (the most it can drive): a source at its compliance cannot push more current.{load}"
+        ),
     }
 }
 
